@@ -1,0 +1,312 @@
+// The network file: the contract between the editor, the API, the solver and every outside check.
+// One zod schema validates shape (unknown fields rejected), then `networkRules` checks what a
+// shape cannot: references, unique ids, one slack per connected group, voltage levels.
+import { z } from "zod";
+
+const finite = z.number().finite();
+const positive = finite.positive();
+const nonNegative = finite.nonnegative();
+const id = z.string().trim().min(1, "must not be empty").max(100);
+const name = z.string().trim().min(1, "must not be empty").max(200);
+
+/** IEC 60076-1 vector group: HV letters, LV letters, clock number 0–11 (e.g. YNd11, Dyn11, YNyn0). */
+export const vectorGroupPattern = /^(YN|Y|D|ZN|Z)(yn|y|d|zn|z)(\d{1,2})$/;
+
+export const busSchema = z.strictObject({
+  id,
+  name,
+  nominalKV: positive,
+  vMinPu: positive.default(0.95),
+  vMaxPu: positive.default(1.05),
+  breakingKA: positive.optional(),
+  x: finite.optional(),
+  y: finite.optional(),
+});
+
+export const sourceSchema = z.strictObject({
+  id,
+  name,
+  bus: id,
+  kind: z.enum(["grid", "generator"]),
+  control: z.enum(["slack", "pv", "pq"]),
+  voltagePu: positive.default(1.0),
+  angleDeg: finite.default(0),
+  pMW: finite.default(0),
+  qMvar: finite.default(0),
+  qMinMvar: finite.optional(),
+  qMaxMvar: finite.optional(),
+  shortCircuitMVA: positive.optional(),
+  xOverR: positive.optional(),
+  z0OverZ1: positive.optional(),
+  ratedMVA: positive.optional(),
+  ratedKV: positive.optional(),
+  xdSubtransientPct: positive.optional(),
+  ratedPowerFactor: positive.max(1).optional(),
+});
+
+export const transformerSchema = z.strictObject({
+  id,
+  name,
+  hvBus: id,
+  lvBus: id,
+  ratedMVA: positive,
+  hvKV: positive,
+  lvKV: positive,
+  impedancePct: positive,
+  xOverR: positive.optional(),
+  loadLossKW: nonNegative.optional(),
+  noLoadLossKW: nonNegative.optional(),
+  tapPct: finite.default(0),
+  tapMinPct: finite.optional(),
+  tapMaxPct: finite.optional(),
+  tapStepPct: positive.optional(),
+  vectorGroup: z
+    .string()
+    .regex(vectorGroupPattern, "must be an IEC 60076-1 vector group such as YNd11, Dyn11 or YNyn0"),
+  z0OverZ1: positive.optional(),
+});
+
+export const lineSchema = z.strictObject({
+  id,
+  name,
+  fromBus: id,
+  toBus: id,
+  kind: z.enum(["overhead", "cable"]),
+  lengthKm: positive,
+  rOhmPerKm: nonNegative,
+  xOhmPerKm: nonNegative,
+  bMicroSiemensPerKm: nonNegative.optional(),
+  r0OhmPerKm: nonNegative.optional(),
+  x0OhmPerKm: nonNegative.optional(),
+  ampacityA: positive.optional(),
+});
+
+export const loadSchema = z.strictObject({
+  id,
+  name,
+  bus: id,
+  pMW: finite,
+  qMvar: finite.default(0),
+  model: z.enum(["constant-power", "constant-current", "constant-impedance"]).default("constant-power"),
+});
+
+export const shuntSchema = z.strictObject({
+  id,
+  name,
+  bus: id,
+  qMvar: finite,
+});
+
+const networkShape = z.strictObject({
+  format: z.literal("kilostep.network"),
+  version: z.literal(1),
+  name,
+  frequencyHz: z.union([z.literal(50), z.literal(60)]),
+  baseMVA: positive.default(100),
+  buses: z.array(busSchema).min(1, "a network needs at least one bus"),
+  sources: z.array(sourceSchema).default([]),
+  transformers: z.array(transformerSchema).default([]),
+  lines: z.array(lineSchema).default([]),
+  loads: z.array(loadSchema).default([]),
+  shunts: z.array(shuntSchema).default([]),
+});
+
+export type Network = z.output<typeof networkShape>;
+export type NetworkInput = z.input<typeof networkShape>;
+export type Bus = Network["buses"][number];
+export type Source = Network["sources"][number];
+export type Transformer = Network["transformers"][number];
+export type Line = Network["lines"][number];
+export type Load = Network["loads"][number];
+export type Shunt = Network["shunts"][number];
+
+export interface ValidationIssue {
+  /** Where the problem is, e.g. `transformers[0].hvKV`; empty for the document itself. */
+  path: string;
+  message: string;
+}
+
+/** Transformer winding voltages may differ from the bus nominal by this much (an off-nominal ratio). */
+export const WINDING_TOLERANCE = 0.15;
+
+function label(kind: string, element: { id: string; name: string }): string {
+  return `${kind} "${element.name}" (${element.id})`;
+}
+
+/** Cross-element rules a shape cannot express; every issue names the element and its path. */
+function networkRules(net: Network, ctx: z.RefinementCtx): void {
+  const add = (path: (string | number)[], message: string) =>
+    ctx.addIssue({ code: "custom", path, message });
+
+  const seen = new Map<string, string>();
+  const collections = ["buses", "sources", "transformers", "lines", "loads", "shunts"] as const;
+  for (const key of collections) {
+    net[key].forEach((element, i) => {
+      const first = seen.get(element.id);
+      if (first) add([key, i, "id"], `id "${element.id}" is already used by ${first}`);
+      else seen.set(element.id, `${key}[${i}]`);
+    });
+  }
+
+  const busById = new Map(net.buses.map((b) => [b.id, b]));
+  const busRef = (path: (string | number)[], busId: string, owner: string) => {
+    const bus = busById.get(busId);
+    if (!bus) add(path, `${owner} refers to bus "${busId}", which does not exist`);
+    return bus;
+  };
+
+  net.buses.forEach((b, i) => {
+    if (b.vMinPu >= b.vMaxPu)
+      add(["buses", i, "vMinPu"], `${label("Bus", b)}: vMinPu ${b.vMinPu} must be below vMaxPu ${b.vMaxPu}`);
+  });
+
+  net.sources.forEach((s, i) => {
+    const who = label("Source", s);
+    busRef(["sources", i, "bus"], s.bus, who);
+    if (s.kind === "grid" && s.shortCircuitMVA === undefined)
+      add(["sources", i, "shortCircuitMVA"], `${who}: a grid infeed needs its short-circuit power shortCircuitMVA`);
+    if (s.kind === "generator") {
+      if (s.ratedMVA === undefined) add(["sources", i, "ratedMVA"], `${who}: a generator needs ratedMVA`);
+      if (s.xdSubtransientPct === undefined)
+        add(["sources", i, "xdSubtransientPct"], `${who}: a generator needs its subtransient reactance xdSubtransientPct`);
+    }
+    if (s.qMinMvar !== undefined && s.qMaxMvar !== undefined && s.qMinMvar > s.qMaxMvar)
+      add(["sources", i, "qMinMvar"], `${who}: qMinMvar ${s.qMinMvar} is above qMaxMvar ${s.qMaxMvar}`);
+  });
+
+  net.transformers.forEach((t, i) => {
+    const who = label("Transformer", t);
+    const hv = busRef(["transformers", i, "hvBus"], t.hvBus, who);
+    const lv = busRef(["transformers", i, "lvBus"], t.lvBus, who);
+    if (t.hvBus === t.lvBus) add(["transformers", i, "lvBus"], `${who} connects bus "${t.hvBus}" to itself`);
+    if (hv && Math.abs(t.hvKV / hv.nominalKV - 1) > WINDING_TOLERANCE)
+      add(
+        ["transformers", i, "hvKV"],
+        `${who}: HV winding ${t.hvKV} kV is more than 15 % away from bus "${hv.name}" at ${hv.nominalKV} kV`,
+      );
+    if (lv && Math.abs(t.lvKV / lv.nominalKV - 1) > WINDING_TOLERANCE)
+      add(
+        ["transformers", i, "lvKV"],
+        `${who}: LV winding ${t.lvKV} kV is more than 15 % away from bus "${lv.name}" at ${lv.nominalKV} kV`,
+      );
+    if (t.loadLossKW === undefined && t.xOverR === undefined)
+      add(["transformers", i, "xOverR"], `${who}: give loadLossKW or xOverR so that its resistance is known`);
+    if (t.loadLossKW !== undefined && t.loadLossKW / (t.ratedMVA * 1000) >= t.impedancePct / 100)
+      add(["transformers", i, "loadLossKW"], `${who}: loadLossKW ${t.loadLossKW} gives a resistance above its impedance ${t.impedancePct} %`);
+    if (t.tapMinPct !== undefined && t.tapMaxPct !== undefined && t.tapMinPct > t.tapMaxPct)
+      add(["transformers", i, "tapMinPct"], `${who}: tapMinPct ${t.tapMinPct} is above tapMaxPct ${t.tapMaxPct}`);
+    if (t.tapPct <= -100) add(["transformers", i, "tapPct"], `${who}: tapPct ${t.tapPct} would leave no HV turns`);
+    const group = vectorGroupPattern.exec(t.vectorGroup);
+    if (group) {
+      const clock = Number(group[3]);
+      const hvKind = group[1][0];
+      const lvKind = group[2][0].toUpperCase();
+      // Star against delta or zigzag shifts by an odd clock number; like windings, and delta
+      // against zigzag, by an even one.
+      const mixed = hvKind !== lvKind && (hvKind === "Y" || lvKind === "Y");
+      if (clock > 11) add(["transformers", i, "vectorGroup"], `${who}: clock number ${clock} must be 0 to 11`);
+      else if ((clock % 2 === 1) !== mixed)
+        add(["transformers", i, "vectorGroup"], `${who}: ${t.vectorGroup} is not a possible vector group (clock number ${clock} does not fit these windings)`);
+    }
+  });
+
+  net.lines.forEach((l, i) => {
+    const who = label("Line", l);
+    const from = busRef(["lines", i, "fromBus"], l.fromBus, who);
+    const to = busRef(["lines", i, "toBus"], l.toBus, who);
+    if (l.fromBus === l.toBus) add(["lines", i, "toBus"], `${who} connects bus "${l.fromBus}" to itself`);
+    if (from && to && Math.abs(from.nominalKV - to.nominalKV) > 1e-9 * from.nominalKV)
+      add(
+        ["lines", i, "toBus"],
+        `${who} joins "${from.name}" at ${from.nominalKV} kV to "${to.name}" at ${to.nominalKV} kV: a line must stay within one voltage level`,
+      );
+    if (l.rOhmPerKm === 0 && l.xOhmPerKm === 0)
+      add(["lines", i, "xOhmPerKm"], `${who}: rOhmPerKm and xOhmPerKm are both 0; a line needs an impedance`);
+  });
+
+  net.loads.forEach((ld, i) => busRef(["loads", i, "bus"], ld.bus, label("Load", ld)));
+  net.shunts.forEach((sh, i) => busRef(["shunts", i, "bus"], sh.bus, label("Shunt", sh)));
+
+  // One slack per connected group: union-find over branches whose ends both exist.
+  const parent = new Map(net.buses.map((b) => [b.id, b.id]));
+  const find = (x: string): string => {
+    let root = x;
+    while (parent.get(root) !== root) root = parent.get(root)!;
+    parent.set(x, root);
+    return root;
+  };
+  const join = (a: string, b: string) => {
+    if (parent.has(a) && parent.has(b)) parent.set(find(a), find(b));
+  };
+  net.lines.forEach((l) => join(l.fromBus, l.toBus));
+  net.transformers.forEach((t) => join(t.hvBus, t.lvBus));
+  const slacks = new Map<string, number[]>();
+  net.sources.forEach((s, i) => {
+    if (s.control === "slack" && parent.has(s.bus)) {
+      const root = find(s.bus);
+      slacks.set(root, [...(slacks.get(root) ?? []), i]);
+    }
+  });
+  const reported = new Set<string>();
+  net.buses.forEach((b, i) => {
+    const root = find(b.id);
+    if (reported.has(root)) return;
+    reported.add(root);
+    const found = slacks.get(root) ?? [];
+    if (found.length === 0)
+      add(["buses", i], `Bus "${b.name}" (${b.id}) and the buses connected to it have no slack source; each connected group needs exactly one`);
+    for (const extra of found.slice(1))
+      add(["sources", extra, "control"], `${label("Source", net.sources[extra])} is a second slack in the group of bus "${b.name}"; each connected group needs exactly one`);
+  });
+}
+
+export const networkSchema = networkShape.superRefine(networkRules);
+
+export function formatPath(path: readonly PropertyKey[]): string {
+  let out = "";
+  for (const part of path) {
+    if (typeof part === "number") out += `[${part}]`;
+    else out += out ? `.${String(part)}` : String(part);
+  }
+  return out;
+}
+
+/** Messages in a planner's words for the shape errors zod reports in its own. */
+function plainMessage(issue: z.core.$ZodRawIssue): string | undefined {
+  switch (issue.code) {
+    case "unrecognized_keys":
+      return `unknown field${issue.keys.length > 1 ? "s" : ""} ${issue.keys.map((k) => `"${k}"`).join(", ")}`;
+    case "invalid_type":
+      if (issue.input === undefined) return `is required (${issue.expected})`;
+      return `must be ${issue.expected === "array" || issue.expected === "object" ? "an" : "a"} ${issue.expected}, not ${describe(issue.input)}`;
+    default:
+      return undefined;
+  }
+}
+
+function describe(value: unknown): string {
+  if (value === null) return "null";
+  if (Array.isArray(value)) return "a list";
+  if (typeof value === "string") return `the text "${value.length > 20 ? `${value.slice(0, 20)}…` : value}"`;
+  if (typeof value === "number" && !Number.isFinite(value)) return String(value);
+  return typeof value;
+}
+
+export type ValidationResult =
+  | { ok: true; network: Network }
+  | { ok: false; issues: ValidationIssue[] };
+
+/** Validate an untrusted document; every problem comes back with its path, none thrown. */
+export function validateNetwork(input: unknown): ValidationResult {
+  const parsed = networkSchema.safeParse(input, { error: plainMessage });
+  if (parsed.success) return { ok: true, network: parsed.data };
+  return {
+    ok: false,
+    issues: parsed.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })),
+  };
+}
+
+/** JSON Schema of the network file (input side: optional fields with defaults stay optional). */
+export function networkJsonSchema(): object {
+  return z.toJSONSchema(networkShape, { io: "input", target: "draft-2020-12" });
+}
