@@ -1,0 +1,201 @@
+// Positive- and zero-sequence networks for the IEC 60909-0 equivalent voltage source method:
+// every source shorted behind its corrected impedance (a shunt to the reference), loads, line
+// capacitance, shunts and magnetising branches left out, transformers at rated ratio (no tap).
+// The negative-sequence network equals the positive one (Z(2) = Z(1)).
+//
+// Each voltage level keeps its nominal voltage as base. A winding voltage may differ from its
+// bus nominal by up to 15 %: the transformer impedance is referred to the winding voltage on
+// its own side, and the rated ratio hvKV/lvKV stays as an ideal off-nominal ratio, so an
+// impedance seen through the transformer is scaled by the rated ratio squared, as the
+// standard refers impedances.
+//
+// Decisions where the network file is silent (documented here and in the fault results):
+// - Grid infeed: R/X = 0.1 when `xOverR` is absent (IEC 60909-0 allowance, from memory);
+//   zero-sequence Z(0)Q = z0OverZ1 × Z_Q with z0OverZ1 = 1 when absent (the utility gave only
+//   S"kQ; an effectively earthed system with S"k1 ≈ S"k3, common practice).
+// - Transformer zero-sequence impedance Z(0)T = z0OverZ1 × Z_T, with K_T applied as in the
+//   positive sequence; z0OverZ1 = 1 when absent (core-type Dyn/YNd units, common practice),
+//   0.1 for an earthed zigzag winding (its zero-sequence impedance is only the leakage between
+//   the half-windings on each limb; from memory, give the maker's value when known).
+// - Line zero-sequence from r0/x0 where given, each missing one 3 × its positive-sequence
+//   value (common practice).
+// - Generators are open in zero sequence (neutral assumed high-impedance earthed, common
+//   practice). Generator and unit transformer are corrected separately with K_G and K_T, as
+//   the methods prescribe, rather than as one power-station unit.
+import type { Bus, Network, Source, Transformer } from "#solver/schema.ts";
+import {
+  lineSeriesImpedancePu,
+  transformerImpedanceScale,
+  transformerOwnImpedancePu,
+  transformerRatioPu,
+} from "#solver/perUnit.ts";
+import {
+  DEFAULT_GRID_R_OVER_X,
+  fictitiousGeneratorROverX,
+  generatorCorrectionKG,
+  transformerCorrectionKT,
+  voltageFactorCMax,
+} from "./iecFactors.ts";
+import type { NodalNetwork } from "./nodalNetwork.ts";
+import { parseVectorGroup, VectorGroupError, zeroSequenceCoupling } from "./vectorGroup.ts";
+
+export const DEFAULT_GRID_Z0_OVER_Z1 = 1;
+export const DEFAULT_TRANSFORMER_Z0_OVER_Z1 = 1;
+export const DEFAULT_ZIGZAG_Z0_OVER_Z1 = 0.1;
+export const DEFAULT_GENERATOR_POWER_FACTOR = 0.85;
+/** Zero-sequence line impedance over positive when r0/x0 are not given (common practice). */
+export const LINE_Z0_OVER_Z1 = 3;
+
+export interface SequenceNetworks {
+  buses: Bus[];
+  /** c_max of each bus's voltage level, in bus order. */
+  cMax: Float64Array;
+  positive: NodalNetwork;
+  zero: NodalNetwork;
+}
+
+/** A network the fault model cannot represent; the message names the element. */
+export class FaultModelError extends Error {
+  override name = "FaultModelError";
+}
+
+interface Complex {
+  re: number;
+  im: number;
+}
+
+const scale = (z: Complex, k: number): Complex => ({ re: z.re * k, im: z.im * k });
+
+/** Z = |Z| split by X/R: R = |Z|/√(1 + (X/R)²), X = R·X/R. */
+function splitByXOverR(magnitude: number, xOverR: number): Complex {
+  const re = magnitude / Math.sqrt(1 + xOverR * xOverR);
+  return { re, im: re * xOverR };
+}
+
+function gridImpedancePu(source: Source, bus: Bus, baseMVA: number): Complex {
+  const c = voltageFactorCMax(bus.nominalKV);
+  // Z_Q = c·U_nQ² / S"kQ in ohms; on the bus's own voltage base U_nQ² cancels.
+  const magnitude = (c * baseMVA) / source.shortCircuitMVA!;
+  return splitByXOverR(magnitude, source.xOverR ?? 1 / DEFAULT_GRID_R_OVER_X);
+}
+
+function generatorImpedancePu(source: Source, bus: Bus, baseMVA: number): Complex {
+  const ratedKV = source.ratedKV ?? bus.nominalKV;
+  const ratedMVA = source.ratedMVA!;
+  const xd = source.xdSubtransientPct! / 100;
+  const kG = generatorCorrectionKG(
+    bus.nominalKV,
+    ratedKV,
+    voltageFactorCMax(bus.nominalKV),
+    xd,
+    source.ratedPowerFactor ?? DEFAULT_GENERATOR_POWER_FACTOR,
+  );
+  const xPu = xd * (ratedKV / bus.nominalKV) ** 2 * (baseMVA / ratedMVA);
+  const rOverX = source.xOverR !== undefined ? 1 / source.xOverR : fictitiousGeneratorROverX(ratedKV, ratedMVA);
+  return { re: kG * xPu * rOverX, im: kG * xPu };
+}
+
+interface TransformerModel {
+  /** Corrected series impedance on the LV side of the ideal ratio, system base. */
+  zLvSide: Complex;
+  ratio: number;
+}
+
+function transformerModel(t: Transformer, hv: Bus, lv: Bus, baseMVA: number): TransformerModel {
+  const own = transformerOwnImpedancePu(t);
+  const kT = transformerCorrectionKT(voltageFactorCMax(lv.nominalKV), own.x);
+  const toSystem = transformerImpedanceScale(t, lv, baseMVA);
+  return {
+    zLvSide: { re: own.r * toSystem * kT, im: own.x * toSystem * kT },
+    ratio: transformerRatioPu({ ...t, tapPct: 0 }, hv, lv),
+  };
+}
+
+export function buildSequenceNetworks(network: Network): SequenceNetworks {
+  const { buses, baseMVA } = network;
+  const index = new Map(buses.map((b, i) => [b.id, i]));
+  const busIndex = (id: string, owner: string): number => {
+    const i = index.get(id);
+    if (i === undefined) throw new FaultModelError(`${owner} refers to bus "${id}", which does not exist`);
+    return i;
+  };
+  const positive: NodalNetwork = { nodeCount: buses.length, branches: [], shunts: [] };
+  const zero: NodalNetwork = { nodeCount: buses.length, branches: [], shunts: [] };
+
+  for (const line of network.lines) {
+    const from = busIndex(line.fromBus, `line "${line.id}"`);
+    const to = busIndex(line.toBus, `line "${line.id}"`);
+    const z1 = lineSeriesImpedancePu(line, buses[from], baseMVA);
+    const z0 = lineSeriesImpedancePu(
+      {
+        ...line,
+        rOhmPerKm: line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm,
+        xOhmPerKm: line.x0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.xOhmPerKm,
+      },
+      buses[from],
+      baseMVA,
+    );
+    positive.branches.push({ from, to, zRe: z1.r, zIm: z1.x, ratioFrom: 1 });
+    zero.branches.push({ from, to, zRe: z0.r, zIm: z0.x, ratioFrom: 1 });
+  }
+
+  for (const t of network.transformers) {
+    const hv = busIndex(t.hvBus, `transformer "${t.id}"`);
+    const lv = busIndex(t.lvBus, `transformer "${t.id}"`);
+    const model = transformerModel(t, buses[hv], buses[lv], baseMVA);
+    positive.branches.push({ from: hv, to: lv, zRe: model.zLvSide.re, zIm: model.zLvSide.im, ratioFrom: model.ratio });
+
+    let group;
+    try {
+      group = parseVectorGroup(t.vectorGroup);
+    } catch (error) {
+      if (error instanceof VectorGroupError) throw new FaultModelError(`transformer "${t.id}": ${error.message}`);
+      throw error;
+    }
+    const coupling = zeroSequenceCoupling(group);
+    const z0OverZ1 = (side: "hv" | "lv") =>
+      t.z0OverZ1 ??
+      (group[side].connection === "zigzag" ? DEFAULT_ZIGZAG_Z0_OVER_Z1 : DEFAULT_TRANSFORMER_Z0_OVER_Z1);
+    const z0LvSide = (side: "hv" | "lv") => scale(model.zLvSide, z0OverZ1(side));
+    // Seen from the HV terminals an impedance on the LV side of the ideal t:1 is t² larger.
+    const shuntAt = (side: "hv" | "lv") => {
+      const z = side === "hv" ? scale(z0LvSide("hv"), model.ratio ** 2) : z0LvSide("lv");
+      zero.shunts.push({ node: side === "hv" ? hv : lv, zRe: z.re, zIm: z.im });
+    };
+    switch (coupling.kind) {
+      case "series": {
+        const z = z0LvSide("lv");
+        zero.branches.push({ from: hv, to: lv, zRe: z.re, zIm: z.im, ratioFrom: model.ratio });
+        break;
+      }
+      case "shunt":
+        shuntAt(coupling.side);
+        break;
+      case "shunt-both":
+        shuntAt("hv");
+        shuntAt("lv");
+        break;
+      case "open":
+        break;
+    }
+  }
+
+  for (const source of network.sources) {
+    const k = busIndex(source.bus, `source "${source.id}"`);
+    if (source.kind === "grid") {
+      if (source.shortCircuitMVA === undefined)
+        throw new FaultModelError(`grid infeed "${source.id}" has no shortCircuitMVA`);
+      const zQ = gridImpedancePu(source, buses[k], baseMVA);
+      const z0 = scale(zQ, source.z0OverZ1 ?? DEFAULT_GRID_Z0_OVER_Z1);
+      positive.shunts.push({ node: k, zRe: zQ.re, zIm: zQ.im });
+      zero.shunts.push({ node: k, zRe: z0.re, zIm: z0.im });
+    } else {
+      if (source.ratedMVA === undefined || source.xdSubtransientPct === undefined)
+        throw new FaultModelError(`generator "${source.id}" needs ratedMVA and xdSubtransientPct`);
+      const zG = generatorImpedancePu(source, buses[k], baseMVA);
+      positive.shunts.push({ node: k, zRe: zG.re, zIm: zG.im });
+    }
+  }
+
+  return { buses, cMax: Float64Array.from(buses, (b) => voltageFactorCMax(b.nominalKV)), positive, zero };
+}
