@@ -1,0 +1,147 @@
+// Reading quantities typed by a planner ("33 kV", "0.12 ohm/km", "25 MVA", "18 %") into the number
+// a network field stores in its own unit. mathjs does the unit arithmetic; this module decides
+// which units fit which field, because mathjs treats W, VA and var as one dimension.
+import { create, createUnitDependencies, unitDependencies, type Unit } from "mathjs";
+
+const math = create({ unitDependencies, createUnitDependencies });
+// Reactive power is dimensionally a power; a unit of its own lets "2 Mvar" read as such.
+math.createUnit("var", { definition: "1 VA", prefixes: "short" });
+
+export type QuantityKind =
+  | "kV"
+  | "kA"
+  | "A"
+  | "MVA"
+  | "MW"
+  | "Mvar"
+  | "kW"
+  | "km"
+  | "ohmPerKm"
+  | "microSiemensPerKm"
+  | "pct"
+  | "pu"
+  | "deg"
+  | "ratio";
+
+interface KindSpec {
+  /** The unit the field stores, as the planner reads it. */
+  label: string;
+  /** The same unit in mathjs notation; absent for dimensionless kinds. */
+  mathUnit?: string;
+  /** Unit names (without prefix) that may be typed into this field. */
+  accepts?: string[];
+  /** What to say when the unit is wrong. */
+  expects: string;
+}
+
+const kinds: Record<QuantityKind, KindSpec> = {
+  kV: { label: "kV", mathUnit: "kV", expects: "a voltage such as 33 kV" },
+  kA: { label: "kA", mathUnit: "kA", expects: "a current such as 25 kA" },
+  A: { label: "A", mathUnit: "A", expects: "a current such as 500 A" },
+  MVA: { label: "MVA", mathUnit: "MVA", accepts: ["VA"], expects: "an apparent power such as 25 MVA" },
+  MW: { label: "MW", mathUnit: "MW", accepts: ["W"], expects: "an active power such as 250 kW or 12 MW" },
+  Mvar: { label: "Mvar", mathUnit: "Mvar", accepts: ["var"], expects: "a reactive power such as 2 Mvar" },
+  kW: { label: "kW", mathUnit: "kW", accepts: ["W"], expects: "a power such as 118 kW" },
+  km: { label: "km", mathUnit: "km", expects: "a length such as 48 km" },
+  ohmPerKm: { label: "Ω/km", mathUnit: "ohm/km", expects: "an impedance per length such as 0.12 ohm/km" },
+  microSiemensPerKm: { label: "µS/km", mathUnit: "uS/km", expects: "a susceptance per length such as 2.9 uS/km" },
+  pct: { label: "%", expects: "a percentage such as 18 %" },
+  pu: { label: "pu", expects: "a per-unit value such as 1.03 (or 103 %)" },
+  deg: { label: "°", mathUnit: "deg", expects: "an angle such as -5 deg" },
+  ratio: { label: "", expects: "a plain number" },
+};
+
+export function unitLabel(kind: QuantityKind): string {
+  return kinds[kind].label;
+}
+
+export type ParsedQuantity =
+  | { ok: true; value: number; /** What was understood, e.g. "= 0.5 kV". */ understood: string }
+  | { ok: false; error: string };
+
+/** Twelve significant digits: enough for any rating, and it hides binary noise like 2.9000000000000004. */
+function tidy(value: number): number {
+  return Number(value.toPrecision(12));
+}
+
+export function formatQuantity(value: number, kind: QuantityKind): string {
+  const label = kinds[kind].label;
+  const text = String(tidy(value));
+  if (!label) return text;
+  return kind === "deg" ? `${text}°` : `${text} ${label}`;
+}
+
+const plainNumber = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+
+/**
+ * Spellings planners type that mathjs reads differently: "Ω" and "µ" are not in its alphabet,
+ * and lower-case "mw" or "mva" would be milli-units, which no one means on a power network.
+ */
+function normalise(text: string): string {
+  return text
+    .replace(/(\d),(?=\d{3}(\D|$))/g, "$1")
+    .replace(/[µμ]/g, "u")
+    .replace(/Ω|ohms\b/gi, "ohm")
+    .replace(/\bohm\b/gi, "ohm")
+    .replace(/\b([kmg]?)(var|va|w)\b/gi, (_, prefix: string, unit: string) => {
+      const p = prefix.toLowerCase() === "k" ? "k" : prefix ? prefix.toUpperCase() : "";
+      const u = unit.toLowerCase() === "var" ? "var" : unit.toUpperCase();
+      return p + u;
+    })
+    .replace(/\bkv\b/gi, "kV")
+    .replace(/\bka\b/gi, "kA")
+    .trim();
+}
+
+/** Read what a planner typed into a field of the given kind; bad input gives a sentence, never a throw. */
+export function parseQuantity(input: string, kind: QuantityKind): ParsedQuantity {
+  const spec = kinds[kind];
+  const text = normalise(input);
+  if (!text) return { ok: false, error: "is required" };
+  if (/\d,\d/.test(text)) return { ok: false, error: "use a point for decimals, e.g. 0.12" };
+
+  const percent = /^(.*?)\s*%$/.exec(text);
+  if (percent) {
+    const number = percent[1].trim();
+    if (!plainNumber.test(number)) return { ok: false, error: `cannot read "${input.trim()}" as a percentage` };
+    if (kind === "pct") return understood(Number(number), kind);
+    if (kind === "pu") return understood(Number(number) / 100, kind);
+    return { ok: false, error: `a percentage does not fit here; expected ${spec.expects}` };
+  }
+
+  const perUnit = /^(.*?)\s*p\.?u\.?$/i.exec(text);
+  if (perUnit) {
+    const number = perUnit[1].trim();
+    if (kind !== "pu") return { ok: false, error: `a per-unit value does not fit here; expected ${spec.expects}` };
+    if (!plainNumber.test(number)) return { ok: false, error: `cannot read "${input.trim()}" as a number` };
+    return understood(Number(number), kind);
+  }
+
+  if (plainNumber.test(text)) return understood(Number(text), kind);
+
+  if (!spec.mathUnit) return { ok: false, error: `expected ${spec.expects}` };
+
+  let unit: Unit;
+  try {
+    unit = math.unit(text);
+  } catch {
+    return { ok: false, error: `cannot read "${input.trim()}"; expected ${spec.expects}` };
+  }
+  const target = math.unit(spec.mathUnit);
+  if (unit.value === null || !unit.equalBase(target)) {
+    return { ok: false, error: `"${input.trim()}" is not ${spec.expects}` };
+  }
+  if (spec.accepts) {
+    const names = unit.units.map((u) => u.unit.name);
+    if (names.length !== 1 || !spec.accepts.includes(names[0])) {
+      return { ok: false, error: `"${input.trim()}" is not ${spec.expects}` };
+    }
+  }
+  return understood(unit.toNumber(spec.mathUnit), kind);
+}
+
+function understood(value: number, kind: QuantityKind): ParsedQuantity {
+  if (!Number.isFinite(value)) return { ok: false, error: "must be a finite number" };
+  const tidied = tidy(value);
+  return { ok: true, value: tidied, understood: `= ${formatQuantity(tidied, kind)}` };
+}
