@@ -43,6 +43,8 @@ export interface LoadFlowResult {
   method: string;
   /** Present when the load flow did not converge: a sentence a planner understands. */
   message?: string;
+  /** Present when the load flow did not converge: the share of the load (percent) that still solved. */
+  loadabilityPct?: number;
   buses: BusReading[];
   branches: BranchReading[];
   sources: SourceReading[];

@@ -1,0 +1,153 @@
+// The bus admittance matrix of a validated network, in typed arrays: each branch as a two-port
+// (I_from = y_ff·V_from + y_ft·V_to, I_to = y_tf·V_from + y_tt·V_to), summed into compressed rows.
+// Parallel branches add into the same entry, so rings and parallel lines need no special case.
+import type { Network } from "#solver/schema.ts";
+import type { Graph } from "#solver/sparse.ts";
+import {
+  lineSeriesImpedancePu,
+  lineShuntSusceptancePu,
+  shuntSusceptancePu,
+  transformerCoreConductancePu,
+  transformerRatioPu,
+  transformerSeriesImpedancePu,
+} from "#solver/perUnit.ts";
+
+/** Two-port admittances of every branch (lines first, then transformers), real and imaginary parts. */
+export interface BranchTwoPorts {
+  count: number;
+  from: Int32Array;
+  to: Int32Array;
+  /** Four complex entries per branch: ff, ft, tf, tt, as re/im pairs (8 numbers per branch). */
+  y: Float64Array;
+}
+
+export interface AdmittanceMatrix extends Graph {
+  /** Off-diagonal entries, aligned with `neighbours`. */
+  g: Float64Array;
+  b: Float64Array;
+  diagonalG: Float64Array;
+  diagonalB: Float64Array;
+}
+
+export interface NetworkAdmittance {
+  busIndex: Map<string, number>;
+  branches: BranchTwoPorts;
+  matrix: AdmittanceMatrix;
+}
+
+export function buildAdmittance(network: Network): NetworkAdmittance {
+  const busIndex = new Map<string, number>();
+  network.buses.forEach((bus, i) => busIndex.set(bus.id, i));
+  const branches = branchTwoPorts(network, busIndex);
+  const matrix = assemble(network, busIndex, branches);
+  return { busIndex, branches, matrix };
+}
+
+function branchTwoPorts(network: Network, busIndex: Map<string, number>): BranchTwoPorts {
+  const { baseMVA, buses } = network;
+  const count = network.lines.length + network.transformers.length;
+  const from = new Int32Array(count);
+  const to = new Int32Array(count);
+  const y = new Float64Array(8 * count);
+  let k = 0;
+  for (const line of network.lines) {
+    const f = busIndex.get(line.fromBus)!;
+    const bus = buses[f];
+    const z = lineSeriesImpedancePu(line, bus, baseMVA);
+    const halfB = lineShuntSusceptancePu(line, bus, baseMVA) / 2;
+    const den = z.r * z.r + z.x * z.x;
+    const gs = z.r / den;
+    const bs = -z.x / den;
+    from[k] = f;
+    to[k] = busIndex.get(line.toBus)!;
+    y.set([gs, bs + halfB, -gs, -bs, -gs, -bs, gs, bs + halfB], 8 * k);
+    k++;
+  }
+  for (const t of network.transformers) {
+    const h = busIndex.get(t.hvBus)!;
+    const l = busIndex.get(t.lvBus)!;
+    const z = transformerSeriesImpedancePu(t, buses[l], baseMVA);
+    const ratio = transformerRatioPu(t, buses[h], buses[l]);
+    const gCore = transformerCoreConductancePu(t, baseMVA);
+    const den = z.r * z.r + z.x * z.x;
+    const gs = z.r / den;
+    const bs = -z.x / den;
+    from[k] = h;
+    to[k] = l;
+    const r2 = ratio * ratio;
+    y.set([gs / r2 + gCore, bs / r2, -gs / ratio, -bs / ratio, -gs / ratio, -bs / ratio, gs, bs], 8 * k);
+    k++;
+  }
+  return { count, from, to, y };
+}
+
+function assemble(network: Network, busIndex: Map<string, number>, branches: BranchTwoPorts): AdmittanceMatrix {
+  const n = network.buses.length;
+  const { count, from, to, y } = branches;
+  const diagonalG = new Float64Array(n);
+  const diagonalB = new Float64Array(n);
+  for (const shunt of network.shunts) diagonalB[busIndex.get(shunt.bus)!] += shuntSusceptancePu(shunt, network.baseMVA);
+
+  // Count each branch once per end, then merge parallel branches into one neighbour entry.
+  const rawStart = new Int32Array(n + 1);
+  for (let k = 0; k < count; k++) {
+    rawStart[from[k] + 1]++;
+    rawStart[to[k] + 1]++;
+  }
+  for (let i = 0; i < n; i++) rawStart[i + 1] += rawStart[i];
+  const fillAt = rawStart.slice(0, n);
+  const rawNeighbour = new Int32Array(2 * count);
+  const rawG = new Float64Array(2 * count);
+  const rawB = new Float64Array(2 * count);
+  for (let k = 0; k < count; k++) {
+    const f = from[k];
+    const t = to[k];
+    const q = 8 * k;
+    diagonalG[f] += y[q];
+    diagonalB[f] += y[q + 1];
+    diagonalG[t] += y[q + 6];
+    diagonalB[t] += y[q + 7];
+    let e = fillAt[f]++;
+    rawNeighbour[e] = t;
+    rawG[e] = y[q + 2];
+    rawB[e] = y[q + 3];
+    e = fillAt[t]++;
+    rawNeighbour[e] = f;
+    rawG[e] = y[q + 4];
+    rawB[e] = y[q + 5];
+  }
+
+  const rowStart = new Int32Array(n + 1);
+  const neighbours = new Int32Array(2 * count);
+  const g = new Float64Array(2 * count);
+  const b = new Float64Array(2 * count);
+  const slotOf = new Int32Array(n).fill(-1);
+  let out = 0;
+  for (let i = 0; i < n; i++) {
+    rowStart[i] = out;
+    for (let e = rawStart[i]; e < rawStart[i + 1]; e++) {
+      const j = rawNeighbour[e];
+      const existing = slotOf[j];
+      if (existing >= rowStart[i]) {
+        g[existing] += rawG[e];
+        b[existing] += rawB[e];
+      } else {
+        slotOf[j] = out;
+        neighbours[out] = j;
+        g[out] = rawG[e];
+        b[out] = rawB[e];
+        out++;
+      }
+    }
+  }
+  rowStart[n] = out;
+  return {
+    nodeCount: n,
+    rowStart,
+    neighbours: neighbours.subarray(0, out),
+    g: g.subarray(0, out),
+    b: b.subarray(0, out),
+    diagonalG,
+    diagonalB,
+  };
+}

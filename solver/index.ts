@@ -1,0 +1,46 @@
+// The solver's one entry point, shared by the command line, the API and the browser:
+// validate the document, run the load flow, then the fault levels, then the checks.
+import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import type { Check, SolveResult } from "#solver/results.ts";
+import { runLoadFlow } from "#solver/loadFlow.ts";
+import { loadFlowChecks } from "#solver/checks.ts";
+import { computeFaultLevels, faultChecks } from "#solver/faults/index.ts";
+
+export { validateNetwork, networkJsonSchema, networkSchema, formatPath } from "#solver/schema.ts";
+export type {
+  Bus,
+  Line,
+  Load,
+  Network,
+  NetworkInput,
+  Shunt,
+  Source,
+  Transformer,
+  ValidationIssue,
+  ValidationResult,
+} from "#solver/schema.ts";
+export type * from "#solver/results.ts";
+export { busesCsv, branchesCsv } from "#solver/csv.ts";
+export { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/loadFlow.ts";
+
+export interface SolveOptions {
+  /** Compute IEC 60909-0 fault levels too (default true). */
+  faults?: boolean;
+}
+
+export type SolveOutcome = { ok: true; network: Network; result: SolveResult } | { ok: false; issues: ValidationIssue[] };
+
+export function solveNetwork(document: unknown, options: SolveOptions = {}): SolveOutcome {
+  const validated = validateNetwork(document);
+  if (!validated.ok) return validated;
+  const network = validated.network;
+  const loadFlow = runLoadFlow(network);
+  const checks: Check[] = loadFlowChecks(network, loadFlow);
+  const result: SolveResult = { loadFlow, checks };
+  if (options.faults ?? true) {
+    const faults = computeFaultLevels(network);
+    result.faults = faults;
+    checks.push(...faultChecks(network, faults));
+  }
+  return { ok: true, network, result };
+}
