@@ -3,7 +3,7 @@
 // ideal winding-ratio transformer hvKV/lvKV behind its short-circuit impedance in ohms on the
 // LV winding), sequence networks built straight from the network file, and the bus impedance
 // matrix from a dense inverse by mathjs. It shares no code with solver/faults.
-import { complex, inv, zeros, type Complex, type Matrix } from "mathjs";
+import { abs, add, complex, divide, inv, multiply, zeros, type Complex, type Matrix } from "mathjs";
 import type { Network } from "#solver/schema.ts";
 
 export interface ReferenceBusFault {
@@ -46,23 +46,22 @@ function driving(count: number, stamps: Stamp[]): (Complex | null)[] {
   const kept = [...Array(count).keys()].filter((i) => earthed.has(root(i)));
   const at = new Map(kept.map((bus, k) => [bus, k]));
   const Y = zeros(kept.length, kept.length, "dense") as Matrix;
-  const add = (i: number, j: number, v: Complex) => {
-    const current = Y.get([i, j]) as Complex | number;
-    Y.set([i, j], complex(current as Complex).add(v));
+  const stamp = (i: number, j: number, v: Complex) => {
+    Y.set([i, j], add(complex(Y.get([i, j]) as Complex), v));
   };
   for (const s of stamps) {
     const ia = at.get(s.a);
     if (ia === undefined) continue;
-    const y = complex(1, 0).div(s.zOhm) as Complex;
+    const y = divide(complex(1, 0), s.zOhm) as Complex;
     if (s.b === null) {
-      add(ia, ia, y);
+      stamp(ia, ia, y);
       continue;
     }
     const ib = at.get(s.b)!;
-    add(ia, ia, y.div(s.n * s.n) as Complex);
-    add(ib, ib, y);
-    add(ia, ib, y.div(-s.n) as Complex);
-    add(ib, ia, y.div(-s.n) as Complex);
+    stamp(ia, ia, divide(y, s.n * s.n) as Complex);
+    stamp(ib, ib, y);
+    stamp(ia, ib, divide(y, -s.n) as Complex);
+    stamp(ib, ia, divide(y, -s.n) as Complex);
   }
   const Z = kept.length > 0 ? (inv(Y) as Matrix) : Y;
   return [...Array(count).keys()].map((i) => {
@@ -104,12 +103,12 @@ export function referenceFaultLevels(net: Network): ReferenceBusFault[] {
 
     const { hv: h, lv: l } = windingLetters(t.vectorGroup);
     const zz = (letter: string) => t.z0OverZ1 ?? (letter === "ZN" ? 0.1 : 1);
-    const z0OnLv = (letter: string) => z1.mul(zz(letter)) as Complex;
+    const z0OnLv = (letter: string) => multiply(z1, zz(letter)) as Complex;
     if (h === "YN" && l === "YN") zer.push({ a: hv, b: lv, n, zOhm: z0OnLv("YN") });
     else {
       const hvEarths = h === "ZN" || (h === "YN" && l === "D");
       const lvEarths = l === "ZN" || (l === "YN" && h === "D");
-      if (hvEarths) zer.push({ a: hv, b: null, n: 1, zOhm: z0OnLv(h).mul(n * n) as Complex });
+      if (hvEarths) zer.push({ a: hv, b: null, n: 1, zOhm: multiply(z0OnLv(h), n * n) as Complex });
       if (lvEarths) zer.push({ a: lv, b: null, n: 1, zOhm: z0OnLv(l) });
     }
   }
@@ -123,7 +122,7 @@ export function referenceFaultLevels(net: Network): ReferenceBusFault[] {
       const rQ = zQ / Math.sqrt(1 + xOverR * xOverR);
       const z = complex(rQ, rQ * xOverR);
       pos.push({ a: k, b: null, n: 1, zOhm: z });
-      zer.push({ a: k, b: null, n: 1, zOhm: z.mul(s.z0OverZ1 ?? 1) as Complex });
+      zer.push({ a: k, b: null, n: 1, zOhm: multiply(z, s.z0OverZ1 ?? 1) as Complex });
     } else {
       const urG = s.ratedKV ?? un;
       const srG = s.ratedMVA!;
@@ -144,10 +143,10 @@ export function referenceFaultLevels(net: Network): ReferenceBusFault[] {
     const p = z1[i];
     const q = z0[i];
     if (!p) return { id: bus.id, z1Ohm: null, z0Ohm: null, ik3kA: 0, ip3kA: 0, ik1kA: 0, rOverX: 0 };
-    const ik3kA = (c * un) / (Math.sqrt(3) * (p.abs() as number));
+    const ik3kA = (c * un) / (Math.sqrt(3) * (abs(p) as unknown as number));
     const rOverX = p.re / p.im;
     const kappa = 1.02 + 0.98 * Math.exp(-3 * rOverX);
-    const ik1kA = q ? (Math.sqrt(3) * c * un) / (p.mul(2).add(q).abs() as number) : 0;
+    const ik1kA = q ? (Math.sqrt(3) * c * un) / (abs(add(multiply(p, 2), q) as Complex) as unknown as number) : 0;
     return {
       id: bus.id,
       z1Ohm: { re: p.re, im: p.im },
