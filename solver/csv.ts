@@ -29,7 +29,7 @@ export function busesCsv(network: Network, result: SolveResult): string {
   const faults = new Map((result.faults?.buses ?? []).map((f) => [f.id, f]));
   const withFaults = result.faults !== undefined;
   const header = ["bus_id", "bus_name", "nominal_kV", "voltage_pu", "voltage_kV", "angle_deg"];
-  if (withFaults) header.push("ik3_kA", "sk3_MVA", "ip3_kA", "ik1_kA");
+  if (withFaults) header.push("ik3_kA", "sk3_MVA", "ip3_kA", "ik1_kA", "r_over_x", "fault_note");
   const rows: Cell[][] = [];
   for (const bus of network.buses) {
     const r = readings.get(bus.id);
@@ -37,7 +37,7 @@ export function busesCsv(network: Network, result: SolveResult): string {
     const row: Cell[] = [bus.id, bus.name, bus.nominalKV, r.vPu, r.vKV, r.angleDeg];
     if (withFaults) {
       const f = faults.get(bus.id);
-      row.push(f?.ik3kA, f?.ik3MVA, f?.ip3kA, f?.ik1kA);
+      row.push(f?.ik3kA, f?.ik3MVA, f?.ip3kA, f?.ik1kA, f?.rOverX, f?.note);
     }
     rows.push(row);
   }
