@@ -1,0 +1,456 @@
+// The sheet drawn from the network document: pure functions, no React state.
+//
+// Modelling: every bus is a vertical busbar node; every other element (source, transformer,
+// line, load, shunt) is a node with one or two terminals, and each bus reference of the document
+// is a wire edge from a terminal to a busbar. Connecting, moving and deleting wires is therefore
+// editing the references of the document, which stays the one source of truth.
+//
+// Positions: the network file keeps x, y on buses only, so buses are placed from the document.
+// Every other element is placed relative to an anchor derived from its buses (its bus for a
+// source, load or shunt; the midpoint of its two buses for a transformer or line), plus an offset
+// kept in the sheet layout. The layout is not part of the network file: it lives in the editor's
+// store (undone with the document) and in this browser's storage per network. Without a stored
+// offset the element takes a default place beside its bus, so a document opened anywhere, or
+// imported from a file, is drawn sensibly, and moving a bus carries its elements with it.
+import { Position, type Edge, type Node } from "@xyflow/react";
+import type { Bus, Line, Load, Network, Shunt, Source, Transformer } from "#solver/schema.ts";
+
+export type ElementKind = "bus" | "source" | "transformer" | "line" | "load" | "shunt";
+export type TerminalId = "t" | "hv" | "lv" | "from" | "to";
+export type Side = "left" | "right";
+export interface XY {
+  x: number;
+  y: number;
+}
+export type AnyElement = Bus | Source | Transformer | Line | Load | Shunt;
+/** Offsets of non-bus elements from their anchor, by element id. */
+export type SheetLayout = Record<string, XY>;
+
+export interface ElementEntry {
+  kind: ElementKind;
+  element: AnyElement;
+  /** Position in its collection of the document. */
+  index: number;
+}
+
+export const GRID_PX = 20;
+/** Default spacing of buses without a position in the document. */
+const BUS_SPACING_PX = 240;
+const BAR_HIT_WIDTH_PX = 24;
+export const BAR_HALF_THICKNESS_PX = 3;
+const MIN_BAR_HALF_LENGTH_PX = 40;
+const ATTACHMENT_SLOT_PX = 80;
+const ATTACHMENT_OFFSET_PX = 120;
+const TERMINAL_HANDLE_PX = 12;
+const DETOUR_PX = 14;
+
+export const collectionKey = {
+  bus: "buses",
+  source: "sources",
+  transformer: "transformers",
+  line: "lines",
+  load: "loads",
+  shunt: "shunts",
+} as const satisfies Record<ElementKind, keyof Network>;
+
+export const terminalField = {
+  t: "bus",
+  hv: "hvBus",
+  lv: "lvBus",
+  from: "fromBus",
+  to: "toBus",
+} as const satisfies Record<TerminalId, string>;
+
+const twoTerminals = { transformer: ["hv", "lv"], line: ["from", "to"] } as const;
+
+export function terminalsOf(kind: ElementKind): TerminalId[] {
+  if (kind === "bus") return [];
+  if (kind === "transformer" || kind === "line") return [...twoTerminals[kind]];
+  return ["t"];
+}
+
+/** The bus id a terminal refers to; "" when it is not connected. */
+export function terminalBus(entry: ElementEntry, terminal: TerminalId): string {
+  const value = (entry.element as unknown as Record<string, unknown>)[terminalField[terminal]];
+  return typeof value === "string" ? value : "";
+}
+
+export function indexDocument(doc: Network): Map<string, ElementEntry> {
+  const entries = new Map<string, ElementEntry>();
+  for (const kind of Object.keys(collectionKey) as ElementKind[]) {
+    (doc[collectionKey[kind]] as AnyElement[]).forEach((element, index) => {
+      if (!entries.has(element.id)) entries.set(element.id, { kind, element, index });
+    });
+  }
+  return entries;
+}
+
+export function wireId(elementId: string, terminal: TerminalId): string {
+  return `${elementId}~${terminal}`;
+}
+
+export function parseWireId(id: string): { elementId: string; terminal: TerminalId } | undefined {
+  const at = id.lastIndexOf("~");
+  if (at < 0) return undefined;
+  const terminal = id.slice(at + 1);
+  if (!(terminal in terminalField)) return undefined;
+  return { elementId: id.slice(0, at), terminal: terminal as TerminalId };
+}
+
+const partSizes: Record<Exclude<ElementKind, "bus">, { width: number; height: number }> = {
+  source: { width: 64, height: 44 },
+  transformer: { width: 84, height: 44 },
+  line: { width: 100, height: 28 },
+  load: { width: 60, height: 32 },
+  shunt: { width: 60, height: 40 },
+};
+
+export function partSize(kind: Exclude<ElementKind, "bus">): { width: number; height: number } {
+  return partSizes[kind];
+}
+
+export function busDefaultCenter(bus: Bus, index: number): XY {
+  return { x: bus.x ?? index * BUS_SPACING_PX, y: bus.y ?? 0 };
+}
+
+/** Where an element's offset is measured from: its bus, the midpoint of its buses, or the origin. */
+export function anchorOf(entry: ElementEntry, busCenters: Map<string, XY>): XY {
+  const connected = terminalsOf(entry.kind)
+    .map((t) => busCenters.get(terminalBus(entry, t)))
+    .filter((c): c is XY => c !== undefined);
+  if (connected.length === 0) return { x: 0, y: 0 };
+  return {
+    x: connected.reduce((sum, c) => sum + c.x, 0) / connected.length,
+    y: connected.reduce((sum, c) => sum + c.y, 0) / connected.length,
+  };
+}
+
+/**
+ * Sources hang on the left of their busbar, loads and shunts on the right, stacked in slots.
+ * Elements the planner has placed keep their place and take no slot, so placing one never
+ * shifts the others.
+ */
+function defaultOffsets(entries: Map<string, ElementEntry>, busCenters: Map<string, XY>, layout: SheetLayout): Map<string, XY> {
+  const offsets = new Map<string, XY>();
+  const sides = new Map<string, { left: string[]; right: string[] }>();
+  for (const [id, entry] of entries) {
+    if (layout[id]) continue;
+    if (entry.kind === "source" || entry.kind === "load" || entry.kind === "shunt") {
+      const busId = terminalBus(entry, "t");
+      if (!busCenters.has(busId)) continue;
+      const slots = sides.get(busId) ?? { left: [], right: [] };
+      (entry.kind === "source" ? slots.left : slots.right).push(id);
+      sides.set(busId, slots);
+    } else if (entry.kind === "transformer" || entry.kind === "line") {
+      const [a, b] = terminalsOf(entry.kind);
+      const aBus = busCenters.has(terminalBus(entry, a));
+      const bBus = busCenters.has(terminalBus(entry, b));
+      if (aBus !== bBus) offsets.set(id, { x: aBus ? ATTACHMENT_OFFSET_PX : -ATTACHMENT_OFFSET_PX, y: 0 });
+    }
+  }
+  for (const { left, right } of sides.values()) {
+    for (const [list, dx] of [
+      [left, -ATTACHMENT_OFFSET_PX],
+      [right, ATTACHMENT_OFFSET_PX],
+    ] as const) {
+      list.forEach((id, i) => offsets.set(id, { x: dx, y: (i - (list.length - 1) / 2) * ATTACHMENT_SLOT_PX }));
+    }
+  }
+  return offsets;
+}
+
+export interface Wire {
+  id: string;
+  elementId: string;
+  terminal: TerminalId;
+  busId: string;
+  points: XY[];
+  nominalKV: number;
+}
+
+export interface SheetGeometry {
+  entries: Map<string, ElementEntry>;
+  busCenters: Map<string, XY>;
+  centers: Map<string, XY>;
+  sides: Map<string, Partial<Record<TerminalId, Side>>>;
+  busHalfLengths: Map<string, number>;
+  wires: Wire[];
+}
+
+function sideTowards(from: XY, to: XY | undefined, fallback: Side): Side {
+  if (!to || to.x === from.x) return fallback;
+  return to.x < from.x ? "left" : "right";
+}
+
+function terminalSides(entry: ElementEntry, center: XY, busCenters: Map<string, XY>): Partial<Record<TerminalId, Side>> {
+  if (entry.kind === "bus") return {};
+  if (entry.kind === "transformer" || entry.kind === "line") {
+    const [a, b] = terminalsOf(entry.kind);
+    const aBus = busCenters.get(terminalBus(entry, a));
+    const bBus = busCenters.get(terminalBus(entry, b));
+    let aSide: Side = "left";
+    if (aBus && bBus) aSide = aBus.x === bBus.x ? sideTowards(center, aBus, "left") : aBus.x < bBus.x ? "left" : "right";
+    else if (aBus) aSide = sideTowards(center, aBus, "left");
+    else if (bBus) aSide = sideTowards(center, bBus, "right") === "left" ? "right" : "left";
+    return { [a]: aSide, [b]: aSide === "left" ? "right" : "left" };
+  }
+  const fallback: Side = entry.kind === "source" ? "right" : "left";
+  return { t: sideTowards(center, busCenters.get(terminalBus(entry, "t")), fallback) };
+}
+
+export function terminalPoint(kind: Exclude<ElementKind, "bus">, center: XY, side: Side): XY {
+  const { width } = partSizes[kind];
+  return { x: center.x + (side === "left" ? -width / 2 : width / 2), y: center.y };
+}
+
+/** Lay out the whole sheet: node centers, terminal sides, busbar lengths and wire routes. */
+export function sheetGeometry(doc: Network, layout: SheetLayout, overrides?: Record<string, XY>): SheetGeometry {
+  const entries = indexDocument(doc);
+  const busCenters = busCenterMap(doc);
+  if (overrides) for (const id of busCenters.keys()) if (overrides[id]) busCenters.set(id, overrides[id]);
+  const defaults = defaultOffsets(entries, busCenters, layout);
+  const centers = new Map<string, XY>(busCenters);
+  const sides = new Map<string, Partial<Record<TerminalId, Side>>>();
+  for (const [id, entry] of entries) {
+    if (entry.kind === "bus") continue;
+    const override = overrides?.[id];
+    let center: XY;
+    if (override) center = override;
+    else {
+      const anchor = anchorOf(entry, busCenters);
+      const offset = layout[id] ?? defaults.get(id) ?? { x: 0, y: 0 };
+      center = { x: anchor.x + offset.x, y: anchor.y + offset.y };
+    }
+    centers.set(id, center);
+    sides.set(id, terminalSides(entry, center, busCenters));
+  }
+
+  const wires: Wire[] = [];
+  const reach = new Map<string, number>();
+  for (const [id, entry] of entries) {
+    if (entry.kind === "bus") continue;
+    for (const terminal of terminalsOf(entry.kind)) {
+      const busId = terminalBus(entry, terminal);
+      const bar = busCenters.get(busId);
+      if (!bar) continue;
+      const side = sides.get(id)![terminal]!;
+      const start = terminalPoint(entry.kind, centers.get(id)!, side);
+      const barX = start.x < bar.x ? bar.x - BAR_HALF_THICKNESS_PX : bar.x + BAR_HALF_THICKNESS_PX;
+      const facesBar = side === "left" ? bar.x < start.x : bar.x > start.x;
+      let points: XY[];
+      if (facesBar) points = [start, { x: barX, y: start.y }];
+      else {
+        const outX = start.x + (side === "left" ? -DETOUR_PX : DETOUR_PX);
+        const detourY = start.y + partSizes[entry.kind].height / 2 + DETOUR_PX;
+        const landX = outX < bar.x ? bar.x - BAR_HALF_THICKNESS_PX : bar.x + BAR_HALF_THICKNESS_PX;
+        points = [start, { x: outX, y: start.y }, { x: outX, y: detourY }, { x: landX, y: detourY }];
+      }
+      const landY = points[points.length - 1].y;
+      reach.set(busId, Math.max(reach.get(busId) ?? 0, Math.abs(landY - bar.y)));
+      const bus = entries.get(busId)!.element as Bus;
+      wires.push({ id: wireId(id, terminal), elementId: id, terminal, busId, points, nominalKV: bus.nominalKV });
+    }
+  }
+  const busHalfLengths = new Map<string, number>();
+  for (const busId of busCenters.keys()) {
+    const needed = (reach.get(busId) ?? 0) + 16;
+    busHalfLengths.set(busId, Math.max(MIN_BAR_HALF_LENGTH_PX, Math.ceil(needed / GRID_PX) * GRID_PX));
+  }
+  return { entries, busCenters, centers, sides, busHalfLengths, wires };
+}
+
+export interface SheetNodeData extends Record<string, unknown> {
+  kind: ElementKind;
+  element: AnyElement;
+  width: number;
+  height: number;
+  sides: Partial<Record<TerminalId, Side>>;
+  /** Nominal kV of the bus each terminal is wired to; absent when not connected. */
+  terminalKV: Partial<Record<TerminalId, number>>;
+  /** Busbars only: half the bar's length. */
+  halfLength?: number;
+}
+
+export type SheetNode = Node<SheetNodeData, ElementKind>;
+
+export interface WireData extends Record<string, unknown> {
+  points: XY[];
+  nominalKV: number;
+}
+
+export type WireEdge = Edge<WireData, "wire">;
+
+const kindWords: Record<ElementKind, string> = {
+  bus: "Busbar",
+  source: "Source",
+  transformer: "Transformer",
+  line: "Line",
+  load: "Load",
+  shunt: "Shunt capacitor",
+};
+
+export function describeElement(entry: ElementEntry): string {
+  if (entry.kind === "source") return `${(entry.element as Source).kind === "grid" ? "Grid infeed" : "Generator"} ${entry.element.name}`;
+  if (entry.kind === "line") return `${(entry.element as Line).kind === "cable" ? "Cable" : "Overhead line"} ${entry.element.name}`;
+  return `${kindWords[entry.kind]} ${entry.element.name}`;
+}
+
+export interface FlowOptions {
+  selection?: ReadonlySet<string>;
+  overrides?: Record<string, XY>;
+}
+
+/** The xyflow nodes and edges for a document: derived every time, never stored. */
+export function documentToFlow(
+  doc: Network,
+  layout: SheetLayout,
+  options: FlowOptions = {},
+): { nodes: SheetNode[]; edges: WireEdge[]; geometry: SheetGeometry } {
+  const geometry = sheetGeometry(doc, layout, options.overrides);
+  const selection = options.selection ?? new Set<string>();
+  const nodes: SheetNode[] = [];
+  const busKV = (busId: string) => {
+    const entry = geometry.entries.get(busId);
+    return entry?.kind === "bus" ? (entry.element as Bus).nominalKV : undefined;
+  };
+  for (const [id, entry] of geometry.entries) {
+    const center = geometry.centers.get(id)!;
+    let width: number;
+    let height: number;
+    let handles: NonNullable<SheetNode["handles"]>;
+    const terminalKV: Partial<Record<TerminalId, number>> = {};
+    const sides = geometry.sides.get(id) ?? {};
+    let halfLength: number | undefined;
+    if (entry.kind === "bus") {
+      halfLength = geometry.busHalfLengths.get(id)!;
+      width = BAR_HIT_WIDTH_PX;
+      height = halfLength * 2;
+      handles = [{ id: "bar", type: "target", position: Position.Left, x: 0, y: 0, width, height }];
+    } else {
+      ({ width, height } = partSizes[entry.kind]);
+      handles = terminalsOf(entry.kind).map((terminal) => {
+        const kv = busKV(terminalBus(entry, terminal));
+        if (kv !== undefined) terminalKV[terminal] = kv;
+        const side = sides[terminal]!;
+        return {
+          id: terminal,
+          type: "source" as const,
+          position: side === "left" ? Position.Left : Position.Right,
+          x: side === "left" ? -TERMINAL_HANDLE_PX / 2 : width - TERMINAL_HANDLE_PX / 2,
+          y: height / 2 - TERMINAL_HANDLE_PX / 2,
+          width: TERMINAL_HANDLE_PX,
+          height: TERMINAL_HANDLE_PX,
+        };
+      });
+    }
+    nodes.push({
+      id,
+      type: entry.kind,
+      position: center,
+      width,
+      height,
+      measured: { width, height },
+      handles,
+      selected: selection.has(id),
+      ariaLabel: describeElement(entry),
+      data: { kind: entry.kind, element: entry.element, width, height, sides, terminalKV, halfLength },
+    });
+  }
+  const edges: WireEdge[] = geometry.wires.map((wire) => ({
+    id: wire.id,
+    type: "wire",
+    source: wire.elementId,
+    sourceHandle: wire.terminal,
+    target: wire.busId,
+    targetHandle: "bar",
+    selected: selection.has(wire.id),
+    ariaLabel: `Connection of ${describeElement(geometry.entries.get(wire.elementId)!)} to busbar ${geometry.entries.get(wire.busId)!.element.name}`,
+    data: { points: wire.points, nominalKV: wire.nominalKV },
+  }));
+  return { nodes, edges, geometry };
+}
+
+/** The busbar whose bar lies under a point (within a tolerance), for dropping a part onto a bus. */
+export function busAt(geometry: SheetGeometry, point: XY, tolerancePx = 24): string | undefined {
+  let best: { id: string; distance: number } | undefined;
+  for (const [id, center] of geometry.busCenters) {
+    const half = geometry.busHalfLengths.get(id)!;
+    const dx = Math.abs(point.x - center.x);
+    const dy = Math.max(0, Math.abs(point.y - center.y) - half);
+    const distance = Math.hypot(dx, dy);
+    if (distance <= tolerancePx && (!best || distance < best.distance)) best = { id, distance };
+  }
+  return best?.id;
+}
+
+export function busCenterMap(doc: Network): Map<string, XY> {
+  const centers = new Map<string, XY>();
+  doc.buses.forEach((bus, i) => {
+    if (!centers.has(bus.id)) centers.set(bus.id, busDefaultCenter(bus, i));
+  });
+  return centers;
+}
+
+export interface SheetContent {
+  document: Network;
+  layout: SheetLayout;
+}
+
+/**
+ * After an edit that changes references, keep the given elements where they were drawn: their
+ * offsets are re-measured from their new anchors.
+ */
+export function keepDrawnPositions(before: SheetGeometry, next: SheetContent, ids: Iterable<string>): SheetLayout {
+  const entries = indexDocument(next.document);
+  const busCenters = busCenterMap(next.document);
+  let layout = next.layout;
+  for (const id of ids) {
+    const entry = entries.get(id);
+    const drawn = before.centers.get(id);
+    if (!entry || entry.kind === "bus" || !drawn) continue;
+    const anchor = anchorOf(entry, busCenters);
+    if (layout === next.layout) layout = { ...layout };
+    layout[id] = { x: drawn.x - anchor.x, y: drawn.y - anchor.y };
+  }
+  return layout;
+}
+
+/**
+ * Commit moved nodes (from a drag or the arrow keys): buses take the new x, y in the document;
+ * other elements get new offsets from their anchors, measured after the buses have moved, so a
+ * bus dragged together with its load keeps the load's offset.
+ */
+export function applyMoves(state: SheetContent, moves: Record<string, XY>): SheetContent {
+  const round = (v: number) => Math.round(v * 100) / 100;
+  let document = state.document;
+  if (state.document.buses.some((b) => moves[b.id])) {
+    document = {
+      ...state.document,
+      buses: state.document.buses.map((b) => (moves[b.id] ? { ...b, x: round(moves[b.id].x), y: round(moves[b.id].y) } : b)),
+    };
+  }
+  const entries = indexDocument(document);
+  const busCenters = busCenterMap(document);
+  let layout = state.layout;
+  for (const [id, position] of Object.entries(moves)) {
+    const entry = entries.get(id);
+    if (!entry || entry.kind === "bus") continue;
+    const anchor = anchorOf(entry, busCenters);
+    if (layout === state.layout) layout = { ...layout };
+    layout[id] = { x: round(position.x - anchor.x), y: round(position.y - anchor.y) };
+  }
+  return { document, layout };
+}
+
+/** Replace one element of the document (same id), keeping everything else by reference. */
+export function replaceElement(doc: Network, entry: ElementEntry, element: AnyElement): Network {
+  const key = collectionKey[entry.kind];
+  const list = [...(doc[key] as AnyElement[])];
+  list[entry.index] = element;
+  return { ...doc, [key]: list } as Network;
+}
+
+/** Set (or clear, with "") the bus a terminal refers to. */
+export function setTerminalBus(doc: Network, entry: ElementEntry, terminal: TerminalId, busId: string): Network {
+  return replaceElement(doc, entry, { ...entry.element, [terminalField[terminal]]: busId } as AnyElement);
+}
