@@ -1,0 +1,287 @@
+// The voltage ladder: the same link solved at each candidate voltage and compared on losses,
+// voltages, fault levels and money. Every alternative goes through solveNetwork, the function
+// the command line, the API and the sheet use.
+import { z } from "zod";
+import { alternativeOverridesSchema, deriveAlternative, inputMessage, zodIssues } from "#solver/alternative.ts";
+import {
+  capitalCost,
+  lossMoney,
+  moneyInputSchema,
+  priceSensitivity,
+  rankByTotalCost,
+  type CapitalCost,
+  type CapitalOverride,
+  type LossMoney,
+  type MoneyInput,
+  type PriceSensitivity,
+} from "#solver/economics.ts";
+import { standardVoltage, type StandardVoltage } from "#solver/iec60038.ts";
+import { solveNetwork } from "#solver/index.ts";
+import type { Check, CheckKind, FaultBusReading, SolveResult } from "#solver/results.ts";
+import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import { findSection, type Section } from "#solver/section.ts";
+
+export { findSection, type Section, type FacingWinding } from "#solver/section.ts";
+export { deriveAlternative, alternativeOverridesSchema, conductorSchema, type AlternativeOverrides, type Conductor } from "#solver/alternative.ts";
+
+/** The highest system voltage in IEC 60038 is 1200 kV U_m; anything above is a unit slip. */
+export const MAX_CANDIDATE_KV = 1200;
+export const MAX_ALTERNATIVES = 12;
+
+export const ladderRequestSchema = z.strictObject({
+  sectionBus: z.string().trim().min(1, "must name a bus of the section to re-rate"),
+  voltagesKV: z
+    .array(
+      z
+        .number()
+        .finite("must be a finite voltage")
+        .positive("must be a voltage above 0 kV")
+        .max(MAX_CANDIDATE_KV, `is above ${MAX_CANDIDATE_KV} kV; enter kilovolts (33, not 33000)`),
+    )
+    .min(1, "needs at least one candidate voltage")
+    .max(MAX_ALTERNATIVES, `may hold at most ${MAX_ALTERNATIVES} candidate voltages`),
+  money: moneyInputSchema.prefault({}),
+  /** Per alternative, in the order of voltagesKV: conductor, element overrides, capital entries. */
+  overrides: z.array(alternativeOverridesSchema.nullable()).optional(),
+});
+export type LadderRequest = z.input<typeof ladderRequestSchema>;
+
+export interface LadderAlternative {
+  voltageKV: number;
+  /** The candidate's IEC 60038 entry; null for a voltage entered freely that is not on the list. */
+  standard: StandardVoltage | null;
+  converged: boolean;
+  /** Converged, and no bus voltage, line current or transformer loading beyond its limit. */
+  withinLimits: boolean;
+  /** A sentence for the planner: why it does not carry the load, or what it comes to. */
+  message: string;
+  lossMW: number | null;
+  lineLossMW: number | null;
+  /** Losses of the re-rated lines alone: what the 1/V² law speaks of. */
+  sectionLineLossMW: number | null;
+  transformerLossMW: number | null;
+  transformerCopperLossMW: number | null;
+  transformerCoreLossMW: number | null;
+  /**
+   * Section line loss predicted from the reference alternative by (V_ref / V)², the law of
+   * Joule at the same delivered power and power factor, shown beside the computed one.
+   */
+  predictedSectionLineLossMW: number | null;
+  minVPu: number | null;
+  maxVPu: number | null;
+  checks: Check[];
+  /** IEC 60909-0 fault levels at the section's end buses (computed whether or not the load flow converges). */
+  faults: FaultBusReading[];
+  money: { capital: CapitalCost; losses: LossMoney | null; totalCost: number | null };
+  network: Network;
+  result: SolveResult;
+}
+
+export interface LadderRecommendation {
+  index: number;
+  voltageKV: number;
+  totalCost: number;
+  withinLimits: boolean;
+  note: string;
+}
+
+export interface Ladder {
+  sectionBus: string;
+  section: Section;
+  money: MoneyInput;
+  alternatives: LadderAlternative[];
+  /** The lowest total cost among alternatives within limits, else among those that converge; null when none does. */
+  cheapest: LadderRecommendation | null;
+  sensitivity: PriceSensitivity;
+  /** The lowest voltage that converged: the 1/V² curve is drawn through it. */
+  inverseSquareReference: { index: number; voltageKV: number; sectionLineLossMW: number } | null;
+}
+
+export type LadderOutcome = { ok: true; ladder: Ladder } | { ok: false; issues: ValidationIssue[] };
+
+const LIMIT_KINDS: readonly CheckKind[] = ["undervoltage", "overvoltage", "line-overload", "transformer-overload"];
+
+/** Run the ladder on an untrusted network document and request; every problem comes back named, none thrown. */
+export function runLadder(document: unknown, requestInput: unknown): LadderOutcome {
+  const validated = validateNetwork(document);
+  if (!validated.ok)
+    return { ok: false, issues: validated.issues.map((i) => ({ path: i.path ? `network.${i.path}` : "network", message: i.message })) };
+  const network = validated.network;
+
+  const parsed = ladderRequestSchema.safeParse(requestInput, { error: inputMessage });
+  if (!parsed.success)
+    return {
+      ok: false,
+      issues: zodIssues(parsed.error).map((i) => (i.path ? i : { path: i.path, message: `the ladder request ${i.message}` })),
+    };
+  const request = parsed.data;
+  const issues: ValidationIssue[] = [];
+  if ((request.overrides?.length ?? 0) > request.voltagesKV.length)
+    issues.push({ path: "overrides", message: `has ${request.overrides!.length} entries for ${request.voltagesKV.length} candidate voltages; give one per voltage (null for none)` });
+  const section = findSection(network, request.sectionBus);
+  if (!section) issues.push({ path: "sectionBus", message: `there is no bus "${request.sectionBus}" in the network` });
+  if (issues.length > 0 || !section) return { ok: false, issues };
+
+  const derived = request.voltagesKV.map((voltageKV, i) => {
+    const result = deriveAlternative(network, section, voltageKV, request.overrides?.[i] ?? {});
+    if (!result.ok)
+      issues.push(
+        ...result.issues.map((issue) =>
+          issue.path.startsWith("overrides")
+            ? { path: `overrides[${i}]${issue.path.slice("overrides".length)}`, message: issue.message }
+            : { path: `voltagesKV[${i}]`, message: `${voltageKV} kV: ${issue.message}${issue.path ? ` (${issue.path})` : ""}` },
+        ),
+      );
+    return result;
+  });
+  const solved = derived.map((d, i) => {
+    if (!d.ok) return undefined;
+    const outcome = solveNetwork(d.network);
+    if (!outcome.ok)
+      issues.push(...outcome.issues.map((issue) => ({ path: `voltagesKV[${i}]`, message: `${request.voltagesKV[i]} kV: ${issue.message}` })));
+    return outcome.ok ? outcome : undefined;
+  });
+  if (issues.length > 0) return { ok: false, issues };
+
+  const alternatives = solved.map((outcome, i) =>
+    describeAlternative(request.voltagesKV[i], section, outcome!.network, outcome!.result, request.money, request.overrides?.[i]?.capital),
+  );
+
+  const referenceIndex = alternatives.reduce<number | null>(
+    (best, a, i) => (a.sectionLineLossMW !== null && (best === null || a.voltageKV < alternatives[best].voltageKV) ? i : best),
+    null,
+  );
+  const inverseSquareReference =
+    referenceIndex === null
+      ? null
+      : {
+          index: referenceIndex,
+          voltageKV: alternatives[referenceIndex].voltageKV,
+          sectionLineLossMW: alternatives[referenceIndex].sectionLineLossMW!,
+        };
+  if (inverseSquareReference)
+    for (const a of alternatives)
+      a.predictedSectionLineLossMW = inverseSquareReference.sectionLineLossMW * (inverseSquareReference.voltageKV / a.voltageKV) ** 2;
+
+  const sensitivity = priceSensitivity(
+    alternatives.map((a) => ({
+      loadDependentPeakLossMW: a.lossMW === null ? null : a.lossMW - a.transformerCoreLossMW!,
+      coreLossMW: a.transformerCoreLossMW,
+      capitalCost: a.money.capital.total,
+    })),
+    request.money,
+  );
+
+  return {
+    ok: true,
+    ladder: {
+      sectionBus: request.sectionBus,
+      section,
+      money: request.money,
+      alternatives,
+      cheapest: recommend(alternatives, request.money.currency),
+      sensitivity,
+      inverseSquareReference,
+    },
+  };
+}
+
+function describeAlternative(
+  voltageKV: number,
+  section: Section,
+  network: Network,
+  result: SolveResult,
+  money: MoneyInput,
+  capitalOverride: CapitalOverride | undefined,
+): LadderAlternative {
+  const sectionLines = new Set(section.lineIds);
+  const facing = new Set(section.facingWindings.map((w) => w.transformerId));
+  const capital = capitalCost(
+    {
+      voltageKV,
+      lines: network.lines.filter((l) => sectionLines.has(l.id)),
+      transformers: network.transformers.filter((t) => facing.has(t.id)),
+    },
+    money,
+    capitalOverride,
+  );
+  const ends = new Set(section.endBusIds);
+  const common = {
+    voltageKV,
+    standard: standardVoltage(voltageKV) ?? null,
+    predictedSectionLineLossMW: null,
+    checks: result.checks,
+    faults: (result.faults?.buses ?? []).filter((b) => ends.has(b.id)),
+    network,
+    result,
+  };
+
+  const flow = result.loadFlow;
+  if (!flow.converged)
+    return {
+      ...common,
+      converged: false,
+      withinLimits: false,
+      message: flow.message ?? `The load flow at ${voltageKV} kV did not converge.`,
+      lossMW: null,
+      lineLossMW: null,
+      sectionLineLossMW: null,
+      transformerLossMW: null,
+      transformerCopperLossMW: null,
+      transformerCoreLossMW: null,
+      minVPu: null,
+      maxVPu: null,
+      money: { capital, losses: null, totalCost: null },
+    };
+
+  const lossMWOf = (kind: "line" | "transformer", keep: (id: string) => boolean = () => true) =>
+    flow.branches.filter((b) => b.kind === kind && keep(b.id)).reduce((sum, b) => sum + b.lossKW, 0) / 1000;
+  // The core is a shunt conductance at the HV terminal, so its loss follows the square of that voltage.
+  const vPu = new Map(flow.buses.map((b) => [b.id, b.vPu]));
+  const coreMW = network.transformers.reduce((sum, t) => sum + ((t.noLoadLossKW ?? 0) * (vPu.get(t.hvBus) ?? 1) ** 2) / 1000, 0);
+  const transformerLossMW = lossMWOf("transformer");
+  const lossMW = flow.totals.lossMW;
+  const voltages = flow.buses.map((b) => b.vPu);
+  const minVPu = Math.min(...voltages);
+  const maxVPu = Math.max(...voltages);
+  const limitsBroken = result.checks.filter((c) => LIMIT_KINDS.includes(c.kind)).length;
+  const breakingBroken = result.checks.filter((c) => c.kind === "breaking-current").length;
+  const losses = lossMoney(lossMW - coreMW, coreMW, money);
+  return {
+    ...common,
+    converged: true,
+    withinLimits: limitsBroken === 0,
+    message:
+      `Carries the load at ${voltageKV} kV: losses ${lossMW.toFixed(2)} MW (${flow.totals.lossPct.toFixed(1)} % of generation), ` +
+      `bus voltages ${minVPu.toFixed(3)} to ${maxVPu.toFixed(3)} pu, ` +
+      (limitsBroken === 0 ? "every voltage and loading within its limit" : `${limitsBroken} voltage or loading limit${limitsBroken > 1 ? "s" : ""} broken`) +
+      (breakingBroken === 0 ? "." : `; fault current above the switchgear's breaking current at ${breakingBroken} bus${breakingBroken > 1 ? "es" : ""}.`),
+    lossMW,
+    lineLossMW: lossMWOf("line"),
+    sectionLineLossMW: lossMWOf("line", (id) => sectionLines.has(id)),
+    transformerLossMW,
+    transformerCopperLossMW: transformerLossMW - coreMW,
+    transformerCoreLossMW: coreMW,
+    minVPu,
+    maxVPu,
+    money: { capital, losses, totalCost: capital.total + losses.presentValueOfLosses },
+  };
+}
+
+function recommend(alternatives: readonly LadderAlternative[], currency: string): LadderRecommendation | null {
+  const totals = (keep: (a: LadderAlternative) => boolean) => alternatives.map((a) => (keep(a) ? a.money.totalCost : null));
+  const withinLimits = rankByTotalCost(totals((a) => a.withinLimits));
+  const index = withinLimits[0] ?? rankByTotalCost(totals(() => true))[0];
+  if (index === undefined) return null;
+  const chosen = alternatives[index];
+  const total = `${Math.round(chosen.money.totalCost!).toLocaleString("en-GB")} ${currency}`;
+  return {
+    index,
+    voltageKV: chosen.voltageKV,
+    totalCost: chosen.money.totalCost!,
+    withinLimits: chosen.withinLimits,
+    note: chosen.withinLimits
+      ? `${chosen.voltageKV} kV has the lowest total cost (${total}, capital plus the present value of losses) of the alternatives that keep every voltage and loading within its limit.`
+      : `No alternative keeps every voltage and loading within its limit; of those that carry the load, ${chosen.voltageKV} kV has the lowest total cost (${total}). Resolve the broken limits before relying on this ranking.`,
+  };
+}
