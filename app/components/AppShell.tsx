@@ -1,0 +1,79 @@
+import type { ReactNode } from "react";
+import { Form, Link, NavLink } from "react-router";
+import { BrandMark } from "./BrandMark.tsx";
+
+export interface ShellUser {
+  name: string;
+  email: string;
+}
+
+const navLinkClass = ({ isActive }: { isActive: boolean }) =>
+  [
+    "rounded px-3 py-2 font-medium no-underline transition-colors",
+    isActive ? "bg-accent-wash text-accent-strong" : "text-ink-soft hover:bg-paper hover:text-ink",
+  ].join(" ");
+
+/** Every page's frame: the header with the product name and navigation, the page, the caution. */
+export function AppShell({ user, children }: { user: ShellUser | null; children: ReactNode }) {
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a
+        href="#main"
+        className="sr-only rounded bg-paper-sheet px-3 py-2 focus:not-sr-only focus:absolute focus:left-3 focus:top-3 focus:z-50"
+      >
+        Skip to the page
+      </a>
+      <header className="border-b border-paper-edge bg-paper-sheet/95">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3 sm:px-6">
+          <Link to="/" className="flex items-center gap-2.5 text-ink no-underline hover:text-ink">
+            <BrandMark className="h-8 w-8" />
+            <span className="text-xl font-semibold tracking-wide">Kilostep</span>
+          </Link>
+          <nav aria-label="Main" className="flex w-full flex-wrap items-center gap-1 sm:w-auto sm:flex-1">
+            {user ? (
+              <>
+                <NavLink to="/networks" className={navLinkClass}>
+                  Networks
+                </NavLink>
+                <NavLink to="/teams" className={navLinkClass}>
+                  Teams
+                </NavLink>
+                <span className="flex-1" />
+                <NavLink to="/account" className={navLinkClass}>
+                  <span className="sr-only">Account: </span>
+                  {user.name}
+                </NavLink>
+                <Form method="post" action="/sign-out">
+                  <button type="submit" className="btn btn-small ml-1">
+                    Sign out
+                  </button>
+                </Form>
+              </>
+            ) : (
+              <>
+                <span className="flex-1" />
+                <NavLink to="/sign-in" className={navLinkClass}>
+                  Sign in
+                </NavLink>
+                <Link to="/sign-up" className="btn btn-primary btn-small ml-1">
+                  Create an account
+                </Link>
+              </>
+            )}
+          </nav>
+        </div>
+      </header>
+      <main id="main" tabIndex={-1} className="mx-auto w-full max-w-6xl flex-1 px-4 py-8 focus:outline-none sm:px-6">
+        {children}
+      </main>
+      <footer className="border-t border-paper-edge bg-paper-sheet/95">
+        <p className="mx-auto max-w-6xl px-4 py-4 text-sm text-ink-muted sm:px-6">
+          <strong className="font-semibold text-ink-soft">Caution:</strong> results are for planning-stage screening.
+          Verify them against the applicable grid code, local regulations and the equipment makers' data; protection
+          settings and construction designs must be done and approved by licensed engineers. Fault levels by IEC
+          60909-0 are not a protection study.
+        </p>
+      </footer>
+    </div>
+  );
+}

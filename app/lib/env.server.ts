@@ -1,0 +1,46 @@
+// The environment, read once and checked: a production server without a session secret refuses
+// to start rather than sign cookies with a key everyone can read in this repository.
+import { z } from "zod";
+
+const DEVELOPMENT_SESSION_SECRET = "kilostep-development-secret-not-for-production";
+
+const envSchema = z
+  .object({
+    NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+    DATABASE_PATH: z.string().trim().min(1).default("data/kilostep.sqlite"),
+    SESSION_SECRET: z.string().min(32, "must be at least 32 characters").optional(),
+    PASSWORD_HASH_COST: z.coerce.number().int().min(4).max(15).optional(),
+  })
+  .superRefine((env, ctx) => {
+    if (env.NODE_ENV === "production" && !env.SESSION_SECRET)
+      ctx.addIssue({
+        code: "custom",
+        path: ["SESSION_SECRET"],
+        message: "is required in production (a random string of at least 32 characters)",
+      });
+    if (env.PASSWORD_HASH_COST !== undefined && env.NODE_ENV !== "test")
+      ctx.addIssue({
+        code: "custom",
+        path: ["PASSWORD_HASH_COST"],
+        message: "may only be set when NODE_ENV is test; real accounts always use the full cost",
+      });
+  });
+
+function readEnv() {
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.map((i) => `  ${i.path.join(".")} ${i.message}`).join("\n");
+    throw new Error(`Kilostep cannot start; the environment is wrong:\n${problems}`);
+  }
+  const env = parsed.data;
+  return {
+    nodeEnv: env.NODE_ENV,
+    isProduction: env.NODE_ENV === "production",
+    databasePath: env.DATABASE_PATH,
+    sessionSecret: env.SESSION_SECRET ?? DEVELOPMENT_SESSION_SECRET,
+    /** bcrypt cost: 12 for every real account; tests may lower it to keep the suite quick. */
+    passwordHashCost: env.PASSWORD_HASH_COST ?? 12,
+  };
+}
+
+export const env = readEnv();

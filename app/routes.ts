@@ -1,0 +1,29 @@
+import { type RouteConfig, index, prefix, route } from "@react-router/dev/routes";
+
+export default [
+  index("routes/home.tsx"),
+
+  route("sign-in", "routes/auth/sign-in.tsx"),
+  route("sign-up", "routes/auth/sign-up.tsx"),
+  route("sign-out", "routes/auth/sign-out.tsx"),
+  route("account", "routes/auth/account.tsx"),
+
+  ...prefix("networks", [
+    index("routes/networks/list.tsx"),
+    route(":networkId", "routes/networks/network.tsx"),
+  ]),
+
+  ...prefix("teams", [
+    index("routes/teams/list.tsx"),
+    route("new", "routes/teams/new.tsx"),
+    route(":teamId", "routes/teams/team.tsx"),
+  ]),
+
+  ...prefix("api", [
+    route("schema", "routes/api/schema.ts"),
+    route("solve", "routes/api/solve.ts"),
+    route("networks", "routes/api/networks.ts"),
+    route("networks/:networkId", "routes/api/network.ts"),
+    route("networks/:networkId/solve", "routes/api/network-solve.ts"),
+  ]),
+] satisfies RouteConfig;

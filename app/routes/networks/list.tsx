@@ -1,0 +1,175 @@
+import { data, Form, Link, redirect, useNavigation } from "react-router";
+import type { Route } from "./+types/list";
+import { Notice } from "#app/components/Notice.tsx";
+import { PageTitle } from "#app/components/PageTitle.tsx";
+import { NetworkRows, RecentlyDeleted } from "#app/components/NetworkList.tsx";
+import { parseId } from "#app/lib/api.server.ts";
+import { requireUser, userActor } from "#app/lib/auth.server.ts";
+import { getDb } from "#app/lib/db.server.ts";
+import { documentFromTemplate, TEMPLATE_IDS, TEMPLATES, type TemplateId } from "#app/lib/network-templates.server.ts";
+import { NETWORK_NAME_MAX } from "#app/lib/forms.ts";
+import { createNetwork, renameNetwork } from "#app/lib/networks.server.ts";
+import { abilitiesOf, grantedOrPageError, networkAccess, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";
+import { listDeletedNetworksForUser, listNetworksForUser, markNetworkDeleted, restoreNetwork } from "#db/networks.ts";
+import { teamsOfUser } from "#db/teams.ts";
+
+export const meta: Route.MetaFunction = () => [{ title: "Networks · Kilostep" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const db = await getDb();
+  const [networks, deleted, teams] = await Promise.all([
+    listNetworksForUser(db, user.id),
+    listDeletedNetworksForUser(db, user.id),
+    teamsOfUser(db, user.id),
+  ]);
+  return {
+    networks: networks.map((n) => ({ ...n, may: abilitiesOf(n.role) })),
+    deleted: deleted.filter((n) => roleAllows(n.role, "restore")),
+    createTeams: teams.filter((t) => roleAllows(t.role, "create-in-team")).map((t) => ({ id: t.id, name: t.name })),
+    templates: TEMPLATES.map(({ id, label, hint }) => ({ id, label, hint })),
+  };
+}
+
+type ActionResult = { ok: boolean; message: string; networkId?: number };
+
+function fail(message: string, status = 400) {
+  return data<ActionResult>({ ok: false, message }, { status });
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireUser(request);
+  const actor = userActor(user);
+  const db = await getDb();
+  const form = await request.formData();
+  const intent = form.get("intent");
+
+  if (intent === "create") {
+    const teamId = parseId(String(form.get("teamId") ?? ""));
+    if (teamId === null) return fail("Choose the team the network belongs to.");
+    grantedOrPageError(await teamAccess(db, actor, teamId, "create-in-team"));
+    const template = String(form.get("template") ?? "blank");
+    if (!TEMPLATE_IDS.includes(template as TemplateId)) return fail(`There is no starting point called "${template}".`);
+    const name = String(form.get("name") ?? "").trim();
+    if (name.length > NETWORK_NAME_MAX) return fail(`A name may have at most ${NETWORK_NAME_MAX} characters.`);
+    const created = await createNetwork(db, {
+      teamId,
+      document: documentFromTemplate(template as TemplateId, name),
+      authorId: user.id,
+      message: template === "blank" ? "Created blank" : `Created from the ${template} demo`,
+    });
+    if (!created.ok) return fail(created.issues.map((i) => `${i.path}: ${i.message}`).join("; "));
+    return redirect(`/networks/${created.network.id}`);
+  }
+
+  const networkId = parseId(String(form.get("networkId") ?? ""));
+  if (networkId === null) return fail("Which network? The request names none.");
+
+  if (intent === "rename") {
+    const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "rename"));
+    const renamed = await renameNetwork(db, { networkId, name: String(form.get("name") ?? ""), authorId: user.id });
+    if (!renamed.ok) return data<ActionResult>({ ok: false, message: renamed.error, networkId }, { status: 400 });
+    return data<ActionResult>({ ok: true, message: `Renamed "${network.name}" to "${String(form.get("name")).trim()}".`, networkId });
+  }
+  if (intent === "delete") {
+    const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "delete"));
+    await markNetworkDeleted(db, networkId, user.id);
+    return data<ActionResult>({ ok: true, message: `Deleted "${network.name}". You can restore it from "Recently deleted" for 30 days.` });
+  }
+  if (intent === "restore") {
+    const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "restore"));
+    if (!(await restoreNetwork(db, networkId))) return fail(`"${network.name}" is not deleted, or its 30 days have passed.`, 409);
+    return data<ActionResult>({ ok: true, message: `Restored "${network.name}".`, networkId });
+  }
+  return fail("Unknown request: the form named no known action.");
+}
+
+export default function Networks({ loaderData, actionData }: Route.ComponentProps) {
+  const { networks, deleted, createTeams, templates } = loaderData;
+  const creating = useNavigation().formData?.get("intent") === "create";
+  return (
+    <>
+      <PageTitle title="Networks" lead="Every study of the teams you belong to, most recently changed first." />
+      {actionData ? (
+        <div className="mb-6">
+          <Notice tone={actionData.ok ? "ok" : "error"}>{actionData.message}</Notice>
+        </div>
+      ) : null}
+      <div className={createTeams.length > 0 ? "grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]" : ""}>
+        <section aria-labelledby="network-list-title" className="panel overflow-x-auto">
+          <h2 id="network-list-title" className="sr-only">
+            Your networks
+          </h2>
+          <NetworkRows networks={networks} />
+        </section>
+        {createTeams.length > 0 ? (
+          <section aria-labelledby="new-network-title" className="panel p-5">
+            <h2 id="new-network-title" className="text-lg">
+              Start a network
+            </h2>
+            <Form method="post" className="mt-4 space-y-4">
+              <input type="hidden" name="intent" value="create" />
+              <div>
+                <label htmlFor="new-network-name" className="field-label">
+                  Name
+                </label>
+                <input
+                  id="new-network-name"
+                  name="name"
+                  className="input"
+                  maxLength={NETWORK_NAME_MAX}
+                  aria-describedby="new-network-name-hint"
+                />
+                <p id="new-network-name-hint" className="field-hint">
+                  Leave empty to use the starting point's name.
+                </p>
+              </div>
+              <div>
+                <label htmlFor="new-network-team" className="field-label">
+                  Team
+                </label>
+                <select id="new-network-team" name="teamId" className="input" defaultValue={createTeams[0].id}>
+                  {createTeams.map((team) => (
+                    <option key={team.id} value={team.id}>
+                      {team.name}
+                    </option>
+                  ))}
+                </select>
+              </div>
+              <fieldset>
+                <legend className="field-label">Start from</legend>
+                <div className="space-y-2">
+                  {templates.map((template, i) => (
+                    <label
+                      key={template.id}
+                      className="flex cursor-pointer gap-3 rounded border border-paper-rule p-2.5 has-[:checked]:border-accent has-[:checked]:bg-accent-wash"
+                    >
+                      <input
+                        type="radio"
+                        name="template"
+                        value={template.id}
+                        defaultChecked={i === 0}
+                        className="mt-1 accent-[var(--color-accent)]"
+                      />
+                      <span>
+                        <span className="block font-medium">{template.label}</span>
+                        <span className="block text-sm text-ink-muted">{template.hint}</span>
+                      </span>
+                    </label>
+                  ))}
+                </div>
+              </fieldset>
+              <button type="submit" className="btn btn-primary w-full" disabled={creating}>
+                {creating ? "Creating…" : "Create network"}
+              </button>
+              <p className="text-sm text-ink-muted">
+                Need a new team first? <Link to="/teams/new">Create a team</Link>.
+              </p>
+            </Form>
+          </section>
+        ) : null}
+      </div>
+      {deleted.length > 0 ? <RecentlyDeleted networks={deleted} /> : null}
+    </>
+  );
+}

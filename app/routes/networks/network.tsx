@@ -1,0 +1,69 @@
+import { data, Link } from "react-router";
+import type { Route } from "./+types/network";
+import { NetworkTables } from "#app/components/NetworkTables.tsx";
+import { Notice } from "#app/components/Notice.tsx";
+import { PageTitle } from "#app/components/PageTitle.tsx";
+import { parseId } from "#app/lib/api.server.ts";
+import { requireUser, userActor } from "#app/lib/auth.server.ts";
+import { getDb } from "#app/lib/db.server.ts";
+import { formatDateTime } from "#app/lib/format.ts";
+import { currentDocument } from "#app/lib/networks.server.ts";
+import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
+import { findTeam } from "#db/teams.ts";
+import { validateNetwork } from "#solver/schema.ts";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.name ?? "Network"} · Kilostep` }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const networkId = parseId(params.networkId);
+  if (networkId === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
+  const db = await getDb();
+  const { network, role } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "view"));
+  const [revision, team] = await Promise.all([currentDocument(db, network), findTeam(db, network.team_id)]);
+  const checked = validateNetwork(revision.document);
+  return {
+    id: network.id,
+    name: network.name,
+    team: { id: network.team_id, name: team?.name ?? "" },
+    role,
+    revision: { number: network.current_revision, savedAt: revision.createdAt, by: revision.authorName, message: revision.message },
+    document: checked.ok ? checked.network : null,
+    issues: checked.ok ? [] : checked.issues,
+  };
+}
+
+export default function NetworkPage({ loaderData }: Route.ComponentProps) {
+  const { name, team, role, revision, document, issues } = loaderData;
+  return (
+    <>
+      <p className="mb-2 text-sm">
+        <Link to="/networks">← Networks</Link>
+      </p>
+      <PageTitle
+        title={name}
+        lead={
+          <>
+            <Link to={`/teams/${team.id}`}>{team.name}</Link> · your role <span className="role-badge">{role}</span> ·
+            revision {revision.number}, saved {formatDateTime(revision.savedAt)}
+            {revision.by ? ` by ${revision.by}` : ""}
+          </>
+        }
+      />
+      {document ? (
+        <NetworkTables network={document} />
+      ) : (
+        <Notice tone="error">
+          This revision no longer passes the network file's checks:
+          <ul className="mt-2 list-disc pl-5">
+            {issues.map((issue) => (
+              <li key={`${issue.path}-${issue.message}`}>
+                <code>{issue.path || "document"}</code>: {issue.message}
+              </li>
+            ))}
+          </ul>
+        </Notice>
+      )}
+    </>
+  );
+}

@@ -1,0 +1,157 @@
+import { data, Form, redirect } from "react-router";
+import type { Route } from "./+types/team";
+import { Notice } from "#app/components/Notice.tsx";
+import { PageTitle } from "#app/components/PageTitle.tsx";
+import { TeamMembers } from "#app/components/TeamMembers.tsx";
+import { parseId } from "#app/lib/api.server.ts";
+import { requireUser, userActor } from "#app/lib/auth.server.ts";
+import { getDb } from "#app/lib/db.server.ts";
+import { abilitiesOf, grantedOrPageError, ROLES, teamAccess } from "#app/lib/permissions.server.ts";
+import { addMemberByEmail, changeMemberRole, removeMember, type Outcome } from "#app/lib/teams.server.ts";
+import type { TeamRole } from "#db/schema.ts";
+import { membersOf } from "#db/teams.ts";
+
+const ROLE_CHOICES: readonly TeamRole[] = ["owner", "editor", "viewer"];
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.team.name ?? "Team"} · Kilostep` }];
+
+function teamIdOf(params: { teamId: string }): number {
+  const teamId = parseId(params.teamId);
+  if (teamId === null) throw data(`"${params.teamId}" is not a team number.`, { status: 404 });
+  return teamId;
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const db = await getDb();
+  const { team, role } = grantedOrPageError(await teamAccess(db, userActor(user), teamIdOf(params), "view-team"));
+  const members = await membersOf(db, team.id);
+  return {
+    team: { id: team.id, name: team.name },
+    role,
+    me: user.id,
+    may: abilitiesOf(role),
+    ownerCount: members.filter((m) => m.role === "owner").length,
+    members,
+  };
+}
+
+function asRole(value: FormDataEntryValue | null): TeamRole | null {
+  return ROLES.includes(value as TeamRole) ? (value as TeamRole) : null;
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireUser(request);
+  const actor = userActor(user);
+  const db = await getDb();
+  const teamId = teamIdOf(params);
+  const form = await request.formData();
+  const intent = form.get("intent");
+  const answer = (outcome: Outcome) =>
+    data(outcome.ok ? { ok: true, message: outcome.message } : { ok: false, message: outcome.error }, {
+      status: outcome.ok ? 200 : 400,
+    });
+
+  if (intent === "leave") {
+    grantedOrPageError(await teamAccess(db, actor, teamId, "leave-team"));
+    const outcome = await removeMember(db, teamId, user.id);
+    return outcome.ok ? redirect("/teams") : answer(outcome);
+  }
+
+  grantedOrPageError(await teamAccess(db, actor, teamId, "manage-members"));
+  if (intent === "add") {
+    const email = String(form.get("email") ?? "").trim();
+    const role = asRole(form.get("role"));
+    if (!email) return answer({ ok: false, error: "Enter the e-mail address of the person to add." });
+    if (!role) return answer({ ok: false, error: "Choose owner, editor or viewer." });
+    return answer(await addMemberByEmail(db, teamId, email, role));
+  }
+  const memberId = parseId(String(form.get("userId") ?? ""));
+  if (memberId === null) return answer({ ok: false, error: "Which member? The request names none." });
+  if (intent === "change-role") {
+    const role = asRole(form.get("role"));
+    if (!role) return answer({ ok: false, error: "Choose owner, editor or viewer." });
+    return answer(await changeMemberRole(db, teamId, memberId, role));
+  }
+  if (intent === "remove") {
+    const outcome = await removeMember(db, teamId, memberId);
+    return outcome.ok && memberId === user.id ? redirect("/teams") : answer(outcome);
+  }
+  return answer({ ok: false, error: "Unknown request: the form named no known action." });
+}
+
+export default function TeamPage({ loaderData, actionData }: Route.ComponentProps) {
+  const { team, role, me, may, members, ownerCount } = loaderData;
+  const lastOwner = role === "owner" && ownerCount === 1;
+  return (
+    <>
+      <PageTitle
+        title={team.name}
+        lead={
+          <>
+            Your role <span className="role-badge">{role}</span> · {members.length}{" "}
+            {members.length === 1 ? "member" : "members"}
+          </>
+        }
+      />
+      {actionData ? (
+        <div className="mb-6">
+          <Notice tone={actionData.ok ? "ok" : "error"}>{actionData.message}</Notice>
+        </div>
+      ) : null}
+      <div className={may["manage-members"] ? "grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]" : ""}>
+        <TeamMembers members={members} me={me} canManage={may["manage-members"]} ownerCount={ownerCount} />
+        {may["manage-members"] ? (
+          <section aria-labelledby="add-member-title" className="panel p-5">
+            <h2 id="add-member-title" className="text-lg">
+              Add a member
+            </h2>
+            <p className="mt-1 text-sm text-ink-muted">They need a Kilostep account already.</p>
+            <Form method="post" className="mt-4 space-y-4">
+              <input type="hidden" name="intent" value="add" />
+              <div>
+                <label htmlFor="add-email" className="field-label">
+                  E-mail
+                </label>
+                <input id="add-email" name="email" type="email" required className="input" autoComplete="off" />
+              </div>
+              <div>
+                <label htmlFor="add-role" className="field-label">
+                  Role
+                </label>
+                <select id="add-role" name="role" defaultValue="editor" className="input">
+                  {ROLE_CHOICES.map((r) => (
+                    <option key={r} value={r}>
+                      {r}
+                    </option>
+                  ))}
+                </select>
+              </div>
+              <button type="submit" className="btn btn-primary w-full">
+                Add member
+              </button>
+            </Form>
+          </section>
+        ) : null}
+      </div>
+      <section aria-labelledby="leave-title" className="mt-10 max-w-2xl">
+        <h2 id="leave-title" className="text-lg">
+          Leave this team
+        </h2>
+        {lastOwner ? (
+          <p className="mt-1 text-ink-soft">
+            You are this team's only owner, so you cannot leave it. Make another member owner first.
+          </p>
+        ) : (
+          <Form method="post" className="mt-2 flex flex-wrap items-center gap-3">
+            <input type="hidden" name="intent" value="leave" />
+            <p className="text-ink-soft">You will lose access to the team's networks.</p>
+            <button type="submit" className="btn btn-danger btn-small">
+              Leave {team.name}
+            </button>
+          </Form>
+        )}
+      </section>
+    </>
+  );
+}

@@ -1,0 +1,14 @@
+// Every migration, in order, by static import: Vite, tsx and vitest all bundle or load them alike
+// (a folder scan would miss files the bundler never saw). Add a new file here when you add one.
+import type { Migration, MigrationProvider } from "kysely";
+import * as accountsAndTeams from "./2026-12-01-01-accounts-and-teams.ts";
+import * as networks from "./2026-12-01-02-networks.ts";
+
+export const migrations: Record<string, Migration> = {
+  "2026-12-01-01-accounts-and-teams": accountsAndTeams,
+  "2026-12-01-02-networks": networks,
+};
+
+export const migrationProvider: MigrationProvider = {
+  getMigrations: async () => migrations,
+};
