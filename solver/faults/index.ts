@@ -31,7 +31,7 @@ export function computeFaultLevels(network: Network): FaultResult {
     const baseKA = currentBaseA(bus.nominalKV, baseMVA) / 1000;
     const r1 = z1.zRe[k];
     const x1 = z1.zIm[k];
-    const ik3kA = (c / Math.hypot(r1, x1)) * baseKA;
+    const ik3kA = (c / Math.sqrt(r1 * r1 + x1 * x1)) * baseKA;
     const rOverX = r1 / x1;
     const reading: FaultBusReading = {
       id: bus.id,
@@ -41,8 +41,11 @@ export function computeFaultLevels(network: Network): FaultResult {
       ik1kA: 0,
       rOverX,
     };
-    if (z0.reachesReference[k]) reading.ik1kA = ((3 * c) / Math.hypot(2 * r1 + z0.zRe[k], 2 * x1 + z0.zIm[k])) * baseKA;
-    else reading.note = UNEARTHED_NOTE;
+    if (z0.reachesReference[k]) {
+      const sumRe = 2 * r1 + z0.zRe[k];
+      const sumIm = 2 * x1 + z0.zIm[k];
+      reading.ik1kA = ((3 * c) / Math.sqrt(sumRe * sumRe + sumIm * sumIm)) * baseKA;
+    } else reading.note = UNEARTHED_NOTE;
     return reading;
   });
 

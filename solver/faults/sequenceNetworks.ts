@@ -24,6 +24,7 @@
 //   the methods prescribe, rather than as one power-station unit.
 import type { Bus, Network, Source, Transformer } from "#solver/schema.ts";
 import {
+  impedanceBaseOhm,
   lineSeriesImpedancePu,
   transformerImpedanceScale,
   transformerOwnImpedancePu,
@@ -37,7 +38,7 @@ import {
   voltageFactorCMax,
 } from "./iecFactors.ts";
 import type { NodalNetwork } from "./nodalNetwork.ts";
-import { parseVectorGroup, VectorGroupError, zeroSequenceCoupling } from "./vectorGroup.ts";
+import { parseVectorGroup, VectorGroupError, zeroSequenceCoupling, type VectorGroup } from "./vectorGroup.ts";
 
 export const DEFAULT_GRID_Z0_OVER_Z1 = 1;
 export const DEFAULT_TRANSFORMER_Z0_OVER_Z1 = 1;
@@ -107,81 +108,99 @@ function transformerModel(t: Transformer, hv: Bus, lv: Bus, baseMVA: number): Tr
   const toSystem = transformerImpedanceScale(t, lv, baseMVA);
   return {
     zLvSide: { re: own.r * toSystem * kT, im: own.x * toSystem * kT },
+    // Rated ratio: the tap is left at its principal position.
     ratio: transformerRatioPu({ ...t, tapPct: 0 }, hv, lv),
   };
 }
 
+/** Parsed once per distinct vector group code in a network. */
+function vectorGroupReader(): (t: Transformer) => VectorGroup {
+  const known = new Map<string, VectorGroup>();
+  return (t) => {
+    let group = known.get(t.vectorGroup);
+    if (!group) {
+      try {
+        group = parseVectorGroup(t.vectorGroup);
+      } catch (error) {
+        if (error instanceof VectorGroupError) throw new FaultModelError(`transformer "${t.id}": ${error.message}`);
+        throw error;
+      }
+      known.set(t.vectorGroup, group);
+    }
+    return group;
+  };
+}
+
+/** Places a transformer's zero-sequence impedance as its vector group allows. */
+function addTransformerZeroSequence(
+  zero: NodalNetwork,
+  t: Transformer,
+  group: VectorGroup,
+  hv: number,
+  lv: number,
+  model: TransformerModel,
+): void {
+  const z0OverZ1 = (side: "hv" | "lv") =>
+    t.z0OverZ1 ??
+    (group[side].connection === "zigzag" ? DEFAULT_ZIGZAG_Z0_OVER_Z1 : DEFAULT_TRANSFORMER_Z0_OVER_Z1);
+  // Seen from the HV terminals an impedance on the LV side of the ideal t:1 is t² larger.
+  const shuntAt = (side: "hv" | "lv") => {
+    const z = scale(model.zLvSide, z0OverZ1(side) * (side === "hv" ? model.ratio ** 2 : 1));
+    zero.shunts.push({ node: side === "hv" ? hv : lv, zRe: z.re, zIm: z.im });
+  };
+  const coupling = zeroSequenceCoupling(group);
+  switch (coupling.kind) {
+    case "series": {
+      const z = scale(model.zLvSide, z0OverZ1("lv"));
+      zero.branches.push({ from: hv, to: lv, zRe: z.re, zIm: z.im, ratioFrom: model.ratio });
+      break;
+    }
+    case "shunt":
+      shuntAt(coupling.side);
+      break;
+    case "shunt-both":
+      shuntAt("hv");
+      shuntAt("lv");
+      break;
+    case "open":
+      break;
+  }
+}
+
 export function buildSequenceNetworks(network: Network): SequenceNetworks {
   const { buses, baseMVA } = network;
-  const index = new Map(buses.map((b, i) => [b.id, i]));
-  const busIndex = (id: string, owner: string): number => {
-    const i = index.get(id);
-    if (i === undefined) throw new FaultModelError(`${owner} refers to bus "${id}", which does not exist`);
+  const index = new Map<string, number>();
+  buses.forEach((b, i) => index.set(b.id, i));
+  const busIndex = (busId: string, kind: string, elementId: string): number => {
+    const i = index.get(busId);
+    if (i === undefined) throw new FaultModelError(`${kind} "${elementId}" refers to bus "${busId}", which does not exist`);
     return i;
   };
   const positive: NodalNetwork = { nodeCount: buses.length, branches: [], shunts: [] };
   const zero: NodalNetwork = { nodeCount: buses.length, branches: [], shunts: [] };
 
   for (const line of network.lines) {
-    const from = busIndex(line.fromBus, `line "${line.id}"`);
-    const to = busIndex(line.toBus, `line "${line.id}"`);
+    const from = busIndex(line.fromBus, "line", line.id);
+    const to = busIndex(line.toBus, "line", line.id);
     const z1 = lineSeriesImpedancePu(line, buses[from], baseMVA);
-    const z0 = lineSeriesImpedancePu(
-      {
-        ...line,
-        rOhmPerKm: line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm,
-        xOhmPerKm: line.x0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.xOhmPerKm,
-      },
-      buses[from],
-      baseMVA,
-    );
+    const ohmToPu = line.lengthKm / impedanceBaseOhm(buses[from].nominalKV, baseMVA);
+    const r0 = (line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm) * ohmToPu;
+    const x0 = (line.x0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.xOhmPerKm) * ohmToPu;
     positive.branches.push({ from, to, zRe: z1.r, zIm: z1.x, ratioFrom: 1 });
-    zero.branches.push({ from, to, zRe: z0.r, zIm: z0.x, ratioFrom: 1 });
+    zero.branches.push({ from, to, zRe: r0, zIm: x0, ratioFrom: 1 });
   }
 
+  const vectorGroupOf = vectorGroupReader();
   for (const t of network.transformers) {
-    const hv = busIndex(t.hvBus, `transformer "${t.id}"`);
-    const lv = busIndex(t.lvBus, `transformer "${t.id}"`);
+    const hv = busIndex(t.hvBus, "transformer", t.id);
+    const lv = busIndex(t.lvBus, "transformer", t.id);
     const model = transformerModel(t, buses[hv], buses[lv], baseMVA);
     positive.branches.push({ from: hv, to: lv, zRe: model.zLvSide.re, zIm: model.zLvSide.im, ratioFrom: model.ratio });
-
-    let group;
-    try {
-      group = parseVectorGroup(t.vectorGroup);
-    } catch (error) {
-      if (error instanceof VectorGroupError) throw new FaultModelError(`transformer "${t.id}": ${error.message}`);
-      throw error;
-    }
-    const coupling = zeroSequenceCoupling(group);
-    const z0OverZ1 = (side: "hv" | "lv") =>
-      t.z0OverZ1 ??
-      (group[side].connection === "zigzag" ? DEFAULT_ZIGZAG_Z0_OVER_Z1 : DEFAULT_TRANSFORMER_Z0_OVER_Z1);
-    const z0LvSide = (side: "hv" | "lv") => scale(model.zLvSide, z0OverZ1(side));
-    // Seen from the HV terminals an impedance on the LV side of the ideal t:1 is t² larger.
-    const shuntAt = (side: "hv" | "lv") => {
-      const z = side === "hv" ? scale(z0LvSide("hv"), model.ratio ** 2) : z0LvSide("lv");
-      zero.shunts.push({ node: side === "hv" ? hv : lv, zRe: z.re, zIm: z.im });
-    };
-    switch (coupling.kind) {
-      case "series": {
-        const z = z0LvSide("lv");
-        zero.branches.push({ from: hv, to: lv, zRe: z.re, zIm: z.im, ratioFrom: model.ratio });
-        break;
-      }
-      case "shunt":
-        shuntAt(coupling.side);
-        break;
-      case "shunt-both":
-        shuntAt("hv");
-        shuntAt("lv");
-        break;
-      case "open":
-        break;
-    }
+    addTransformerZeroSequence(zero, t, vectorGroupOf(t), hv, lv, model);
   }
 
   for (const source of network.sources) {
-    const k = busIndex(source.bus, `source "${source.id}"`);
+    const k = busIndex(source.bus, "source", source.id);
     if (source.kind === "grid") {
       if (source.shortCircuitMVA === undefined)
         throw new FaultModelError(`grid infeed "${source.id}" has no shortCircuitMVA`);

@@ -1,22 +1,19 @@
 // Diagonal of Z = Y⁻¹ for a sparse complex-symmetric nodal admittance matrix, without forming
-// the inverse: Y = L·D·Lᵀ in a minimum-degree order, then the selected inverse (Takahashi's
-// recurrence), which touches only the filled pattern of L. A radial network eliminated from its
-// leaves has no fill, so the whole job is linear in the number of buses; rings and parallel
-// branches only add the fill their loops need.
+// the inverse: Y = L·D·Lᵀ, then the selected inverse (Takahashi's recurrence), which touches
+// only the filled pattern of L. Leaves are eliminated first, one at a time, which on a radial
+// network creates no fill: factorisation and selected inverse are both linear in the number of
+// buses. Whatever remains after peeling (rings, parallel paths) is ordered by minimum degree
+// and carries only the fill its loops need.
 //
-// No pivoting is needed: every admittance here is r − jx over r² + x² with r, x ≥ 0, so
+// No pivoting is needed: every admittance here is (r − jx)/(r² + x²) with r, x ≥ 0, so
 // e^{jπ/4}·Y has a positive definite real part and every pivot stays away from zero.
 import type { DrivingPointImpedances, NodalNetwork } from "./nodalNetwork.ts";
-
-interface Entry {
-  re: number;
-  im: number;
-}
 
 class DisjointSets {
   private readonly parent: Int32Array;
   constructor(size: number) {
-    this.parent = Int32Array.from({ length: size }, (_, i) => i);
+    this.parent = new Int32Array(size);
+    for (let i = 0; i < size; i++) this.parent[i] = i;
   }
   find(x: number): number {
     let root = x;
@@ -33,13 +30,15 @@ class DisjointSets {
   }
 }
 
-/** Min-heap of (degree, node) with stale entries skipped on pop. */
+/** Min-heap of (degree, node); entries made stale by a later push are skipped by the caller. */
 class DegreeQueue {
-  private keys: number[] = [];
-  private nodes: number[] = [];
+  private readonly keys: number[] = [];
+  private readonly nodes: number[] = [];
+  get size(): number {
+    return this.keys.length;
+  }
   push(key: number, node: number): void {
-    const keys = this.keys;
-    const nodes = this.nodes;
+    const { keys, nodes } = this;
     let i = keys.length;
     keys.push(key);
     nodes.push(node);
@@ -53,14 +52,13 @@ class DegreeQueue {
     keys[i] = key;
     nodes[i] = node;
   }
-  /** Returns [key, node] or undefined when empty. */
-  pop(): [number, number] | undefined {
-    const keys = this.keys;
-    const nodes = this.nodes;
-    if (keys.length === 0) return undefined;
-    const top: [number, number] = [keys[0], nodes[0]];
-    const lastKey = keys.pop()!;
-    const lastNode = nodes.pop()!;
+  /** Removes the smallest entry and returns its node; its key is left in `lastKey`. */
+  pop(): number {
+    const { keys, nodes } = this;
+    const node = nodes[0];
+    this.lastKey = keys[0];
+    const tailKey = keys.pop()!;
+    const tailNode = nodes.pop()!;
     const size = keys.length;
     if (size > 0) {
       let i = 0;
@@ -69,16 +67,23 @@ class DegreeQueue {
         if (left >= size) break;
         const right = left + 1;
         const child = right < size && keys[right] < keys[left] ? right : left;
-        if (keys[child] >= lastKey) break;
+        if (keys[child] >= tailKey) break;
         keys[i] = keys[child];
         nodes[i] = nodes[child];
         i = child;
       }
-      keys[i] = lastKey;
-      nodes[i] = lastNode;
+      keys[i] = tailKey;
+      nodes[i] = tailNode;
     }
-    return top;
+    return node;
   }
+  lastKey = 0;
+}
+
+/** An off-diagonal entry of the (partly eliminated) matrix, shared by both of its rows. */
+interface Entry {
+  re: number;
+  im: number;
 }
 
 export function drivingPointImpedances(network: NodalNetwork): DrivingPointImpedances {
@@ -91,13 +96,19 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
       if (b.ratioFrom !== 1) throw new Error(`a branch from node ${b.from} has a ratio but no impedance`);
       merged.join(b.from, b.to);
     }
-  const node = Int32Array.from({ length: n }, (_, i) => merged.find(i));
+  const node = new Int32Array(n);
+  for (let k = 0; k < n; k++) node[k] = merged.find(k);
 
+  // Assemble Y: diagonal in arrays, off-diagonal in compressed rows (parallel branches summed
+  // when their entries meet in elimination).
   const diagRe = new Float64Array(n);
   const diagIm = new Float64Array(n);
-  const rows: Map<number, Entry>[] = Array.from({ length: n }, () => new Map());
+  const degree = new Int32Array(n);
   const connected = new DisjointSets(n);
-
+  const edgeFrom: number[] = [];
+  const edgeTo: number[] = [];
+  const edgeRe: number[] = [];
+  const edgeIm: number[] = [];
   for (const b of network.branches) {
     if (b.zRe === 0 && b.zIm === 0) continue;
     const f = node[b.from];
@@ -111,15 +122,24 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
     diagRe[f] += yRe / (r * r);
     diagIm[f] += yIm / (r * r);
     if (f === t) continue;
-    let entry = rows[f].get(t);
-    if (!entry) {
-      entry = { re: 0, im: 0 };
-      rows[f].set(t, entry);
-      rows[t].set(f, entry);
-    }
-    entry.re -= yRe / r;
-    entry.im -= yIm / r;
+    edgeFrom.push(f);
+    edgeTo.push(t);
+    edgeRe.push(-yRe / r);
+    edgeIm.push(-yIm / r);
+    degree[f]++;
+    degree[t]++;
     connected.join(f, t);
+  }
+  const rowStart = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) rowStart[k + 1] = rowStart[k] + degree[k];
+  const fillAt = rowStart.slice(0, n);
+  const slotNode = new Int32Array(rowStart[n]);
+  const slotEdge = new Int32Array(rowStart[n]);
+  for (let e = 0; e < edgeFrom.length; e++) {
+    slotNode[fillAt[edgeFrom[e]]] = edgeTo[e];
+    slotEdge[fillAt[edgeFrom[e]]++] = e;
+    slotNode[fillAt[edgeTo[e]]] = edgeFrom[e];
+    slotEdge[fillAt[edgeTo[e]]++] = e;
   }
 
   const earthedGroup = new Uint8Array(n);
@@ -134,126 +154,180 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
 
   // Only representatives of merged nodes in groups that reach the reference are eliminated.
   const active = new Uint8Array(n);
-  const queue = new DegreeQueue();
   let activeCount = 0;
   for (let k = 0; k < n; k++)
     if (node[k] === k && earthedGroup[connected.find(k)]) {
       active[k] = 1;
       activeCount++;
-      queue.push(rows[k].size, k);
     }
 
-  // Elimination: for each pivot, its later neighbours, the L column and D.
+  // The factor, one pivot at a time in elimination order: its later neighbours (slots
+  // lStart[p] … lStart[p+1]), L's column there, and the pivot D.
   const order = new Int32Array(activeCount);
   const position = new Int32Array(n).fill(-1);
-  const neighbours: Int32Array[] = new Array(n);
-  const lRe: Float64Array[] = new Array(n);
-  const lIm: Float64Array[] = new Array(n);
+  const lStart = new Int32Array(activeCount + 1);
+  const lNode: number[] = [];
+  const lRe: number[] = [];
+  const lIm: number[] = [];
   const pivotRe = new Float64Array(n);
   const pivotIm = new Float64Array(n);
-
   let step = 0;
-  for (let popped = queue.pop(); popped; popped = queue.pop()) {
-    const [degree, v] = popped;
-    if (position[v] !== -1 || rows[v].size !== degree) continue;
-    position[v] = step;
-    order[step++] = v;
 
+  const takePivot = (v: number): [number, number, number] => {
     const dRe = diagRe[v];
     const dIm = diagIm[v];
     const dMag2 = dRe * dRe + dIm * dIm;
     if (!(dMag2 > 0)) throw new Error(`zero pivot at node ${v}`);
     pivotRe[v] = dRe;
     pivotIm[v] = dIm;
+    position[v] = step;
+    order[step] = v;
+    return [dRe, dIm, dMag2];
+  };
 
-    const row = rows[v];
-    const size = row.size;
-    const nb = new Int32Array(size);
-    const aRe = new Float64Array(size);
-    const aIm = new Float64Array(size);
-    const cRe = new Float64Array(size);
-    const cIm = new Float64Array(size);
-    let i = 0;
-    for (const [u, e] of row) {
-      nb[i] = u;
-      aRe[i] = e.re;
-      aIm[i] = e.im;
-      // l_u = a_uv / d
-      cRe[i] = (e.re * dRe + e.im * dIm) / dMag2;
-      cIm[i] = (e.im * dRe - e.re * dIm) / dMag2;
-      i++;
+  // Phase 1: peel leaves (one remaining branch slot; parallel branches wait for phase 2).
+  // A leaf's only remaining neighbour u takes a_uu −= a_uv²/d_v.
+  const remaining = degree.slice();
+  const offRe = Float64Array.from(edgeRe);
+  const offIm = Float64Array.from(edgeIm);
+  const leaves: number[] = [];
+  for (let k = 0; k < n; k++) if (active[k] && remaining[k] <= 1) leaves.push(k);
+  for (let head = 0; head < leaves.length; head++) {
+    const v = leaves[head];
+    if (position[v] !== -1) continue;
+    const [dRe, dIm, dMag2] = takePivot(v);
+    for (let s = rowStart[v]; s < rowStart[v + 1]; s++) {
+      const u = slotNode[s];
+      if (position[u] !== -1) continue;
+      const aRe = offRe[slotEdge[s]];
+      const aIm = offIm[slotEdge[s]];
+      const cRe = (aRe * dRe + aIm * dIm) / dMag2;
+      const cIm = (aIm * dRe - aRe * dIm) / dMag2;
+      lNode.push(u);
+      lRe.push(cRe);
+      lIm.push(cIm);
+      diagRe[u] -= cRe * aRe - cIm * aIm;
+      diagIm[u] -= cRe * aIm + cIm * aRe;
+      remaining[u] -= remaining[v];
+      if (remaining[u] <= 1) leaves.push(u);
+      break;
     }
-    neighbours[v] = nb;
-    lRe[v] = cRe;
-    lIm[v] = cIm;
+    step++;
+    lStart[step] = lNode.length;
+  }
 
-    // Schur complement: a_uw −= l_u · a_vw over the neighbours, with fill where needed.
-    for (let p = 0; p < size; p++) {
-      const u = nb[p];
-      const rowU = rows[u];
-      rowU.delete(v);
-      diagRe[u] -= cRe[p] * aRe[p] - cIm[p] * aIm[p];
-      diagIm[u] -= cRe[p] * aIm[p] + cIm[p] * aRe[p];
-      for (let q = p + 1; q < size; q++) {
-        const w = nb[q];
-        let entry = rowU.get(w);
+  // Phase 2: what is left holds loops. Rows as maps of shared entries, minimum degree order.
+  if (step < activeCount) {
+    const rows = new Map<number, Map<number, Entry>>();
+    for (let k = 0; k < n; k++) if (active[k] && position[k] === -1) rows.set(k, new Map());
+    for (const [k, row] of rows)
+      for (let s = rowStart[k]; s < rowStart[k + 1]; s++) {
+        const u = slotNode[s];
+        if (u < k || position[u] !== -1) continue;
+        let entry = row.get(u);
         if (!entry) {
           entry = { re: 0, im: 0 };
-          rowU.set(w, entry);
-          rows[w].set(u, entry);
+          row.set(u, entry);
+          rows.get(u)!.set(k, entry);
         }
-        entry.re -= cRe[p] * aRe[q] - cIm[p] * aIm[q];
-        entry.im -= cRe[p] * aIm[q] + cIm[p] * aRe[q];
+        entry.re += offRe[slotEdge[s]];
+        entry.im += offIm[slotEdge[s]];
       }
+    const queue = new DegreeQueue();
+    for (const [k, row] of rows) queue.push(row.size, k);
+    while (queue.size > 0) {
+      const v = queue.pop();
+      const row = rows.get(v)!;
+      if (position[v] !== -1 || row.size !== queue.lastKey) continue;
+      const [dRe, dIm, dMag2] = takePivot(v);
+      const first = lNode.length;
+      const aRe: number[] = [];
+      const aIm: number[] = [];
+      for (const [u, e] of row) {
+        lNode.push(u);
+        lRe.push((e.re * dRe + e.im * dIm) / dMag2);
+        lIm.push((e.im * dRe - e.re * dIm) / dMag2);
+        aRe.push(e.re);
+        aIm.push(e.im);
+      }
+      // Schur complement: a_uw −= l_u·a_vw over the neighbours, with fill where needed.
+      const size = aRe.length;
+      for (let p = 0; p < size; p++) {
+        const u = lNode[first + p];
+        const cRe = lRe[first + p];
+        const cIm = lIm[first + p];
+        const rowU = rows.get(u)!;
+        rowU.delete(v);
+        diagRe[u] -= cRe * aRe[p] - cIm * aIm[p];
+        diagIm[u] -= cRe * aIm[p] + cIm * aRe[p];
+        for (let q = p + 1; q < size; q++) {
+          const w = lNode[first + q];
+          let entry = rowU.get(w);
+          if (!entry) {
+            entry = { re: 0, im: 0 };
+            rowU.set(w, entry);
+            rows.get(w)!.set(u, entry);
+          }
+          entry.re -= cRe * aRe[q] - cIm * aIm[q];
+          entry.im -= cRe * aIm[q] + cIm * aRe[q];
+        }
+      }
+      row.clear();
+      for (let p = 0; p < size; p++) queue.push(rows.get(lNode[first + p])!.size, lNode[first + p]);
+      step++;
+      lStart[step] = lNode.length;
     }
-    row.clear();
-    for (let p = 0; p < size; p++) queue.push(rows[nb[p]].size, nb[p]);
   }
 
   // Selected inverse, last pivot first:
   //   Z_vj = −Σ_k l_kv·Z_kj (j among v's later neighbours),  Z_vv = 1/d_v − Σ_k l_kv·Z_kv.
+  // Every Z_kj needed lies on the filled pattern, stored beside L (zOff) or on the diagonal.
   const zDiagRe = new Float64Array(n);
   const zDiagIm = new Float64Array(n);
-  const zOffRe: Float64Array[] = new Array(n);
-  const zOffIm: Float64Array[] = new Array(n);
-  const zBetween = (a: number, b: number): Entry => {
-    if (a === b) return { re: zDiagRe[a], im: zDiagIm[a] };
-    const [first, second] = position[a] < position[b] ? [a, b] : [b, a];
-    const nb = neighbours[first];
-    for (let i = 0; i < nb.length; i++)
-      if (nb[i] === second) return { re: zOffRe[first][i], im: zOffIm[first][i] };
+  const zOffRe = new Float64Array(lNode.length);
+  const zOffIm = new Float64Array(lNode.length);
+  const slotBetween = (a: number, b: number): number => {
+    const earlier = position[a] < position[b] ? a : b;
+    const later = earlier === a ? b : a;
+    const p = position[earlier];
+    for (let s = lStart[p]; s < lStart[p + 1]; s++) if (lNode[s] === later) return s;
     throw new Error(`selected inverse left the filled pattern at nodes ${a}, ${b}`);
   };
 
-  for (let s = activeCount - 1; s >= 0; s--) {
-    const v = order[s];
-    const nb = neighbours[v];
-    const cRe = lRe[v];
-    const cIm = lIm[v];
-    const size = nb.length;
-    const offRe = new Float64Array(size);
-    const offIm = new Float64Array(size);
-    for (let q = 0; q < size; q++) {
+  for (let p = activeCount - 1; p >= 0; p--) {
+    const v = order[p];
+    const begin = lStart[p];
+    const end = lStart[p + 1];
+    for (let q = begin; q < end; q++) {
+      const j = lNode[q];
       let sumRe = 0;
       let sumIm = 0;
-      for (let p = 0; p < size; p++) {
-        const z = zBetween(nb[p], nb[q]);
-        sumRe += cRe[p] * z.re - cIm[p] * z.im;
-        sumIm += cRe[p] * z.im + cIm[p] * z.re;
+      for (let s = begin; s < end; s++) {
+        const k = lNode[s];
+        let zRe: number;
+        let zIm: number;
+        if (k === j) {
+          zRe = zDiagRe[j];
+          zIm = zDiagIm[j];
+        } else {
+          const slot = slotBetween(k, j);
+          zRe = zOffRe[slot];
+          zIm = zOffIm[slot];
+        }
+        sumRe += lRe[s] * zRe - lIm[s] * zIm;
+        sumIm += lRe[s] * zIm + lIm[s] * zRe;
       }
-      offRe[q] = -sumRe;
-      offIm[q] = -sumIm;
+      zOffRe[q] = -sumRe;
+      zOffIm[q] = -sumIm;
     }
-    zOffRe[v] = offRe;
-    zOffIm[v] = offIm;
     const dRe = pivotRe[v];
     const dIm = pivotIm[v];
     const dMag2 = dRe * dRe + dIm * dIm;
     let re = dRe / dMag2;
     let im = -dIm / dMag2;
-    for (let p = 0; p < size; p++) {
-      re -= cRe[p] * offRe[p] - cIm[p] * offIm[p];
-      im -= cRe[p] * offIm[p] + cIm[p] * offRe[p];
+    for (let s = begin; s < end; s++) {
+      re -= lRe[s] * zOffRe[s] - lIm[s] * zOffIm[s];
+      im -= lRe[s] * zOffIm[s] + lIm[s] * zOffRe[s];
     }
     zDiagRe[v] = re;
     zDiagIm[v] = im;
