@@ -9,7 +9,7 @@
 // impedance seen through the transformer is scaled by the rated ratio squared, as the
 // standard refers impedances.
 //
-// Decisions where the network file is silent (documented here and in the fault results):
+// Decisions where the network file is silent:
 // - Grid infeed: R/X = 0.1 when `xOverR` is absent (IEC 60909-0 allowance, from memory);
 //   zero-sequence Z(0)Q = z0OverZ1 × Z_Q with z0OverZ1 = 1 when absent (the utility gave only
 //   S"kQ; an effectively earthed system with S"k1 ≈ S"k3, common practice).
@@ -21,7 +21,8 @@
 //   value (common practice).
 // - Generators are open in zero sequence (neutral assumed high-impedance earthed, common
 //   practice). Generator and unit transformer are corrected separately with K_G and K_T, as
-//   the methods prescribe, rather than as one power-station unit.
+//   the methods prescribe, rather than as one power-station unit. Without `ratedKV` a
+//   generator is rated at its bus's nominal voltage; without `ratedPowerFactor`, cos φ = 0.85.
 import type { Bus, Network, Source, Transformer } from "#solver/schema.ts";
 import {
   impedanceBaseOhm,
