@@ -648,10 +648,12 @@ function sourceReadings(model: LoadFlowModel, state: LoadFlowState, w: Workspace
     const bounded = limits.every((s) => s.qMinMvar !== undefined && s.qMaxMvar !== undefined);
     const range = bounded ? limits.reduce((sum, s) => sum + (s.qMaxMvar! - s.qMinMvar!), 0) : 0;
     const lowest = bounded ? limits.reduce((sum, s) => sum + s.qMinMvar!, 0) : 0;
+    const proportional = members.length > 1 && bounded && range > 1e-6;
     members.forEach((k, m) => {
       const s = limits[m];
-      readings[k].qMvar =
-        bounded && range > 0 ? s.qMinMvar! + ((qRegulated - lowest) / range) * (s.qMaxMvar! - s.qMinMvar!) : qRegulated / members.length;
+      readings[k].qMvar = proportional
+        ? s.qMinMvar! + ((qRegulated - lowest) / range) * (s.qMaxMvar! - s.qMinMvar!)
+        : qRegulated / members.length;
     });
   }
   // PV sources sharing a bus with the slack deliver their P; their Q is counted with the slack.

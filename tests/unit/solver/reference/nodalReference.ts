@@ -158,6 +158,7 @@ export function referenceLoadFlow(net: Network): ReferenceSolution {
   // Which buses regulate their voltage now, and the reactive output held by those at a limit.
   const regulating = role.map((r) => r === "pv");
   const held = Array(n).fill(0);
+  const heldAtUpper = Array(n).fill(false);
 
   const residual = (x: number[]): number[] => {
     const v = Array.from({ length: n }, (_, i) => complex(x[2 * i], x[2 * i + 1]));
@@ -225,9 +226,10 @@ export function referenceLoadFlow(net: Network): ReferenceSolution {
       const output = s[i].im + loadAt(i, vm).im - fixedQ[i];
       if (regulating[i] && (output > qHigh[i] + 1e-9 || output < qLow[i] - 1e-9)) {
         regulating[i] = false;
-        held[i] = output > qHigh[i] ? qHigh[i] : qLow[i];
+        heldAtUpper[i] = output > qHigh[i];
+        held[i] = heldAtUpper[i] ? qHigh[i] : qLow[i];
         changed = true;
-      } else if (!regulating[i] && (held[i] === qHigh[i] ? vm > setV[i] + 1e-9 : vm < setV[i] - 1e-9)) {
+      } else if (!regulating[i] && (heldAtUpper[i] ? vm > setV[i] + 1e-9 : vm < setV[i] - 1e-9)) {
         regulating[i] = true;
         held[i] = 0;
         changed = true;
