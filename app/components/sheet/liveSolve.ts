@@ -1,0 +1,62 @@
+// Solving in the browser after each edit: the same solveNetwork the command line and the API
+// use, timed, and turned into the lookups the sheet's Readings need.
+import { useEffect } from "react";
+import { solveNetwork } from "#solver/index.ts";
+import type { Check } from "#solver/results.ts";
+import type { Network } from "#solver/schema.ts";
+import { documentIssues } from "./documentIssues.ts";
+import type { Readings, SheetStore, SolveState } from "./sheetStore.ts";
+
+/** Short: an edit should reach the Readings well inside 100 ms; it only coalesces bursts. */
+const SOLVE_DEBOUNCE_MS = 30;
+
+export const READINGS_MEASURE = "kilostep:edit-to-readings";
+
+export function solveForSheet(document: Network): SolveState {
+  const started = performance.now();
+  let outcome: ReturnType<typeof solveNetwork>;
+  try {
+    outcome = solveNetwork(document);
+  } catch (error) {
+    return { kind: "failed", message: `The solver stopped on this network: ${error instanceof Error ? error.message : String(error)}` };
+  }
+  const elapsedMs = performance.now() - started;
+  if (!outcome.ok) {
+    const issues = documentIssues(document);
+    return { kind: "invalid", issues: issues.length ? issues : outcome.issues.map((i) => ({ message: `${i.path}: ${i.message}` })) };
+  }
+  const { result, network } = outcome;
+  const converged = result.loadFlow.converged;
+  const checksByElement = new Map<string, Check[]>();
+  for (const check of result.checks) checksByElement.set(check.element, [...(checksByElement.get(check.element) ?? []), check]);
+  const readings: Readings = {
+    result,
+    network,
+    elapsedMs,
+    // A load flow that did not converge has no numbers worth drawing: none are kept.
+    buses: new Map(converged ? result.loadFlow.buses.map((b) => [b.id, b]) : []),
+    branches: new Map(converged ? result.loadFlow.branches.map((b) => [b.id, b]) : []),
+    sources: new Map(converged ? result.loadFlow.sources.map((s) => [s.id, s]) : []),
+    faults: new Map((result.faults?.buses ?? []).map((f) => [f.id, f])),
+    checksByElement,
+  };
+  return { kind: "solved", readings };
+}
+
+/** Re-solve whenever the document changes. */
+export function useLiveSolve(store: SheetStore): void {
+  useEffect(() => {
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const run = () => store.getState().actions.setSolve(solveForSheet(store.getState().document));
+    run();
+    const unsubscribe = store.subscribe((state, previous) => {
+      if (state.document === previous.document) return;
+      clearTimeout(timer);
+      timer = setTimeout(run, SOLVE_DEBOUNCE_MS);
+    });
+    return () => {
+      clearTimeout(timer);
+      unsubscribe();
+    };
+  }, [store]);
+}

@@ -1,0 +1,263 @@
+// The sheet's node components, one per element kind. Each draws its symbol at a fixed size (the
+// size flowModel gives xyflow), its name above and its Readings below.
+import { memo, type ReactNode } from "react";
+import { Handle, Position, useConnection, type NodeProps } from "@xyflow/react";
+import type { Bus, Line, Load, Shunt, Source, Transformer } from "#solver/schema.ts";
+import type { SheetNode, Side, TerminalId } from "./flowModel.ts";
+import { fixed, flowArrow } from "./readingFormat.ts";
+import { statusCue, upperLimitStatus, voltageStatus, type LimitStatus } from "./readingStatus.ts";
+import { useSheet } from "./sheetStore.ts";
+import {
+  CapacitorSymbol,
+  GeneratorSymbol,
+  GridInfeedSymbol,
+  LineSymbol,
+  LoadSymbol,
+  TransformerSymbol,
+  type SymbolStroke,
+} from "./symbols.tsx";
+import { strokeFor, unconnectedStyle } from "./voltageClasses.ts";
+
+function strokeOf(kv: number | undefined): SymbolStroke {
+  if (kv === undefined) return { ...unconnectedStyle, dashed: true };
+  return strokeFor(kv);
+}
+
+export function StatusMark({ status }: { status: LimitStatus | undefined }) {
+  if (!status) return null;
+  const cue = statusCue[status];
+  return (
+    <span className={`ks-status ${cue.className}`} title={cue.words}>
+      <span aria-hidden="true">{cue.icon}</span>
+      <span className="sr-only"> {cue.words}</span>
+    </span>
+  );
+}
+
+function Terminal({ id, side, readOnly }: { id: TerminalId; side: Side; readOnly: boolean }) {
+  return (
+    <Handle
+      type="source"
+      id={id}
+      position={side === "left" ? Position.Left : Position.Right}
+      isConnectable={!readOnly}
+      className="ks-terminal"
+      aria-label={`${id === "t" ? "terminal" : `${id} terminal`}: drag to a busbar`}
+    />
+  );
+}
+
+function Label({ children }: { children: ReactNode }) {
+  return <div className="ks-node-label">{children}</div>;
+}
+
+function ReadingBlock({ children }: { children: ReactNode }) {
+  const show = useSheet((s) => s.showReadings);
+  if (!show) return null;
+  return <div className="ks-readings">{children}</div>;
+}
+
+const useReadOnly = () => useSheet((s) => s.readOnly);
+
+function BusNodeView({ id, data }: NodeProps<SheetNode>) {
+  const bus = data.element as Bus;
+  const connecting = useConnection((c) => c.inProgress);
+  const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.buses.get(id) : undefined));
+  const fault = useSheet((s) => (s.solve.kind === "solved" && s.showFaults ? s.solve.readings.faults.get(id) : undefined));
+  const stroke = strokeFor(bus.nominalKV);
+  const height = data.height;
+  const vStatus = reading ? voltageStatus(reading.vPu, bus.vMinPu, bus.vMaxPu) : undefined;
+  const faultStatus = fault ? upperLimitStatus(Math.max(fault.ik3kA, fault.ik1kA), bus.breakingKA) : undefined;
+  return (
+    <div className="ks-node ks-bus" style={{ width: data.width, height }}>
+      <div className="ks-node-label ks-bus-label">
+        <span className="ks-bus-name">{bus.name}</span>
+        <span className="ks-bus-kv">{bus.nominalKV} kV</span>
+      </div>
+      <div
+        className="ks-bar"
+        style={{ background: stroke.colour, width: Math.max(5, stroke.strokePx + 3), height }}
+        aria-hidden="true"
+      />
+      <Handle
+        type="target"
+        id="bar"
+        position={Position.Left}
+        isConnectableStart={false}
+        className={`ks-bar-handle${connecting ? " ks-bar-handle-live" : ""}`}
+      />
+      {reading ? (
+        <ReadingBlock>
+          <div className={vStatus ? statusCue[vStatus].className : undefined}>
+            {fixed(reading.vKV, 2)} kV <StatusMark status={vStatus} />
+          </div>
+          <div>
+            {fixed(reading.vPu, 3)} pu ∠ {fixed(reading.angleDeg, 1)}°
+          </div>
+          {fault ? (
+            <div className={`ks-fault ${faultStatus ? statusCue[faultStatus].className : ""}`}>
+              Ik3 {fixed(fault.ik3kA, 2)} · Ik1 {fixed(fault.ik1kA, 2)} kA <StatusMark status={faultStatus} />
+            </div>
+          ) : null}
+        </ReadingBlock>
+      ) : fault ? (
+        <ReadingBlock>
+          <div className={`ks-fault ${faultStatus ? statusCue[faultStatus].className : ""}`}>
+            Ik3 {fixed(fault.ik3kA, 2)} · Ik1 {fixed(fault.ik1kA, 2)} kA <StatusMark status={faultStatus} />
+          </div>
+        </ReadingBlock>
+      ) : null}
+    </div>
+  );
+}
+
+function BranchReadings({ id, fromSide, reversed, ratedLoading }: { id: string; fromSide: Side; reversed: boolean; ratedLoading: boolean }) {
+  const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
+  if (!reading) return null;
+  // The reading's from-end may be the element's other terminal (a transformer reads HV to LV).
+  const side: Side = reversed ? (fromSide === "left" ? "right" : "left") : fromSide;
+  const loading = ratedLoading ? upperLimitStatus(reading.loadingPct, 100) : undefined;
+  return (
+    <ReadingBlock>
+      <div>
+        <span aria-label={`active power ${reading.pFromMW >= 0 ? "forward" : "reverse"}`}>{flowArrow(reading.pFromMW, side)}</span>{" "}
+        {fixed(Math.abs(reading.pFromMW), 2)} MW{" "}
+        <span aria-label={`reactive power ${reading.qFromMvar >= 0 ? "forward" : "reverse"}`}>{flowArrow(reading.qFromMvar, side)}</span>{" "}
+        {fixed(Math.abs(reading.qFromMvar), 2)} Mvar
+      </div>
+      <div className={loading ? statusCue[loading].className : undefined}>
+        loss {fixed(reading.lossKW, reading.lossKW < 100 ? 1 : 0)} kW
+        {reading.loadingPct !== null ? (
+          <>
+            {" "}
+            · {fixed(reading.loadingPct, 0)} % <StatusMark status={loading} />
+          </>
+        ) : null}
+      </div>
+    </ReadingBlock>
+  );
+}
+
+function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
+  const t = data.element as Transformer;
+  const readOnly = useReadOnly();
+  const hvSide = data.sides.hv ?? "left";
+  const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
+  return (
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+      <Label>
+        {t.name}
+        <span className="ks-node-sub">
+          {t.ratedMVA} MVA · {t.hvKV}/{t.lvKV} kV{t.tapPct ? ` · tap ${t.tapPct > 0 ? "+" : ""}${t.tapPct} %` : ""}
+        </span>
+      </Label>
+      <TransformerSymbol
+        width={data.width}
+        height={data.height}
+        hvSide={hvSide}
+        hvStroke={strokeOf(data.terminalKV.hv)}
+        lvStroke={strokeOf(data.terminalKV.lv)}
+        tapChanger={t.tapMinPct !== undefined || t.tapMaxPct !== undefined}
+      />
+      <Terminal id="hv" side={hvSide} readOnly={readOnly} />
+      <Terminal id="lv" side={data.sides.lv ?? "right"} readOnly={readOnly} />
+      <BranchReadings id={id} fromSide={hvSide} reversed={branch ? branch.fromBus !== t.hvBus : false} ratedLoading />
+    </div>
+  );
+}
+
+function LineNodeView({ id, data }: NodeProps<SheetNode>) {
+  const line = data.element as Line;
+  const readOnly = useReadOnly();
+  const fromSide = data.sides.from ?? "left";
+  const kv = data.terminalKV.from ?? data.terminalKV.to;
+  const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
+  return (
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+      <Label>
+        {line.name}
+        <span className="ks-node-sub">
+          {line.lengthKm} km {line.kind === "cable" ? "cable" : "overhead"}
+        </span>
+      </Label>
+      <LineSymbol width={data.width} height={data.height} stroke={strokeOf(kv)} cable={line.kind === "cable"} />
+      <Terminal id="from" side={fromSide} readOnly={readOnly} />
+      <Terminal id="to" side={data.sides.to ?? "right"} readOnly={readOnly} />
+      <BranchReadings
+        id={id}
+        fromSide={fromSide}
+        reversed={branch ? branch.fromBus !== line.fromBus : false}
+        ratedLoading={line.ampacityA !== undefined}
+      />
+    </div>
+  );
+}
+
+function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
+  const source = data.element as Source;
+  const readOnly = useReadOnly();
+  const side = data.sides.t ?? "right";
+  const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.sources.get(id) : undefined));
+  const Symbol = source.kind === "grid" ? GridInfeedSymbol : GeneratorSymbol;
+  return (
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+      <Label>
+        {source.name}
+        <span className="ks-node-sub">{source.control === "slack" ? "slack" : source.control.toUpperCase()}</span>
+      </Label>
+      <Symbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
+      <Terminal id="t" side={side} readOnly={readOnly} />
+      {reading ? (
+        <ReadingBlock>
+          <div>
+            {fixed(reading.pMW, 2)} MW · {fixed(reading.qMvar, 2)} Mvar
+          </div>
+        </ReadingBlock>
+      ) : null}
+    </div>
+  );
+}
+
+function LoadNodeView({ data }: NodeProps<SheetNode>) {
+  const load = data.element as Load;
+  const readOnly = useReadOnly();
+  const side = data.sides.t ?? "left";
+  return (
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+      <Label>
+        {load.name}
+        <span className="ks-node-sub">
+          {load.pMW} MW · {load.qMvar} Mvar
+        </span>
+      </Label>
+      <LoadSymbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
+      <Terminal id="t" side={side} readOnly={readOnly} />
+    </div>
+  );
+}
+
+function ShuntNodeView({ data }: NodeProps<SheetNode>) {
+  const shunt = data.element as Shunt;
+  const readOnly = useReadOnly();
+  const side = data.sides.t ?? "left";
+  return (
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+      <Label>
+        {shunt.name}
+        <span className="ks-node-sub">{shunt.qMvar} Mvar</span>
+      </Label>
+      <CapacitorSymbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
+      <Terminal id="t" side={side} readOnly={readOnly} />
+    </div>
+  );
+}
+
+/** Module level, so xyflow never sees a new object and never remounts the nodes. */
+export const nodeTypes = {
+  bus: memo(BusNodeView),
+  transformer: memo(TransformerNodeView),
+  line: memo(LineNodeView),
+  source: memo(SourceNodeView),
+  load: memo(LoadNodeView),
+  shunt: memo(ShuntNodeView),
+};
