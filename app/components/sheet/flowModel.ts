@@ -39,7 +39,7 @@ const BUS_SPACING_PX = 240;
 const BAR_HIT_WIDTH_PX = 24;
 export const BAR_HALF_THICKNESS_PX = 3;
 const MIN_BAR_HALF_LENGTH_PX = 40;
-const ATTACHMENT_SLOT_PX = 80;
+const ATTACHMENT_SLOT_PX = 100;
 const ATTACHMENT_OFFSET_PX = 120;
 const TERMINAL_HANDLE_PX = 12;
 const DETOUR_PX = 14;
@@ -126,34 +126,57 @@ export function anchorOf(entry: ElementEntry, busCenters: Map<string, XY>): XY {
 }
 
 /**
- * Sources hang on the left of their busbar, loads and shunts on the right, stacked in slots.
- * Elements the planner has placed keep their place and take no slot, so placing one never
- * shifts the others.
+ * Default places beside a busbar: a source on its left, a load or shunt on its right, level with
+ * the bar's centre when that spot is free. A spot is taken when a branch leaves the bar there or
+ * another element hangs within one slot of it; then the element tries the other side, then
+ * further up and down its own side. Elements the planner has placed keep their place, so placing
+ * one never shifts the others.
  */
 function defaultOffsets(entries: Map<string, ElementEntry>, busCenters: Map<string, XY>, layout: SheetLayout): Map<string, XY> {
   const offsets = new Map<string, XY>();
-  const sides = new Map<string, { left: string[]; right: string[] }>();
+  const taken = new Map<string, Record<Side, number[]>>();
+  const occupy = (busId: string, side: Side, y: number) => {
+    const sides = taken.get(busId) ?? { left: [], right: [] };
+    sides[side].push(y);
+    taken.set(busId, sides);
+  };
+  const isFree = (busId: string, side: Side, y: number) =>
+    (taken.get(busId)?.[side] ?? []).every((other) => Math.abs(other - y) >= ATTACHMENT_SLOT_PX);
+
+  const waiting: { id: string; entry: ElementEntry; busId: string }[] = [];
   for (const [id, entry] of entries) {
-    if (layout[id]) continue;
-    if (entry.kind === "source" || entry.kind === "load" || entry.kind === "shunt") {
-      const busId = terminalBus(entry, "t");
-      if (!busCenters.has(busId)) continue;
-      const slots = sides.get(busId) ?? { left: [], right: [] };
-      (entry.kind === "source" ? slots.left : slots.right).push(id);
-      sides.set(busId, slots);
-    } else if (entry.kind === "transformer" || entry.kind === "line") {
-      const [a, b] = terminalsOf(entry.kind);
-      const aBus = busCenters.has(terminalBus(entry, a));
-      const bBus = busCenters.has(terminalBus(entry, b));
-      if (aBus !== bBus) offsets.set(id, { x: aBus ? ATTACHMENT_OFFSET_PX : -ATTACHMENT_OFFSET_PX, y: 0 });
+    if (entry.kind === "bus") continue;
+    const buses = terminalsOf(entry.kind)
+      .map((t) => terminalBus(entry, t))
+      .filter((b) => busCenters.has(b));
+    if (buses.length === 0) continue;
+    if ((entry.kind === "transformer" || entry.kind === "line") && buses.length === 1 && !layout[id]) {
+      const [a] = terminalsOf(entry.kind);
+      offsets.set(id, { x: terminalBus(entry, a) === buses[0] ? ATTACHMENT_OFFSET_PX : -ATTACHMENT_OFFSET_PX, y: 0 });
     }
+    const single = entry.kind === "source" || entry.kind === "load" || entry.kind === "shunt";
+    if (single && !layout[id]) {
+      waiting.push({ id, entry, busId: buses[0] });
+      continue;
+    }
+    const anchor = anchorOf(entry, busCenters);
+    const offset = layout[id] ?? offsets.get(id) ?? { x: 0, y: 0 };
+    const center = { x: anchor.x + offset.x, y: anchor.y + offset.y };
+    for (const busId of buses) occupy(busId, center.x < busCenters.get(busId)!.x ? "left" : "right", center.y);
   }
-  for (const { left, right } of sides.values()) {
-    for (const [list, dx] of [
-      [left, -ATTACHMENT_OFFSET_PX],
-      [right, ATTACHMENT_OFFSET_PX],
-    ] as const) {
-      list.forEach((id, i) => offsets.set(id, { x: dx, y: (i - (list.length - 1) / 2) * ATTACHMENT_SLOT_PX }));
+
+  for (const { id, entry, busId } of waiting) {
+    const bar = busCenters.get(busId)!;
+    const preferred: Side = entry.kind === "source" ? "left" : "right";
+    const other: Side = preferred === "left" ? "right" : "left";
+    placing: for (let k = 0; k < 64; k++) {
+      const dy = k === 0 ? 0 : (k % 2 === 1 ? 1 : -1) * Math.ceil(k / 2) * ATTACHMENT_SLOT_PX;
+      for (const side of k === 0 ? [preferred, other] : [preferred]) {
+        if (!isFree(busId, side, bar.y + dy)) continue;
+        offsets.set(id, { x: side === "left" ? -ATTACHMENT_OFFSET_PX : ATTACHMENT_OFFSET_PX, y: dy });
+        occupy(busId, side, bar.y + dy);
+        break placing;
+      }
     }
   }
   return offsets;

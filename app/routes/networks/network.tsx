@@ -1,6 +1,6 @@
 import { data, Link } from "react-router";
 import type { Route } from "./+types/network";
-import { NetworkTables } from "#app/components/NetworkTables.tsx";
+import { SheetEditor } from "#app/components/sheet/SheetEditor.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { parseId } from "#app/lib/api.server.ts";
@@ -34,7 +34,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export default function NetworkPage({ loaderData }: Route.ComponentProps) {
-  const { name, team, role, revision, document, issues } = loaderData;
+  const { id, name, team, role, revision, document, issues } = loaderData;
   return (
     <>
       <p className="mb-2 text-sm">
@@ -51,7 +51,7 @@ export default function NetworkPage({ loaderData }: Route.ComponentProps) {
         }
       />
       {document ? (
-        <NetworkTables network={document} />
+        <SheetEditor networkId={id} document={document} revision={revision.number} readOnly={role === "viewer"} />
       ) : (
         <Notice tone="error">
           This revision no longer passes the network file's checks:

@@ -117,3 +117,31 @@ describe("flow to document", () => {
     expect(both.layout["ld-mine"]).toEqual({ x: 140, y: 40 });
   });
 });
+
+describe("default places beside busbars", () => {
+  const load = (file: string) => {
+    const parsed = validateNetwork(JSON.parse(readFileSync(`tests/fixtures/${file}`, "utf8")));
+    if (!parsed.ok) throw new Error(`${file} does not validate`);
+    return parsed.network;
+  };
+
+  for (const file of ["tarn-head-calder-flats.json", "hollin-moor-solar.json"]) {
+    it(`keeps every element of ${file} at least a slot apart, labels included`, () => {
+      const { nodes } = documentToFlow(load(file), {});
+      // a node's box grown by its name above and its readings below (about 30 px each)
+      const box = (n: (typeof nodes)[number]) => ({ id: n.id, l: n.position.x - n.width! / 2, r: n.position.x + n.width! / 2, t: n.position.y - n.height! / 2 - 30, b: n.position.y + n.height! / 2 + 30 });
+      const parts = nodes.filter((n) => n.type !== "bus").map(box);
+      for (const a of parts)
+        for (const b of parts)
+          if (a.id < b.id) expect(a.l < b.r && b.l < a.r && a.t < b.b && b.t < a.b, `${a.id} overlaps ${b.id}`).toBe(false);
+    });
+  }
+
+  it("moves an infeed to the free side of its bar when a branch leaves on its usual side", () => {
+    const { nodes } = documentToFlow(load("hollin-moor-solar.json"), {});
+    const at = (id: string) => nodes.find((n) => n.id === id)!.position;
+    // the export line arrives at the grid bus from the left, so the infeed hangs on the right
+    expect(at("g-greyscar").x).toBeGreaterThan(at("b-greyscar").x);
+    expect(at("g-greyscar").y).toBe(at("b-greyscar").y);
+  });
+});

@@ -1,0 +1,100 @@
+// Checks: every limit the solved network breaks, or why it cannot be solved. Clicking an entry
+// selects the element on the sheet.
+import type { SheetIssue } from "./documentIssues.ts";
+import { fixed } from "./readingFormat.ts";
+import { statusCue } from "./readingStatus.ts";
+import { useSheet, useSheetActions } from "./sheetStore.ts";
+
+function IssueList({ issues, lead }: { issues: SheetIssue[]; lead: string }) {
+  const actions = useSheetActions();
+  return (
+    <>
+      <p className="ks-panel-note">{lead}</p>
+      <ul className="ks-check-list">
+        {issues.map((issue, i) => (
+          <li key={`${issue.elementId}-${i}`}>
+            {issue.elementId ? (
+              <button type="button" className="ks-check ks-check-issue" onClick={() => actions.focusElement(issue.elementId!)}>
+                <span aria-hidden="true">✕</span> {issue.message}
+              </button>
+            ) : (
+              <span className="ks-check ks-check-issue">
+                <span aria-hidden="true">✕</span> {issue.message}
+              </span>
+            )}
+          </li>
+        ))}
+      </ul>
+    </>
+  );
+}
+
+export function ChecksPanel() {
+  const solve = useSheet((s) => s.solve);
+  const actions = useSheetActions();
+
+  let body;
+  let summary: string;
+  if (solve.kind === "pending") {
+    summary = "Solving…";
+    body = <p className="ks-panel-note">Solving the network…</p>;
+  } else if (solve.kind === "failed") {
+    summary = "Not solved";
+    body = <p className="ks-check ks-check-issue">{solve.message}</p>;
+  } else if (solve.kind === "invalid") {
+    summary = `Not solved: ${solve.issues.length} ${solve.issues.length === 1 ? "thing" : "things"} to fix`;
+    body = <IssueList issues={solve.issues} lead="The drawing is not a complete network yet, so there are no readings:" />;
+  } else {
+    const { result, elapsedMs } = solve.readings;
+    const converged = result.loadFlow.converged;
+    const limitChecks = result.checks.filter((c) => c.kind !== "not-converged");
+    summary = !converged
+      ? "Load flow did not converge"
+      : limitChecks.length
+        ? `${limitChecks.length} ${limitChecks.length === 1 ? "limit" : "limits"} broken`
+        : "Every limit kept";
+    body = (
+      <>
+        {!converged ? (
+          <p className="ks-check ks-check-issue" role="alert">
+            <span aria-hidden="true">✕ </span>
+            {result.loadFlow.message ?? "The load flow did not converge."}
+          </p>
+        ) : null}
+        {converged && limitChecks.length === 0 ? (
+          <p className={`ks-check ${statusCue.within.className}`}>
+            <span aria-hidden="true">{statusCue.within.icon} </span>
+            No bus voltage, line current, transformer loading or fault current is beyond its limit.
+          </p>
+        ) : null}
+        {limitChecks.length ? (
+          <ul className="ks-check-list">
+            {limitChecks.map((check, i) => (
+              <li key={`${check.element}-${check.kind}-${i}`}>
+                <button type="button" className="ks-check ks-check-issue" onClick={() => actions.focusElement(check.element)}>
+                  <span aria-hidden="true">{statusCue.beyond.icon}</span> {check.message}
+                </button>
+              </li>
+            ))}
+          </ul>
+        ) : null}
+        <p className="ks-panel-foot">
+          Solved in the browser in {fixed(elapsedMs, 1)} ms
+          {converged ? `, ${result.loadFlow.iterations} iterations` : ""}.
+        </p>
+      </>
+    );
+  }
+
+  return (
+    <section className="ks-panel ks-checks" aria-labelledby="ks-checks-title">
+      <header className="ks-panel-head">
+        <h2 id="ks-checks-title">Checks</h2>
+        <p className="ks-panel-sub" aria-live="polite">
+          {summary}
+        </p>
+      </header>
+      <div className="ks-panel-body">{body}</div>
+    </section>
+  );
+}

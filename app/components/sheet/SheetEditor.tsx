@@ -1,0 +1,159 @@
+// The sheet editor: parts shelf, the sheet, Details and Checks beside it, Results under it.
+// One store per editor (see sheetStore.ts); saving, drafts and live solving hang off that store.
+import "@xyflow/react/dist/style.css";
+import "./sheet.css";
+import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
+import type { Network } from "#solver/schema.ts";
+import { browserEnvironment, startAutosave, type Autosave } from "./autosave.ts";
+import { ChecksPanel } from "./ChecksPanel.tsx";
+import { DetailsPanel } from "./DetailsPanel.tsx";
+import { clearDrafts, draftToOffer, readDraft, readLayout, type Draft } from "./draftStorage.ts";
+import type { EquipmentTypes } from "./EquipmentPicker.tsx";
+import { GRID_PX, sheetGeometry, type XY } from "./flowModel.ts";
+import { READINGS_MEASURE, useLiveSolve } from "./liveSolve.ts";
+import { PartsShelf } from "./PartsShelf.tsx";
+import { ResultsTabs } from "./ResultsTabs.tsx";
+import { ConflictBanner, DraftBanner, NoticeToast } from "./SheetBanners.tsx";
+import { SheetCanvas } from "./SheetCanvas.tsx";
+import type { PartKind } from "./sheetEdits.ts";
+import { createSheetStore, EDIT_MARK, SheetStoreContext, useSheet, useSheetStoreApi } from "./sheetStore.ts";
+import { SheetToolbar } from "./SheetToolbar.tsx";
+import { ShortcutHelp } from "./ShortcutHelp.tsx";
+import { useSheetShortcuts, type ShortcutHandlers } from "./shortcuts.ts";
+
+export interface SheetEditorProps {
+  networkId: string | number;
+  document: Network;
+  revision: number;
+  /** Viewers: no shelf, no dragging or connecting, Details read only, no saving. */
+  readOnly?: boolean;
+  /** The team's own equipment types, offered before the built-in ones. */
+  library?: EquipmentTypes;
+}
+
+export function SheetEditor({ networkId, document, revision, readOnly = false, library }: SheetEditorProps) {
+  const [store] = useState(() => createSheetStore({ networkId: String(networkId), document, revision, readOnly }));
+  return (
+    <SheetStoreContext.Provider value={store}>
+      <ReactFlowProvider>
+        <EditorLayout library={library ?? {}} />
+      </ReactFlowProvider>
+    </SheetStoreContext.Provider>
+  );
+}
+
+const snap = (p: XY): XY => ({ x: Math.round(p.x / GRID_PX) * GRID_PX, y: Math.round(p.y / GRID_PX) * GRID_PX });
+
+function EditorLayout({ library }: { library: EquipmentTypes }) {
+  const store = useSheetStoreApi();
+  const readOnly = useSheet((s) => s.readOnly);
+  const solve = useSheet((s) => s.solve);
+  const rootRef = useRef<HTMLDivElement>(null);
+  const canvasRef = useRef<HTMLDivElement>(null);
+  const saver = useRef<Autosave | null>(null);
+  const [draft, setDraft] = useState<Draft | undefined>();
+  const { fitView, screenToFlowPosition } = useReactFlow();
+
+  useLiveSolve(store);
+
+  useEffect(() => {
+    const env = browserEnvironment();
+    const { networkId, savedRevision, document } = store.getState();
+    const layout = env.storage ? readLayout(env.storage, networkId) : undefined;
+    if (layout) {
+      // The stored layout is where this browser left things, not an edit to undo.
+      store.temporal.getState().pause();
+      store.setState({ layout });
+      store.temporal.getState().resume();
+    }
+    if (store.getState().readOnly) return;
+    if (env.storage) setDraft(draftToOffer(readDraft(env.storage, networkId), { revision: savedRevision, document }));
+    saver.current = startAutosave(store, env);
+    return () => saver.current?.stop();
+  }, [store]);
+
+  useEffect(() => {
+    if (solve.kind === "pending") return;
+    // Measured after the browser has drawn the new Readings: what the planner waits for.
+    const frame = requestAnimationFrame(() => {
+      if (performance.getEntriesByName(EDIT_MARK, "mark").length === 0) return;
+      performance.measure(READINGS_MEASURE, EDIT_MARK);
+      performance.clearMarks(EDIT_MARK);
+    });
+    return () => cancelAnimationFrame(frame);
+  }, [solve]);
+
+  const fit = useCallback(() => fitView({ padding: 0.2, duration: 200, maxZoom: 1.25 }), [fitView]);
+
+  const placeAtCentre = useCallback(
+    (part: PartKind) => {
+      const rect = canvasRef.current?.getBoundingClientRect();
+      if (!rect) return;
+      let at = snap(screenToFlowPosition({ x: rect.left + rect.width / 2, y: rect.top + rect.height / 2 }));
+      const { document, layout } = store.getState();
+      const taken = [...sheetGeometry(document, layout).centers.values()];
+      // Step aside from whatever already sits there, so repeated presses fan out.
+      for (let i = 0; i < 20 && taken.some((c) => Math.abs(c.x - at.x) < 40 && Math.abs(c.y - at.y) < 40); i++)
+        at = { x: at.x + 2 * GRID_PX, y: at.y + 2 * GRID_PX };
+      store.getState().actions.place(part, at);
+    },
+    [screenToFlowPosition, store],
+  );
+
+  const handlers: ShortcutHandlers = useMemo(
+    () => ({
+      fit,
+      placeAtCentre,
+      nudge: (dx, dy) => {
+        const { document, layout, selection, actions } = store.getState();
+        const centers = sheetGeometry(document, layout).centers;
+        const moves: Record<string, XY> = {};
+        for (const id of selection) {
+          const c = centers.get(id);
+          if (c) moves[id] = { x: c.x + dx, y: c.y + dy };
+        }
+        if (Object.keys(moves).length) actions.commitMoves(moves);
+      },
+    }),
+    [fit, placeAtCentre, store],
+  );
+  useSheetShortcuts(store, rootRef, handlers);
+
+  return (
+    <div ref={rootRef} className={`ks-editor${readOnly ? " ks-editor-readonly" : ""}`}>
+      <SheetToolbar onFit={fit} />
+      <ConflictBanner onReloadTheirs={() => void saver.current?.reloadTheirs()} onKeepMine={() => saver.current?.keepMine()} />
+      {draft ? (
+        <DraftBanner
+          draft={draft}
+          savedRevision={store.getState().savedRevision}
+          onRestore={() => {
+            store.getState().actions.replaceDocument(draft.document, draft.layout);
+            setDraft(undefined);
+          }}
+          onDiscard={() => {
+            const storage = browserEnvironment().storage;
+            if (storage) clearDrafts(storage, store.getState().networkId);
+            setDraft(undefined);
+          }}
+        />
+      ) : null}
+      <NoticeToast />
+      <div className="ks-editor-main">
+        {readOnly ? null : <PartsShelf onPlace={placeAtCentre} />}
+        <div className="ks-centre">
+          <div className="ks-canvas" ref={canvasRef}>
+            <SheetCanvas />
+          </div>
+          <ResultsTabs />
+        </div>
+        <div className="ks-side">
+          <DetailsPanel library={library} />
+          <ChecksPanel />
+        </div>
+      </div>
+      <ShortcutHelp />
+    </div>
+  );
+}
