@@ -25,7 +25,7 @@ function Num({ value, digits }: { value: number | null | undefined; digits?: num
 
 function Section({ id, title, count, children }: { id: string; title: string; count: number; children: ReactNode }) {
   return (
-    <section aria-labelledby={`${id}-title`} className="panel overflow-x-auto" id={id}>
+    <section aria-labelledby={`${id}-title`} className="panel overflow-x-auto" id={id} tabIndex={0}>
       <h2 id={`${id}-title`} className="flex items-baseline gap-2 px-4 pt-4 text-lg">
         {title}
         <span className="text-sm font-normal text-ink-muted">{count}</span>

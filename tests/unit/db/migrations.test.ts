@@ -8,7 +8,8 @@ import { validateNetwork } from "#solver/schema.ts";
 
 const databasePath = () => `${process.env.DATABASE_PATH}.migrations-${Math.random().toString(36).slice(2)}`;
 
-const APP_TABLES = ["memberships", "network_revisions", "networks", "sessions", "sign_in_failures", "teams", "users"];
+// The foundation's tables; later migrations add more, which these tests leave them free to do.
+const FOUNDATION_TABLES = ["memberships", "network_revisions", "networks", "sessions", "sign_in_failures", "teams", "users"];
 
 async function tableNames(db: ReturnType<typeof openDatabase>): Promise<string[]> {
   const rows = await sql<{ name: string }>`select name from sqlite_master where type = 'table' and name not like 'sqlite_%' and name not like 'kysely_%' order by name`.execute(db);
@@ -20,7 +21,7 @@ describe("migrations", () => {
     const db = openDatabase(databasePath());
     const applied = await migrateToLatest(db);
     expect(applied).toEqual(Object.keys(migrations));
-    expect(await tableNames(db)).toEqual(APP_TABLES);
+    expect(await tableNames(db)).toEqual(expect.arrayContaining(FOUNDATION_TABLES));
     expect(await migrateToLatest(db)).toEqual([]);
     await db.destroy();
   });
@@ -51,7 +52,7 @@ describe("migrations", () => {
     }
     expect(await tableNames(db)).toEqual([]);
     await migrateToLatest(db);
-    expect(await tableNames(db)).toEqual(APP_TABLES);
+    expect(await tableNames(db)).toEqual(expect.arrayContaining(FOUNDATION_TABLES));
     await db.destroy();
   });
 

@@ -1,0 +1,56 @@
+// The browser tests' server: the BUILT app (run `npm run build` first) on a throwaway database
+// that is migrated and seeded with the demo, in production mode with a random session secret.
+// It serves a private copy of build/, so a rebuild in the working tree during the run cannot pull
+// the assets from under the browser; the copy sits inside node_modules so that the server bundle
+// still resolves its packages. Both temporary folders go when Playwright stops the server.
+import { spawn } from "node:child_process";
+import { randomBytes } from "node:crypto";
+import { cpSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join, resolve } from "node:path";
+
+const folder = mkdtempSync(join(tmpdir(), "kilostep-e2e-"));
+mkdirSync("node_modules/.cache", { recursive: true });
+const served = mkdtempSync(resolve("node_modules/.cache/kilostep-e2e-"));
+cpSync("build", join(served, "build"), { recursive: true });
+const databasePath = join(folder, "e2e.sqlite");
+process.env.DATABASE_PATH = databasePath;
+// Seeding reads the app's environment module; as in `npm run demo`, it runs in development mode.
+process.env.NODE_ENV = "development";
+
+const { openMigratedDatabase } = await import("#db/database.ts");
+const { seedDemo } = await import("#db/seed.ts");
+const db = await openMigratedDatabase(databasePath);
+await seedDemo(db);
+await db.destroy();
+
+// The package exports no bin path, so it is found where npm installs it (cwd is the repository).
+const serveBin = resolve("node_modules/@react-router/serve/bin.js");
+const server = spawn(process.execPath, [serveBin, "./build/server/index.js"], {
+  cwd: served,
+  stdio: "inherit",
+  env: {
+    ...process.env,
+    NODE_ENV: "production",
+    DATABASE_PATH: databasePath,
+    SESSION_SECRET: randomBytes(32).toString("hex"),
+    PORT: process.env.PORT ?? "3111",
+  },
+});
+
+function removeTemporaryFolders() {
+  rmSync(folder, { recursive: true, force: true });
+  rmSync(served, { recursive: true, force: true });
+}
+
+function stop(code: number) {
+  server.kill("SIGTERM");
+  removeTemporaryFolders();
+  process.exit(code);
+}
+process.on("SIGTERM", () => stop(0));
+process.on("SIGINT", () => stop(0));
+server.on("exit", (code) => {
+  removeTemporaryFolders();
+  process.exit(code ?? 1);
+});
