@@ -25,5 +25,6 @@ export default [
     route("networks", "routes/api/networks.ts"),
     route("networks/:networkId", "routes/api/network.ts"),
     route("networks/:networkId/solve", "routes/api/network-solve.ts"),
+    route("networks/:networkId/ladder", "routes/api/ladder.ts"),
   ]),
 ] satisfies RouteConfig;

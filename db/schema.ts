@@ -69,6 +69,22 @@ export interface NetworkRevisionsTable {
   message: ColumnType<string, string | undefined, string>;
 }
 
+export interface LadderStudiesTable {
+  /** One saved voltage ladder study per network. */
+  network_id: number;
+  section_bus: string;
+  /** JSON: the candidate voltages in kV, in the order asked. */
+  voltages_kv: string;
+  /** JSON: per-alternative overrides in the order of voltages_kv (null for none). */
+  overrides: string;
+  /** JSON: the money inputs with their defaults filled in. */
+  money: string;
+  /** The network revision the study was saved against. */
+  network_revision: number;
+  updated_by: number | null;
+  updated_at: Timestamp;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
@@ -77,6 +93,7 @@ export interface Database {
   memberships: MembershipsTable;
   networks: NetworksTable;
   network_revisions: NetworkRevisionsTable;
+  ladder_studies: LadderStudiesTable;
 }
 
 export type User = Selectable<UsersTable>;
@@ -95,3 +112,4 @@ export type NewNetworkRow = Insertable<NetworksTable>;
 export type NetworkUpdate = Updateable<NetworksTable>;
 export type NetworkRevision = Selectable<NetworkRevisionsTable>;
 export type NewNetworkRevision = Insertable<NetworkRevisionsTable>;
+export type LadderStudyRow = Selectable<LadderStudiesTable>;

@@ -1,0 +1,82 @@
+// The voltage ladder on a stored network, shared by the ladder page, its study report and
+// POST /api/networks/:id/ladder, so that all three compute the same thing from the same inputs.
+import type { Db } from "#db/database.ts";
+import { findLadderStudy, upsertLadderStudy } from "#db/ladderStudies.ts";
+import type { NetworkRow } from "#db/schema.ts";
+import { ladderRequestSchema, runLadder, type Ladder, type LadderRequest } from "#solver/ladder.ts";
+import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import { currentDocument } from "./networks.server.ts";
+
+export type LadderRun =
+  | { ok: true; ladder: Ladder; revision: number; document: Network }
+  | { ok: false; status: 400 | 422; error: string; issues: ValidationIssue[] };
+
+/** The ladder for the network's current revision; every refusal is a status, a sentence and named fields. */
+export async function runLadderOnNetwork(db: Db, network: NetworkRow, request: unknown): Promise<LadderRun> {
+  const { document } = await currentDocument(db, network);
+  const checked = validateNetwork(document);
+  if (!checked.ok) {
+    return {
+      ok: false,
+      status: 422,
+      error: `Revision ${network.current_revision} no longer passes the network file's checks; fix the network before running the ladder.`,
+      issues: checked.issues,
+    };
+  }
+  const outcome = runLadder(checked.network, request);
+  if (!outcome.ok) {
+    const [first, ...more] = outcome.issues;
+    const firstText = first.path ? `${first.path} ${first.message}` : first.message;
+    return {
+      ok: false,
+      status: 400,
+      error: `The ladder request cannot be run: ${firstText}${more.length > 0 ? ` (and ${more.length} more, listed in issues)` : ""}.`,
+      issues: outcome.issues,
+    };
+  }
+  return { ok: true, ladder: outcome.ladder, revision: network.current_revision, document: checked.network };
+}
+
+export interface SavedLadderStudy {
+  request: LadderRequest;
+  networkRevision: number;
+  updatedAt: string;
+  updatedByName: string | null;
+}
+
+/**
+ * The study saved with the network, or null. A stored study that no longer reads under the
+ * request schema (the schema moved on) is reported as unreadable rather than guessed at.
+ */
+export async function savedLadderStudy(db: Db, networkId: number): Promise<{ study: SavedLadderStudy | null; unreadable: boolean }> {
+  const stored = await findLadderStudy(db, networkId);
+  if (!stored) return { study: null, unreadable: false };
+  const request = {
+    sectionBus: stored.sectionBus,
+    voltagesKV: stored.voltagesKV,
+    money: stored.money,
+    ...(stored.overrides ? { overrides: stored.overrides } : {}),
+  };
+  if (!ladderRequestSchema.safeParse(request).success) return { study: null, unreadable: true };
+  return {
+    study: { request: request as LadderRequest, networkRevision: stored.networkRevision, updatedAt: stored.updatedAt, updatedByName: stored.updatedByName },
+    unreadable: false,
+  };
+}
+
+/** Run the ladder and, when it runs, keep its inputs (defaults filled in) as the network's study. */
+export async function saveLadderStudy(db: Db, network: NetworkRow, userId: number, request: unknown): Promise<LadderRun> {
+  const run = await runLadderOnNetwork(db, network, request);
+  if (!run.ok) return run;
+  const parsed = ladderRequestSchema.parse(request);
+  await upsertLadderStudy(db, {
+    networkId: network.id,
+    sectionBus: parsed.sectionBus,
+    voltagesKV: parsed.voltagesKV,
+    overrides: parsed.overrides ?? null,
+    money: parsed.money,
+    networkRevision: network.current_revision,
+    userId,
+  });
+  return run;
+}
