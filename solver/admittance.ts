@@ -60,7 +60,7 @@ function branchTwoPorts(network: Network, busIndex: Map<string, number>): Branch
     const bs = -z.x / den;
     from[k] = f;
     to[k] = busIndex.get(line.toBus)!;
-    y.set([gs, bs + halfB, -gs, -bs, -gs, -bs, gs, bs + halfB], 8 * k);
+    writeTwoPort(y, k, gs, bs + halfB, -gs, -bs, -gs, -bs, gs, bs + halfB);
     k++;
   }
   for (const t of network.transformers) {
@@ -75,10 +75,33 @@ function branchTwoPorts(network: Network, busIndex: Map<string, number>): Branch
     from[k] = h;
     to[k] = l;
     const r2 = ratio * ratio;
-    y.set([gs / r2 + gCore, bs / r2, -gs / ratio, -bs / ratio, -gs / ratio, -bs / ratio, gs, bs], 8 * k);
+    writeTwoPort(y, k, gs / r2 + gCore, bs / r2, -gs / ratio, -bs / ratio, -gs / ratio, -bs / ratio, gs, bs);
     k++;
   }
   return { count, from, to, y };
+}
+
+function writeTwoPort(
+  y: Float64Array,
+  k: number,
+  gff: number,
+  bff: number,
+  gft: number,
+  bft: number,
+  gtf: number,
+  btf: number,
+  gtt: number,
+  btt: number,
+): void {
+  const q = 8 * k;
+  y[q] = gff;
+  y[q + 1] = bff;
+  y[q + 2] = gft;
+  y[q + 3] = bft;
+  y[q + 4] = gtf;
+  y[q + 5] = btf;
+  y[q + 6] = gtt;
+  y[q + 7] = btt;
 }
 
 function assemble(network: Network, busIndex: Map<string, number>, branches: BranchTwoPorts): AdmittanceMatrix {

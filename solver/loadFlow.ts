@@ -23,6 +23,10 @@ const REGULATING = 0;
 const AT_MAX = 1;
 const AT_MIN = -1;
 
+/** Below tolerance, a mismatch above this (pu) gets one more Newton step: it could still move a voltage by 1e-9 pu. */
+const POLISH_ABOVE_PU = 1e-11;
+/** Below tolerance, a summed active mismatch above this (MW) gets one more step: ten times inside the balance promised. */
+const BALANCE_MARGIN_MW = 1e-7;
 /** A mismatch this large (pu) means the iterations have run away. */
 const DIVERGED_MISMATCH_PU = 1e8;
 /** Bisection steps when estimating how much load a failing network could carry (about 1 % resolution). */
@@ -49,6 +53,8 @@ export interface LoadFlowModel {
   /** Load at 1 pu by voltage exponent 0, 1, 2 (pu). */
   pLoad: [Float64Array, Float64Array, Float64Array];
   qLoad: [Float64Array, Float64Array, Float64Array];
+  /** Bus index of each load, in the network's order. */
+  loadBus: Int32Array;
   /** Summed reactive limits of the PV sources at each bus (pu, ±Infinity when open). */
   qMinPu: Float64Array;
   qMaxPu: Float64Array;
@@ -77,6 +83,8 @@ interface Workspace {
   pCalc: Float64Array;
   qCalc: Float64Array;
   mismatch: Float64Array;
+  /** Σ|ΔP| over the non-slack buses at the last evaluation (pu): what could show in the MW balance. */
+  activeMismatchSumPu: number;
 }
 
 export interface NewtonOutcome {
@@ -125,8 +133,11 @@ export function buildLoadFlowModel(network: Network): LoadFlowModel {
 
   const pLoad: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
   const qLoad: [Float64Array, Float64Array, Float64Array] = [new Float64Array(n), new Float64Array(n), new Float64Array(n)];
-  for (const load of network.loads) {
+  const loadBus = new Int32Array(network.loads.length);
+  for (let m = 0; m < network.loads.length; m++) {
+    const load = network.loads[m];
     const i = busIndex.get(load.bus)!;
+    loadBus[m] = i;
     const k = loadVoltageExponent(load.model);
     pLoad[k][i] += load.pMW / base;
     qLoad[k][i] += load.qMvar / base;
@@ -158,9 +169,9 @@ export function buildLoadFlowModel(network: Network): LoadFlowModel {
   const entryIsUpper = new Uint8Array(nnz);
   for (let i = 0; i < n; i++) {
     for (let e = matrix.rowStart[i]; e < matrix.rowStart[i + 1]; e++) {
-      const where = factor.locate(i, matrix.neighbours[e]);
-      entrySlot[e] = where.slot;
-      entryIsUpper[e] = where.isUpper ? 1 : 0;
+      const j = matrix.neighbours[e];
+      entrySlot[e] = factor.slotOf(i, j);
+      entryIsUpper[e] = factor.isUpper(i, j) ? 1 : 0;
     }
   }
 
@@ -175,6 +186,7 @@ export function buildLoadFlowModel(network: Network): LoadFlowModel {
     qScheduled,
     pLoad,
     qLoad,
+    loadBus,
     qMinPu,
     qMaxPu,
     groupSlack,
@@ -222,6 +234,7 @@ function workspace(n: number): Workspace {
     pCalc: new Float64Array(n),
     qCalc: new Float64Array(n),
     mismatch: new Float64Array(2 * n),
+    activeMismatchSumPu: 0,
   };
 }
 
@@ -248,6 +261,7 @@ function evaluate(model: LoadFlowModel, state: LoadFlowState, w: Workspace, load
   }
   const { entrySlot, entryIsUpper } = model;
   let worst = 0;
+  let activeSum = 0;
   for (let i = 0; i < n; i++) {
     const ei = e[i];
     const fi = f[i];
@@ -294,6 +308,7 @@ function evaluate(model: LoadFlowModel, state: LoadFlowState, w: Workspace, load
     if (kindI !== SLACK) {
       // Written so that a NaN, once seen, stays the answer.
       const aP = Math.abs(dP);
+      activeSum += aP;
       if (aP > worst || aP !== aP) worst = aP;
       if (kindI === PQ) {
         const aQ = Math.abs(dQ);
@@ -323,10 +338,16 @@ function evaluate(model: LoadFlowModel, state: LoadFlowState, w: Workspace, load
       }
     }
   }
+  w.activeMismatchSumPu = activeSum;
   return worst;
 }
 
-/** Newton iterations from the given state (changed in place) until the mismatch is below tolerance. */
+/**
+ * Newton iterations from the given state (changed in place) until the mismatch is below tolerance.
+ * Once below it, one more step is taken while the mismatch could still show, in a bus voltage
+ * (above POLISH_ABOVE_PU) or in the MW balance (summed above BALANCE_MARGIN_MW): quadratic
+ * convergence then takes it to rounding level for the price of one step.
+ */
 function newton(
   model: LoadFlowModel,
   state: LoadFlowState,
@@ -334,19 +355,27 @@ function newton(
   loadScale: number,
   maxIterations: number,
   tolerance: number,
-  forceFirstStep = false,
 ): NewtonOutcome {
   const n = model.busCount;
   const { vm, va, kind } = state;
   const rhs = w.mismatch;
+  const base = model.network.baseMVA;
   let iterations = 0;
+  let polished = false;
   for (;;) {
     const worst = evaluate(model, state, w, loadScale, iterations < maxIterations);
     if (!Number.isFinite(worst) || worst > DIVERGED_MISMATCH_PU)
       return { converged: false, iterations, maxMismatchPu: worst, failure: "diverged" };
-    if (worst < tolerance && !(forceFirstStep && iterations === 0)) return { converged: true, iterations, maxMismatchPu: worst };
+    if (worst < tolerance) {
+      const couldShow = worst > POLISH_ABOVE_PU || w.activeMismatchSumPu * base > BALANCE_MARGIN_MW;
+      if (polished || !couldShow || iterations >= maxIterations) return { converged: true, iterations, maxMismatchPu: worst };
+      polished = true;
+    }
     if (iterations >= maxIterations) return { converged: false, iterations, maxMismatchPu: worst, failure: "iterations" };
-    if (!model.factor.factorise()) return { converged: false, iterations, maxMismatchPu: worst, failure: "singular" };
+    if (!model.factor.factorise()) {
+      if (polished) return { converged: true, iterations, maxMismatchPu: worst };
+      return { converged: false, iterations, maxMismatchPu: worst, failure: "singular" };
+    }
     for (let i = 0; i < n; i++) {
       const k = kind[i];
       rhs[2 * i] = k === SLACK ? 0 : -rhs[2 * i];
@@ -422,37 +451,10 @@ export function solveState(
     used += outcome.iterations;
     if (!outcome.converged) return { ...outcome, iterations: used };
     if (!enforceReactiveLimits(model, state, w, loadScale)) {
-      return { converged: true, iterations: used + polish(model, state, w, loadScale, maxIterations - used, tolerance), maxMismatchPu: outcome.maxMismatchPu };
+      return { converged: true, iterations: used, maxMismatchPu: outcome.maxMismatchPu };
     }
     if (used >= maxIterations) return { converged: false, iterations: used, maxMismatchPu: outcome.maxMismatchPu, failure: "limits" };
   }
-}
-
-/**
- * One more Newton step when the accepted mismatch, summed over the buses, could still show in the
- * MW balance: quadratic convergence takes it to rounding level. Kept only if it stays converged.
- */
-function polish(model: LoadFlowModel, state: LoadFlowState, w: Workspace, loadScale: number, budget: number, tolerance: number): number {
-  if (budget <= 0) return 0;
-  let total = 0;
-  for (let i = 0; i < model.busCount; i++) if (state.kind[i] !== SLACK) total += Math.abs(w.mismatch[2 * i]);
-  if (total * model.network.baseMVA < 1e-9) return 0;
-  const vm = state.vm.slice();
-  const va = state.va.slice();
-  const outcome = newton(model, state, w, loadScale, 1, tolerance, true);
-  evaluate(model, state, w, loadScale, false);
-  let after = 0;
-  let worst = 0;
-  for (let i = 0; i < model.busCount; i++) {
-    if (state.kind[i] === SLACK) continue;
-    after += Math.abs(w.mismatch[2 * i]);
-    worst = Math.max(worst, Math.abs(w.mismatch[2 * i]), state.kind[i] === PQ ? Math.abs(w.mismatch[2 * i + 1]) : 0);
-  }
-  if (after <= total && worst < tolerance) return outcome.iterations;
-  state.vm.set(vm);
-  state.va.set(va);
-  evaluate(model, state, w, loadScale, false);
-  return outcome.iterations;
 }
 
 /** Largest share of the load (0–1) the network still carries, by bisection on a common load scale. */
@@ -556,8 +558,9 @@ function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: num
     const qFrom = (f[fb] * ifRe - e[fb] * ifIm) * base;
     const pTo = (e[tb] * itRe + f[tb] * itIm) * base;
     const qTo = (f[tb] * itRe - e[tb] * itIm) * base;
-    const currentFromA = Math.hypot(ifRe, ifIm) * busCurrentBaseA(network.buses[fb], base);
-    const currentToA = Math.hypot(itRe, itIm) * busCurrentBaseA(network.buses[tb], base);
+    // Square roots written out: Math.hypot is several times slower and these run once per branch.
+    const currentFromA = Math.sqrt(ifRe * ifRe + ifIm * ifIm) * busCurrentBaseA(network.buses[fb], base);
+    const currentToA = Math.sqrt(itRe * itRe + itIm * itIm) * busCurrentBaseA(network.buses[tb], base);
     const currentA = Math.max(currentFromA, currentToA);
     lossMW += pFrom + pTo;
     const isLine = k < network.lines.length;
@@ -567,7 +570,7 @@ function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: num
       loadingPct = ampacity === undefined ? null : (currentA / ampacity) * 100;
     } else {
       const rated = network.transformers[k - network.lines.length].ratedMVA;
-      loadingPct = (Math.max(Math.hypot(pFrom, qFrom), Math.hypot(pTo, qTo)) / rated) * 100;
+      loadingPct = (Math.sqrt(Math.max(pFrom * pFrom + qFrom * qFrom, pTo * pTo + qTo * qTo)) / rated) * 100;
     }
     return {
       id: element.id,
@@ -592,8 +595,9 @@ function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: num
     injectedMW += Math.max(s.pMW, 0);
   }
   let loadMW = 0;
-  for (const load of network.loads) {
-    const v = vm[model.admittance.busIndex.get(load.bus)!];
+  for (let m = 0; m < network.loads.length; m++) {
+    const load = network.loads[m];
+    const v = vm[model.loadBus[m]];
     const p = load.pMW * v ** loadVoltageExponent(load.model);
     loadMW += p;
     injectedMW += Math.max(-p, 0);
@@ -664,11 +668,13 @@ function sourceReadings(model: LoadFlowModel, state: LoadFlowState, w: Workspace
 }
 
 function allFinite(result: LoadFlowResult): boolean {
-  const numbers: number[] = [];
-  for (const b of result.buses) numbers.push(b.vPu, b.vKV, b.angleDeg);
-  for (const b of result.branches) numbers.push(b.pFromMW, b.qFromMvar, b.pToMW, b.qToMvar, b.lossKW, b.currentA, b.loadingPct ?? 0);
-  for (const s of result.sources) numbers.push(s.pMW, s.qMvar);
+  const ok = Number.isFinite;
+  for (const b of result.buses) if (!(ok(b.vPu) && ok(b.vKV) && ok(b.angleDeg))) return false;
+  for (const b of result.branches) {
+    if (!(ok(b.pFromMW) && ok(b.qFromMvar) && ok(b.pToMW) && ok(b.qToMvar) && ok(b.lossKW) && ok(b.currentA))) return false;
+    if (b.loadingPct !== null && !ok(b.loadingPct)) return false;
+  }
+  for (const s of result.sources) if (!(ok(s.pMW) && ok(s.qMvar))) return false;
   const t = result.totals;
-  numbers.push(t.generationMW, t.loadMW, t.lossMW, t.lossPct);
-  return numbers.every(Number.isFinite);
+  return ok(t.generationMW) && ok(t.loadMW) && ok(t.lossMW) && ok(t.lossPct);
 }

@@ -328,12 +328,15 @@ export class BlockFactor {
     }
   }
 
-  /** Where block (row, column) of the original pattern lives: slot index and which array, or -1 for the diagonal. */
-  locate(row: number, column: number): { slot: number; isUpper: boolean } {
+  /** Slot of block (row, column) of the original pattern: stored with whichever is eliminated first. */
+  slotOf(row: number, column: number): number {
     const s = this.symbolic;
     const rowFirst = s.position[row] < s.position[column];
-    const owner = rowFirst ? row : column;
-    const other = rowFirst ? column : row;
-    return { slot: findSlot(s.slotStart, s.slotNode, s.position[owner], other), isUpper: rowFirst };
+    return findSlot(s.slotStart, s.slotNode, s.position[rowFirst ? row : column], rowFirst ? column : row);
+  }
+
+  /** True when block (row, column) lives in `upper` (the row is eliminated first), false for `lower`. */
+  isUpper(row: number, column: number): boolean {
+    return this.symbolic.position[row] < this.symbolic.position[column];
   }
 }

@@ -69,8 +69,7 @@ function factorOf(graph: Graph, dense: number[][]): BlockFactor {
     for (let a = 0; a < 2; a++) for (let b = 0; b < 2; b++) factor.diagonal[4 * i + 2 * a + b] = dense[2 * i + a][2 * i + b];
     for (let e = graph.rowStart[i]; e < graph.rowStart[i + 1]; e++) {
       const j = graph.neighbours[e];
-      const where = factor.locate(i, j);
-      put(where.isUpper ? factor.upper : factor.lower, where.slot, i, j);
+      put(factor.isUpper(i, j) ? factor.upper : factor.lower, factor.slotOf(i, j), i, j);
     }
   }
   return factor;
