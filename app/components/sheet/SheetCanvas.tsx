@@ -42,7 +42,8 @@ function sameNodeData(a: SheetNodeData, b: SheetNodeData): boolean {
     a.element === b.element &&
     a.width === b.width &&
     a.height === b.height &&
-    a.halfLength === b.halfLength &&
+    a.bar?.top === b.bar?.top &&
+    a.bar?.bottom === b.bar?.bottom &&
     sameShallow(a.sides, b.sides) &&
     sameShallow(a.terminalKV, b.terminalKV)
   );

@@ -43,6 +43,16 @@ export function SheetEditor({ networkId, document, revision, readOnly = false, l
   );
 }
 
+/**
+ * The sheet's pan and zoom keep the pointer from taking focus, so a Details field would stay
+ * focused (and the sheet's keys asleep) after a click on the sheet: leave the field, which
+ * commits what was typed.
+ */
+function commitFieldBeingTyped() {
+  const active = document.activeElement;
+  if (active instanceof HTMLElement && active.matches("input, select, textarea")) active.blur();
+}
+
 const snap = (p: XY): XY => ({ x: Math.round(p.x / GRID_PX) * GRID_PX, y: Math.round(p.y / GRID_PX) * GRID_PX });
 
 function EditorLayout({ library }: { library: EquipmentTypes }) {
@@ -143,7 +153,7 @@ function EditorLayout({ library }: { library: EquipmentTypes }) {
       <div className="ks-editor-main">
         {readOnly ? null : <PartsShelf onPlace={placeAtCentre} />}
         <div className="ks-centre">
-          <div className="ks-canvas" ref={canvasRef}>
+          <div className="ks-canvas" ref={canvasRef} onPointerDownCapture={commitFieldBeingTyped}>
             <SheetCanvas />
           </div>
           <ResultsTabs />

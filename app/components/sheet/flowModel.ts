@@ -39,7 +39,7 @@ const BUS_SPACING_PX = 240;
 const BAR_HIT_WIDTH_PX = 24;
 export const BAR_HALF_THICKNESS_PX = 3;
 const MIN_BAR_HALF_LENGTH_PX = 40;
-const ATTACHMENT_SLOT_PX = 100;
+const ATTACHMENT_SLOT_PX = 120;
 const ATTACHMENT_OFFSET_PX = 120;
 const TERMINAL_HANDLE_PX = 12;
 const DETOUR_PX = 14;
@@ -128,8 +128,8 @@ export function anchorOf(entry: ElementEntry, busCenters: Map<string, XY>): XY {
 /**
  * Default places beside a busbar: a source on its left, a load or shunt on its right, level with
  * the bar's centre when that spot is free. A spot is taken when a branch leaves the bar there or
- * another element hangs within one slot of it; then the element tries the other side, then
- * further up and down its own side. Elements the planner has placed keep their place, so placing
+ * another element hangs within one slot of it; then the element tries the other side, then a
+ * slot further down, then up, and so on. Elements the planner has placed keep their place, so placing
  * one never shifts the others.
  */
 function defaultOffsets(entries: Map<string, ElementEntry>, busCenters: Map<string, XY>, layout: SheetLayout): Map<string, XY> {
@@ -171,7 +171,7 @@ function defaultOffsets(entries: Map<string, ElementEntry>, busCenters: Map<stri
     const other: Side = preferred === "left" ? "right" : "left";
     placing: for (let k = 0; k < 64; k++) {
       const dy = k === 0 ? 0 : (k % 2 === 1 ? 1 : -1) * Math.ceil(k / 2) * ATTACHMENT_SLOT_PX;
-      for (const side of k === 0 ? [preferred, other] : [preferred]) {
+      for (const side of [preferred, other]) {
         if (!isFree(busId, side, bar.y + dy)) continue;
         offsets.set(id, { x: side === "left" ? -ATTACHMENT_OFFSET_PX : ATTACHMENT_OFFSET_PX, y: dy });
         occupy(busId, side, bar.y + dy);
@@ -191,12 +191,18 @@ export interface Wire {
   nominalKV: number;
 }
 
+export interface BarExtent {
+  top: number;
+  bottom: number;
+}
+
 export interface SheetGeometry {
   entries: Map<string, ElementEntry>;
   busCenters: Map<string, XY>;
   centers: Map<string, XY>;
   sides: Map<string, Partial<Record<TerminalId, Side>>>;
-  busHalfLengths: Map<string, number>;
+  /** Each busbar's drawn extent above (top, negative) and below (bottom) its centre. */
+  busExtents: Map<string, BarExtent>;
   wires: Wire[];
 }
 
@@ -249,7 +255,7 @@ export function sheetGeometry(doc: Network, layout: SheetLayout, overrides?: Rec
   }
 
   const wires: Wire[] = [];
-  const reach = new Map<string, number>();
+  const reach = new Map<string, { up: number; down: number }>();
   for (const [id, entry] of entries) {
     if (entry.kind === "bus") continue;
     for (const terminal of terminalsOf(entry.kind)) {
@@ -269,17 +275,20 @@ export function sheetGeometry(doc: Network, layout: SheetLayout, overrides?: Rec
         points = [start, { x: outX, y: start.y }, { x: outX, y: detourY }, { x: landX, y: detourY }];
       }
       const landY = points[points.length - 1].y;
-      reach.set(busId, Math.max(reach.get(busId) ?? 0, Math.abs(landY - bar.y)));
+      const seen = reach.get(busId) ?? { up: 0, down: 0 };
+      reach.set(busId, { up: Math.max(seen.up, bar.y - landY), down: Math.max(seen.down, landY - bar.y) });
       const bus = entries.get(busId)!.element as Bus;
       wires.push({ id: wireId(id, terminal), elementId: id, terminal, busId, points, nominalKV: bus.nominalKV });
     }
   }
-  const busHalfLengths = new Map<string, number>();
+  // A bar reaches every wire that lands on it, and always a little past its own centre.
+  const busExtents = new Map<string, BarExtent>();
+  const margin = (v: number) => Math.max(MIN_BAR_HALF_LENGTH_PX, Math.ceil((v + 16) / GRID_PX) * GRID_PX);
   for (const busId of busCenters.keys()) {
-    const needed = (reach.get(busId) ?? 0) + 16;
-    busHalfLengths.set(busId, Math.max(MIN_BAR_HALF_LENGTH_PX, Math.ceil(needed / GRID_PX) * GRID_PX));
+    const seen = reach.get(busId) ?? { up: 0, down: 0 };
+    busExtents.set(busId, { top: -margin(seen.up), bottom: margin(seen.down) });
   }
-  return { entries, busCenters, centers, sides, busHalfLengths, wires };
+  return { entries, busCenters, centers, sides, busExtents, wires };
 }
 
 export interface SheetNodeData extends Record<string, unknown> {
@@ -290,8 +299,8 @@ export interface SheetNodeData extends Record<string, unknown> {
   sides: Partial<Record<TerminalId, Side>>;
   /** Nominal kV of the bus each terminal is wired to; absent when not connected. */
   terminalKV: Partial<Record<TerminalId, number>>;
-  /** Busbars only: half the bar's length. */
-  halfLength?: number;
+  /** Busbars only: the drawn bar, relative to the node's centre (the node box is symmetric). */
+  bar?: BarExtent;
 }
 
 export type SheetNode = Node<SheetNodeData, ElementKind>;
@@ -343,12 +352,13 @@ export function documentToFlow(
     let handles: NonNullable<SheetNode["handles"]>;
     const terminalKV: Partial<Record<TerminalId, number>> = {};
     const sides = geometry.sides.get(id) ?? {};
-    let halfLength: number | undefined;
+    let bar: BarExtent | undefined;
     if (entry.kind === "bus") {
-      halfLength = geometry.busHalfLengths.get(id)!;
+      bar = geometry.busExtents.get(id)!;
+      const half = Math.max(-bar.top, bar.bottom);
       width = BAR_HIT_WIDTH_PX;
-      height = halfLength * 2;
-      handles = [{ id: "bar", type: "target", position: Position.Left, x: 0, y: 0, width, height }];
+      height = half * 2;
+      handles = [{ id: "bar", type: "target", position: Position.Left, x: 0, y: half + bar.top, width, height: bar.bottom - bar.top }];
     } else {
       ({ width, height } = partSizes[entry.kind]);
       handles = terminalsOf(entry.kind).map((terminal) => {
@@ -376,7 +386,7 @@ export function documentToFlow(
       handles,
       selected: selection.has(id),
       ariaLabel: describeElement(entry),
-      data: { kind: entry.kind, element: entry.element, width, height, sides, terminalKV, halfLength },
+      data: { kind: entry.kind, element: entry.element, width, height, sides, terminalKV, bar },
     });
   }
   const edges: WireEdge[] = geometry.wires.map((wire) => ({
@@ -397,9 +407,9 @@ export function documentToFlow(
 export function busAt(geometry: SheetGeometry, point: XY, tolerancePx = 24): string | undefined {
   let best: { id: string; distance: number } | undefined;
   for (const [id, center] of geometry.busCenters) {
-    const half = geometry.busHalfLengths.get(id)!;
+    const { top, bottom } = geometry.busExtents.get(id)!;
     const dx = Math.abs(point.x - center.x);
-    const dy = Math.max(0, Math.abs(point.y - center.y) - half);
+    const dy = Math.max(0, center.y + top - point.y, point.y - (center.y + bottom));
     const distance = Math.hypot(dx, dy);
     if (distance <= tolerancePx && (!best || distance < best.distance)) best = { id, distance };
   }

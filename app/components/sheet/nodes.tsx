@@ -65,48 +65,46 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.buses.get(id) : undefined));
   const fault = useSheet((s) => (s.solve.kind === "solved" && s.showFaults ? s.solve.readings.faults.get(id) : undefined));
   const stroke = strokeFor(bus.nominalKV);
-  const height = data.height;
+  const bar = data.bar ?? { top: -data.height / 2, bottom: data.height / 2 };
+  const barTopPx = data.height / 2 + bar.top;
+  const barLengthPx = bar.bottom - bar.top;
   const vStatus = reading ? voltageStatus(reading.vPu, bus.vMinPu, bus.vMaxPu) : undefined;
   const faultStatus = fault ? upperLimitStatus(Math.max(fault.ik3kA, fault.ik1kA), bus.breakingKA) : undefined;
   return (
-    <div className="ks-node ks-bus" style={{ width: data.width, height }}>
-      <div className="ks-node-label ks-bus-label">
-        <span className="ks-bus-name">{bus.name}</span>
-        <span className="ks-bus-kv">{bus.nominalKV} kV</span>
+    <div className="ks-node ks-bus" style={{ width: data.width, height: data.height }}>
+      <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
+        <div className="ks-node-label ks-bus-label">
+          <span className="ks-bus-name">{bus.name}</span>
+          <span className="ks-bus-kv">{bus.nominalKV} kV</span>
+        </div>
+        <div className="ks-bar" style={{ background: stroke.colour, width: Math.max(5, stroke.strokePx + 3) }} aria-hidden="true" />
+        <Handle
+          type="target"
+          id="bar"
+          position={Position.Left}
+          isConnectableStart={false}
+          className={`ks-bar-handle${connecting ? " ks-bar-handle-live" : ""}`}
+        />
+        {reading || fault ? (
+          <ReadingBlock>
+            {reading ? (
+              <>
+                <div className={vStatus ? statusCue[vStatus].className : undefined}>
+                  {fixed(reading.vKV, 2)} kV <StatusMark status={vStatus} />
+                </div>
+                <div>
+                  {fixed(reading.vPu, 3)} pu ∠ {fixed(reading.angleDeg, 1)}°
+                </div>
+              </>
+            ) : null}
+            {fault ? (
+              <div className={`ks-fault ${faultStatus ? statusCue[faultStatus].className : ""}`}>
+                Ik3 {fixed(fault.ik3kA, 2)} · Ik1 {fixed(fault.ik1kA, 2)} kA <StatusMark status={faultStatus} />
+              </div>
+            ) : null}
+          </ReadingBlock>
+        ) : null}
       </div>
-      <div
-        className="ks-bar"
-        style={{ background: stroke.colour, width: Math.max(5, stroke.strokePx + 3), height }}
-        aria-hidden="true"
-      />
-      <Handle
-        type="target"
-        id="bar"
-        position={Position.Left}
-        isConnectableStart={false}
-        className={`ks-bar-handle${connecting ? " ks-bar-handle-live" : ""}`}
-      />
-      {reading ? (
-        <ReadingBlock>
-          <div className={vStatus ? statusCue[vStatus].className : undefined}>
-            {fixed(reading.vKV, 2)} kV <StatusMark status={vStatus} />
-          </div>
-          <div>
-            {fixed(reading.vPu, 3)} pu ∠ {fixed(reading.angleDeg, 1)}°
-          </div>
-          {fault ? (
-            <div className={`ks-fault ${faultStatus ? statusCue[faultStatus].className : ""}`}>
-              Ik3 {fixed(fault.ik3kA, 2)} · Ik1 {fixed(fault.ik1kA, 2)} kA <StatusMark status={faultStatus} />
-            </div>
-          ) : null}
-        </ReadingBlock>
-      ) : fault ? (
-        <ReadingBlock>
-          <div className={`ks-fault ${faultStatus ? statusCue[faultStatus].className : ""}`}>
-            Ik3 {fixed(fault.ik3kA, 2)} · Ik1 {fixed(fault.ik1kA, 2)} kA <StatusMark status={faultStatus} />
-          </div>
-        </ReadingBlock>
-      ) : null}
     </div>
   );
 }

@@ -21,7 +21,11 @@ export const shortcuts: Shortcut[] = [
   { keys: "Ctrl+A", does: "Select everything" },
   { keys: "Esc", does: "Clear the selection, close this help" },
   { keys: "Arrow keys", does: `Move the selection one grid step (${GRID_PX} px); with Shift, five`, edits: true },
-  ...partKinds.map((part, i) => ({ keys: String(i + 1), does: `Place a ${partNames[part].toLowerCase()} in the middle of the view`, edits: true })),
+  {
+    keys: `1 to ${partKinds.length}`,
+    does: `Place a part in the middle of the view: ${partKinds.map((part, i) => `${i + 1} ${partNames[part].toLowerCase()}`).join(", ")}`,
+    edits: true,
+  },
   { keys: "Shift+L", does: "Lay the chain out left to right", edits: true },
   { keys: "F", does: "Fit the drawing to the view" },
   { keys: "R", does: "Show or hide Readings" },
@@ -45,9 +49,10 @@ export function useSheetShortcuts(store: SheetStore, root: React.RefObject<HTMLE
   useEffect(() => {
     const onKey = (event: KeyboardEvent) => {
       if (event.defaultPrevented || typingInto(event.target)) return;
-      // Keys belong to this editor when focus is inside it or on the page itself.
-      const inside = root.current?.contains(event.target as Node) || event.target === document.body;
-      if (!inside) return;
+      // Keys belong to this editor when focus is inside it, or on the page around it (body, main).
+      const editor = root.current;
+      const target = event.target as Node;
+      if (!editor || !(editor.contains(target) || target.contains(editor))) return;
       const state = store.getState();
       const { actions, readOnly } = state;
       const mod = event.ctrlKey || event.metaKey;
