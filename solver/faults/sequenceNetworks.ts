@@ -38,7 +38,7 @@ import {
   transformerCorrectionKT,
   voltageFactorCMax,
 } from "./iecFactors.ts";
-import type { NodalNetwork } from "./nodalNetwork.ts";
+import { NodalNetworkBuilder, type NodalNetwork } from "./nodalNetwork.ts";
 import { parseVectorGroup, VectorGroupError, zeroSequenceCoupling, type VectorGroup } from "./vectorGroup.ts";
 
 export const DEFAULT_GRID_Z0_OVER_Z1 = 1;
@@ -134,7 +134,7 @@ function vectorGroupReader(): (t: Transformer) => VectorGroup {
 
 /** Places a transformer's zero-sequence impedance as its vector group allows. */
 function addTransformerZeroSequence(
-  zero: NodalNetwork,
+  zero: NodalNetworkBuilder,
   t: Transformer,
   group: VectorGroup,
   hv: number,
@@ -147,13 +147,13 @@ function addTransformerZeroSequence(
   // Seen from the HV terminals an impedance on the LV side of the ideal t:1 is t² larger.
   const shuntAt = (side: "hv" | "lv") => {
     const z = scale(model.zLvSide, z0OverZ1(side) * (side === "hv" ? model.ratio ** 2 : 1));
-    zero.shunts.push({ node: side === "hv" ? hv : lv, zRe: z.re, zIm: z.im });
+    zero.shunt(side === "hv" ? hv : lv, z.re, z.im);
   };
   const coupling = zeroSequenceCoupling(group);
   switch (coupling.kind) {
     case "series": {
       const z = scale(model.zLvSide, z0OverZ1("lv"));
-      zero.branches.push({ from: hv, to: lv, zRe: z.re, zIm: z.im, ratioFrom: model.ratio });
+      zero.branch(hv, lv, z.re, z.im, model.ratio);
       break;
     }
     case "shunt":
@@ -177,8 +177,9 @@ export function buildSequenceNetworks(network: Network): SequenceNetworks {
     if (i === undefined) throw new FaultModelError(`${kind} "${elementId}" refers to bus "${busId}", which does not exist`);
     return i;
   };
-  const positive: NodalNetwork = { nodeCount: buses.length, branches: [], shunts: [] };
-  const zero: NodalNetwork = { nodeCount: buses.length, branches: [], shunts: [] };
+  const branchCount = network.lines.length + network.transformers.length;
+  const positive = new NodalNetworkBuilder(buses.length, branchCount, network.sources.length);
+  const zero = new NodalNetworkBuilder(buses.length, branchCount, network.sources.length + 2 * network.transformers.length);
 
   for (const line of network.lines) {
     const from = busIndex(line.fromBus, "line", line.id);
@@ -187,8 +188,8 @@ export function buildSequenceNetworks(network: Network): SequenceNetworks {
     const ohmToPu = line.lengthKm / impedanceBaseOhm(buses[from].nominalKV, baseMVA);
     const r0 = (line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm) * ohmToPu;
     const x0 = (line.x0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.xOhmPerKm) * ohmToPu;
-    positive.branches.push({ from, to, zRe: z1.r, zIm: z1.x, ratioFrom: 1 });
-    zero.branches.push({ from, to, zRe: r0, zIm: x0, ratioFrom: 1 });
+    positive.branch(from, to, z1.r, z1.x);
+    zero.branch(from, to, r0, x0);
   }
 
   const vectorGroupOf = vectorGroupReader();
@@ -196,7 +197,7 @@ export function buildSequenceNetworks(network: Network): SequenceNetworks {
     const hv = busIndex(t.hvBus, "transformer", t.id);
     const lv = busIndex(t.lvBus, "transformer", t.id);
     const model = transformerModel(t, buses[hv], buses[lv], baseMVA);
-    positive.branches.push({ from: hv, to: lv, zRe: model.zLvSide.re, zIm: model.zLvSide.im, ratioFrom: model.ratio });
+    positive.branch(hv, lv, model.zLvSide.re, model.zLvSide.im, model.ratio);
     addTransformerZeroSequence(zero, t, vectorGroupOf(t), hv, lv, model);
   }
 
@@ -207,15 +208,20 @@ export function buildSequenceNetworks(network: Network): SequenceNetworks {
         throw new FaultModelError(`grid infeed "${source.id}" has no shortCircuitMVA`);
       const zQ = gridImpedancePu(source, buses[k], baseMVA);
       const z0 = scale(zQ, source.z0OverZ1 ?? DEFAULT_GRID_Z0_OVER_Z1);
-      positive.shunts.push({ node: k, zRe: zQ.re, zIm: zQ.im });
-      zero.shunts.push({ node: k, zRe: z0.re, zIm: z0.im });
+      positive.shunt(k, zQ.re, zQ.im);
+      zero.shunt(k, z0.re, z0.im);
     } else {
       if (source.ratedMVA === undefined || source.xdSubtransientPct === undefined)
         throw new FaultModelError(`generator "${source.id}" needs ratedMVA and xdSubtransientPct`);
       const zG = generatorImpedancePu(source, buses[k], baseMVA);
-      positive.shunts.push({ node: k, zRe: zG.re, zIm: zG.im });
+      positive.shunt(k, zG.re, zG.im);
     }
   }
 
-  return { buses, cMax: Float64Array.from(buses, (b) => voltageFactorCMax(b.nominalKV)), positive, zero };
+  return {
+    buses,
+    cMax: Float64Array.from(buses, (b) => voltageFactorCMax(b.nominalKV)),
+    positive: positive.build(),
+    zero: zero.build(),
+  };
 }

@@ -89,12 +89,25 @@ interface Entry {
 export function drivingPointImpedances(network: NodalNetwork): DrivingPointImpedances {
   const n = network.nodeCount;
 
+  const {
+    branchCount,
+    branchFrom,
+    branchTo,
+    branchZRe,
+    branchZIm,
+    branchRatio,
+    shuntCount,
+    shuntNode,
+    shuntZRe,
+    shuntZIm,
+  } = network;
+
   // A branch of zero impedance makes its two ends one node.
   const merged = new DisjointSets(n);
-  for (const b of network.branches)
-    if (b.zRe === 0 && b.zIm === 0) {
-      if (b.ratioFrom !== 1) throw new Error(`a branch from node ${b.from} has a ratio but no impedance`);
-      merged.join(b.from, b.to);
+  for (let b = 0; b < branchCount; b++)
+    if (branchZRe[b] === 0 && branchZIm[b] === 0) {
+      if (branchRatio[b] !== 1) throw new Error(`a branch from node ${branchFrom[b]} has a ratio but no impedance`);
+      merged.join(branchFrom[b], branchTo[b]);
     }
   const node = new Int32Array(n);
   for (let k = 0; k < n; k++) node[k] = merged.find(k);
@@ -105,27 +118,31 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
   const diagIm = new Float64Array(n);
   const degree = new Int32Array(n);
   const connected = new DisjointSets(n);
-  const edgeFrom: number[] = [];
-  const edgeTo: number[] = [];
-  const edgeRe: number[] = [];
-  const edgeIm: number[] = [];
-  for (const b of network.branches) {
-    if (b.zRe === 0 && b.zIm === 0) continue;
-    const f = node[b.from];
-    const t = node[b.to];
-    const mag2 = b.zRe * b.zRe + b.zIm * b.zIm;
-    const yRe = b.zRe / mag2;
-    const yIm = -b.zIm / mag2;
-    const r = b.ratioFrom;
+  const edgeFrom = new Int32Array(branchCount);
+  const edgeTo = new Int32Array(branchCount);
+  const offRe = new Float64Array(branchCount);
+  const offIm = new Float64Array(branchCount);
+  let edgeCount = 0;
+  for (let b = 0; b < branchCount; b++) {
+    const zRe = branchZRe[b];
+    const zIm = branchZIm[b];
+    if (zRe === 0 && zIm === 0) continue;
+    const f = node[branchFrom[b]];
+    const t = node[branchTo[b]];
+    const mag2 = zRe * zRe + zIm * zIm;
+    const yRe = zRe / mag2;
+    const yIm = -zIm / mag2;
+    const r = branchRatio[b];
     diagRe[t] += yRe;
     diagIm[t] += yIm;
     diagRe[f] += yRe / (r * r);
     diagIm[f] += yIm / (r * r);
     if (f === t) continue;
-    edgeFrom.push(f);
-    edgeTo.push(t);
-    edgeRe.push(-yRe / r);
-    edgeIm.push(-yIm / r);
+    edgeFrom[edgeCount] = f;
+    edgeTo[edgeCount] = t;
+    offRe[edgeCount] = -yRe / r;
+    offIm[edgeCount] = -yIm / r;
+    edgeCount++;
     degree[f]++;
     degree[t]++;
     connected.join(f, t);
@@ -135,7 +152,7 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
   const fillAt = rowStart.slice(0, n);
   const slotNode = new Int32Array(rowStart[n]);
   const slotEdge = new Int32Array(rowStart[n]);
-  for (let e = 0; e < edgeFrom.length; e++) {
+  for (let e = 0; e < edgeCount; e++) {
     slotNode[fillAt[edgeFrom[e]]] = edgeTo[e];
     slotEdge[fillAt[edgeFrom[e]]++] = e;
     slotNode[fillAt[edgeTo[e]]] = edgeFrom[e];
@@ -143,12 +160,14 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
   }
 
   const earthedGroup = new Uint8Array(n);
-  for (const s of network.shunts) {
-    const k = node[s.node];
-    const mag2 = s.zRe * s.zRe + s.zIm * s.zIm;
-    if (mag2 === 0) throw new Error(`a shunt at node ${s.node} has no impedance`);
-    diagRe[k] += s.zRe / mag2;
-    diagIm[k] += -s.zIm / mag2;
+  for (let s = 0; s < shuntCount; s++) {
+    const k = node[shuntNode[s]];
+    const zRe = shuntZRe[s];
+    const zIm = shuntZIm[s];
+    const mag2 = zRe * zRe + zIm * zIm;
+    if (mag2 === 0) throw new Error(`a shunt at node ${shuntNode[s]} has no impedance`);
+    diagRe[k] += zRe / mag2;
+    diagIm[k] += -zIm / mag2;
     earthedGroup[connected.find(k)] = 1;
   }
 
@@ -188,8 +207,6 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
   // Phase 1: peel leaves (one remaining branch slot; parallel branches wait for phase 2).
   // A leaf's only remaining neighbour u takes a_uu −= a_uv²/d_v.
   const remaining = degree.slice();
-  const offRe = Float64Array.from(edgeRe);
-  const offIm = Float64Array.from(edgeIm);
   const leaves: number[] = [];
   for (let k = 0; k < n; k++) if (active[k] && remaining[k] <= 1) leaves.push(k);
   for (let head = 0; head < leaves.length; head++) {

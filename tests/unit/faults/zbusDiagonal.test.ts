@@ -3,12 +3,26 @@
 // groups with no path to the reference.
 import { add, complex, divide, inv, zeros, type Complex, type Matrix } from "mathjs";
 import { describe, expect, it } from "vitest";
-import type { NodalNetwork } from "#solver/faults/nodalNetwork.ts";
+import { NodalNetworkBuilder, type NodalNetwork } from "#solver/faults/nodalNetwork.ts";
 import { drivingPointImpedances } from "#solver/faults/zbusDiagonal.ts";
 import { seededRandom } from "./randomNetworks.ts";
 
+/** A network written out branch by branch, as the tests state it. */
+interface Description {
+  nodeCount: number;
+  branches: { from: number; to: number; zRe: number; zIm: number; ratioFrom: number }[];
+  shunts: { node: number; zRe: number; zIm: number }[];
+}
+
+function nodal(d: Description): NodalNetwork {
+  const builder = new NodalNetworkBuilder(d.nodeCount, d.branches.length, d.shunts.length);
+  for (const b of d.branches) builder.branch(b.from, b.to, b.zRe, b.zIm, b.ratioFrom);
+  for (const s of d.shunts) builder.shunt(s.node, s.zRe, s.zIm);
+  return builder.build();
+}
+
 /** Dense reference: stamp Y with mathjs complex numbers and invert; merged nodes by hand. */
-function denseDiagonal(net: NodalNetwork, nodes: number[]): Complex[] {
+function denseDiagonal(net: Description, nodes: number[]): Complex[] {
   const at = new Map(nodes.map((n, i) => [n, i]));
   const Y = zeros(nodes.length, nodes.length, "dense") as Matrix;
   const stamp = (i: number, j: number, v: Complex) => Y.set([i, j], add(complex(Y.get([i, j]) as Complex), v));
@@ -26,9 +40,9 @@ function denseDiagonal(net: NodalNetwork, nodes: number[]): Complex[] {
   return nodes.map((_, i) => complex(Z.get([i, i]) as Complex));
 }
 
-function randomMesh(seed: number, nodeCount: number, extraBranches: number): NodalNetwork {
+function randomMesh(seed: number, nodeCount: number, extraBranches: number): Description {
   const rnd = seededRandom(seed);
-  const net: NodalNetwork = { nodeCount, branches: [], shunts: [] };
+  const net: Description = { nodeCount, branches: [], shunts: [] };
   const branch = (from: number, to: number) =>
     net.branches.push({
       from,
@@ -52,11 +66,13 @@ function randomMesh(seed: number, nodeCount: number, extraBranches: number): Nod
 describe("drivingPointImpedances", () => {
   it("a two-node example worked by hand: Z_11 = z_s + z_b/t² seen from the far end", () => {
     // Shunt j0.1 at node 0, ideal 1.05:1 then j0.2 to node 1: from node 1, j0.1/1.05² + j0.2.
-    const z = drivingPointImpedances({
-      nodeCount: 2,
-      branches: [{ from: 0, to: 1, zRe: 0, zIm: 0.2, ratioFrom: 1.05 }],
-      shunts: [{ node: 0, zRe: 0, zIm: 0.1 }],
-    });
+    const z = drivingPointImpedances(
+      nodal({
+        nodeCount: 2,
+        branches: [{ from: 0, to: 1, zRe: 0, zIm: 0.2, ratioFrom: 1.05 }],
+        shunts: [{ node: 0, zRe: 0, zIm: 0.1 }],
+      }),
+    );
     expect(z.zIm[0]).toBeCloseTo(0.1, 14);
     expect(z.zIm[1]).toBeCloseTo(0.1 / 1.05 ** 2 + 0.2, 14);
     expect(z.zRe[1]).toBeCloseTo(0, 14);
@@ -65,7 +81,7 @@ describe("drivingPointImpedances", () => {
   it("agrees with mathjs's dense inverse to 1e-10 on random meshes with off-nominal ratios", () => {
     for (let seed = 1; seed <= 60; seed++) {
       const net = randomMesh(seed, 5 + (seed % 30), seed % 12);
-      const got = drivingPointImpedances(net);
+      const got = drivingPointImpedances(nodal(net));
       const want = denseDiagonal(net, [...Array(net.nodeCount).keys()]);
       want.forEach((w, k) => {
         expect(got.reachesReference[k]).toBe(1);
@@ -76,7 +92,7 @@ describe("drivingPointImpedances", () => {
   });
 
   it("merges nodes joined by a zero impedance and leaves groups without a reference unbounded", () => {
-    const net: NodalNetwork = {
+    const net: Description = {
       nodeCount: 6,
       branches: [
         { from: 0, to: 1, zRe: 0.01, zIm: 0.1, ratioFrom: 1 },
@@ -86,8 +102,8 @@ describe("drivingPointImpedances", () => {
       ],
       shunts: [{ node: 0, zRe: 0.001, zIm: 0.02 }],
     };
-    const got = drivingPointImpedances(net);
-    const merged: NodalNetwork = {
+    const got = drivingPointImpedances(nodal(net));
+    const merged: Description = {
       nodeCount: 3,
       branches: [
         { from: 0, to: 1, zRe: 0.01, zIm: 0.1, ratioFrom: 1 },
@@ -106,10 +122,10 @@ describe("drivingPointImpedances", () => {
   it("a radial network is eliminated without fill: 10,000 nodes well within a second", () => {
     const n = 10_000;
     const rnd = seededRandom(7);
-    const net: NodalNetwork = { nodeCount: n, branches: [], shunts: [{ node: 0, zRe: 0.001, zIm: 0.01 }] };
+    const net: Description = { nodeCount: n, branches: [], shunts: [{ node: 0, zRe: 0.001, zIm: 0.01 }] };
     for (let k = 1; k < n; k++) net.branches.push({ from: Math.max(0, k - 1 - Math.floor(rnd() * 3)), to: k, zRe: 0.001, zIm: 0.002, ratioFrom: 1 });
     const started = performance.now();
-    const z = drivingPointImpedances(net);
+    const z = drivingPointImpedances(nodal(net));
     expect(performance.now() - started).toBeLessThan(1000);
     expect(z.reachesReference.every((v) => v === 1)).toBe(true);
     // Along any path the driving-point impedance only grows (series sum in a tree).
