@@ -7,14 +7,16 @@ const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
 export const CROSS_ORIGIN_MESSAGE =
   "This request came from another site's page, so it was refused. Submit the form from Kilostep itself.";
 
-/** The host the client addressed; a trusted proxy in front passes it on as X-Forwarded-Host. */
-function requestHost(request: Request, trustProxy: boolean): string {
-  const forwarded = trustProxy ? request.headers.get("X-Forwarded-Host")?.split(",")[0]?.trim() : undefined;
-  return (forwarded || request.headers.get("Host") || new URL(request.url).host).toLowerCase();
+/**
+ * The host the client addressed. A reverse proxy in front must pass the Host header on unchanged
+ * (X-Forwarded-Host is not believed: anyone can send it).
+ */
+function requestHost(request: Request): string {
+  return (request.headers.get("Host") || new URL(request.url).host).toLowerCase();
 }
 
 /** True when the request changes something and a browser tells us it came from elsewhere. */
-export function isCrossOriginWrite(request: Request, options: { trustProxy?: boolean } = {}): boolean {
+export function isCrossOriginWrite(request: Request): boolean {
   if (SAFE_METHODS.has(request.method.toUpperCase())) return false;
   const fetchSite = request.headers.get("Sec-Fetch-Site");
   if (fetchSite === "cross-site" || fetchSite === "same-site") return true;
@@ -27,5 +29,5 @@ export function isCrossOriginWrite(request: Request, options: { trustProxy?: boo
   } catch {
     return true;
   }
-  return originHost !== requestHost(request, options.trustProxy ?? false);
+  return originHost !== requestHost(request);
 }
