@@ -216,7 +216,3 @@ export async function purgeExpiredDeletions(db: Db, now = new Date()): Promise<n
     .executeTakeFirst();
   return Number(result.numDeletedRows);
 }
-
-export function isWithinRestoreWindow(deletedAt: string, now = new Date()): boolean {
-  return deletedAt > restoreCutoff(now);
-}

@@ -10,10 +10,6 @@ export async function findUserByEmail(db: Db, email: string): Promise<User | und
   return db.selectFrom("users").selectAll().where("email", "=", normalizeEmail(email)).executeTakeFirst();
 }
 
-export async function findUserById(db: Db, id: number): Promise<User | undefined> {
-  return db.selectFrom("users").selectAll().where("id", "=", id).executeTakeFirst();
-}
-
 export async function insertUser(
   db: Db,
   user: { email: string; name: string; passwordHash: string },

@@ -40,8 +40,11 @@ export function AppShell({ user, children }: { user: ShellUser | null; children:
                 </NavLink>
                 <span className="flex-1" />
                 <NavLink to="/account" className={navLinkClass}>
-                  <span className="sr-only">Account: </span>
-                  {user.name}
+                  <span className="sm:hidden">Account</span>
+                  <span className="hidden sm:inline">
+                    <span className="sr-only">Account: </span>
+                    {user.name}
+                  </span>
                 </NavLink>
                 <Form method="post" action="/sign-out">
                   <button type="submit" className="btn btn-small ml-1">

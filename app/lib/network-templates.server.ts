@@ -5,7 +5,7 @@ import tarnHeadCalderFlats from "../../tests/fixtures/tarn-head-calder-flats.jso
 import { validateNetwork, type Network, type NetworkInput } from "#solver/schema.ts";
 
 /** The smallest document that validates: one busbar fed by a grid infeed that is the slack. */
-export function blankNetwork(name: string): NetworkInput {
+function blankNetwork(name: string): NetworkInput {
   return {
     format: "kilostep.network",
     version: 1,

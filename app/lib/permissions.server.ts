@@ -59,7 +59,7 @@ export async function roleOnTeam(db: Db, actor: Actor, teamId: number): Promise<
   return (await findRole(db, teamId, actor.userId)) ?? null;
 }
 
-export async function roleOnNetwork(db: Db, actor: Actor, network: Pick<NetworkRow, "team_id">): Promise<TeamRole | null> {
+async function roleOnNetwork(db: Db, actor: Actor, network: Pick<NetworkRow, "team_id">): Promise<TeamRole | null> {
   return roleOnTeam(db, actor, network.team_id);
 }
 

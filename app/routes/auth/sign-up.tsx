@@ -1,7 +1,6 @@
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/sign-up";
 import { FormField } from "#app/components/FormField.tsx";
-import { Notice } from "#app/components/Notice.tsx";
 import { redirectIfSignedIn } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields, MIN_PASSWORD_LENGTH, signUpSchema } from "#app/lib/forms.ts";
@@ -58,7 +57,6 @@ export default function SignUp({ loaderData, actionData }: Route.ComponentProps)
         <p className="mt-1 text-ink-soft">You get a team of your own at once; invite colleagues to it later.</p>
         <Form method="post" className="mt-6 space-y-4" noValidate>
           <input type="hidden" name="redirectTo" value={loaderData.redirectTo} />
-          {errors.form ? <Notice tone="error">{errors.form}</Notice> : null}
           <FormField label="Name" name="name" autoComplete="name" required error={errors.name} />
           <FormField label="E-mail" name="email" type="email" autoComplete="email" required error={errors.email} />
           <FormField
