@@ -133,11 +133,17 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
     const yRe = zRe / mag2;
     const yIm = -zIm / mag2;
     const r = branchRatio[b];
+    if (f === t) {
+      // Both ends in one merged node: y/r² + y − 2y/r, nothing for a plain line.
+      const loop = (1 - 1 / r) ** 2;
+      diagRe[f] += yRe * loop;
+      diagIm[f] += yIm * loop;
+      continue;
+    }
     diagRe[t] += yRe;
     diagIm[t] += yIm;
     diagRe[f] += yRe / (r * r);
     diagIm[f] += yIm / (r * r);
-    if (f === t) continue;
     edgeFrom[edgeCount] = f;
     edgeTo[edgeCount] = t;
     offRe[edgeCount] = -yRe / r;

@@ -99,6 +99,8 @@ describe("drivingPointImpedances", () => {
         { from: 1, to: 2, zRe: 0, zIm: 0, ratioFrom: 1 },
         { from: 2, to: 3, zRe: 0.02, zIm: 0.05, ratioFrom: 1 },
         { from: 4, to: 5, zRe: 0.02, zIm: 0.05, ratioFrom: 1 },
+        // In parallel with the solid link: carries nothing, changes nothing.
+        { from: 1, to: 2, zRe: 0.03, zIm: 0.07, ratioFrom: 1 },
       ],
       shunts: [{ node: 0, zRe: 0.001, zIm: 0.02 }],
     };
