@@ -111,17 +111,17 @@ function assemble(network: Network, busIndex: Map<string, number>, branches: Bra
   const diagonalB = new Float64Array(n);
   for (const shunt of network.shunts) diagonalB[busIndex.get(shunt.bus)!] += shuntSusceptancePu(shunt, network.baseMVA);
 
-  // Count each branch once per end, then merge parallel branches into one neighbour entry.
-  const rawStart = new Int32Array(n + 1);
+  // Count each branch once per end, fill the rows, then merge parallel branches in place.
+  const rowStart = new Int32Array(n + 1);
   for (let k = 0; k < count; k++) {
-    rawStart[from[k] + 1]++;
-    rawStart[to[k] + 1]++;
+    rowStart[from[k] + 1]++;
+    rowStart[to[k] + 1]++;
   }
-  for (let i = 0; i < n; i++) rawStart[i + 1] += rawStart[i];
-  const fillAt = rawStart.slice(0, n);
-  const rawNeighbour = new Int32Array(2 * count);
-  const rawG = new Float64Array(2 * count);
-  const rawB = new Float64Array(2 * count);
+  for (let i = 0; i < n; i++) rowStart[i + 1] += rowStart[i];
+  const fillAt = rowStart.slice(0, n);
+  const neighbours = new Int32Array(2 * count);
+  const g = new Float64Array(2 * count);
+  const b = new Float64Array(2 * count);
   for (let k = 0; k < count; k++) {
     const f = from[k];
     const t = to[k];
@@ -131,37 +131,36 @@ function assemble(network: Network, busIndex: Map<string, number>, branches: Bra
     diagonalG[t] += y[q + 6];
     diagonalB[t] += y[q + 7];
     let e = fillAt[f]++;
-    rawNeighbour[e] = t;
-    rawG[e] = y[q + 2];
-    rawB[e] = y[q + 3];
+    neighbours[e] = t;
+    g[e] = y[q + 2];
+    b[e] = y[q + 3];
     e = fillAt[t]++;
-    rawNeighbour[e] = f;
-    rawG[e] = y[q + 4];
-    rawB[e] = y[q + 5];
+    neighbours[e] = f;
+    g[e] = y[q + 4];
+    b[e] = y[q + 5];
   }
 
-  const rowStart = new Int32Array(n + 1);
-  const neighbours = new Int32Array(2 * count);
-  const g = new Float64Array(2 * count);
-  const b = new Float64Array(2 * count);
-  const slotOf = new Int32Array(n).fill(-1);
+  // fillAt is free again: it now marks where each neighbour sits in the row being compacted.
+  const seenAt = fillAt.fill(-1);
   let out = 0;
   for (let i = 0; i < n; i++) {
-    rowStart[i] = out;
-    for (let e = rawStart[i]; e < rawStart[i + 1]; e++) {
-      const j = rawNeighbour[e];
-      const existing = slotOf[j];
-      if (existing >= rowStart[i]) {
-        g[existing] += rawG[e];
-        b[existing] += rawB[e];
+    const first = out;
+    const end = rowStart[i + 1];
+    for (let e = rowStart[i]; e < end; e++) {
+      const j = neighbours[e];
+      const existing = seenAt[j];
+      if (existing >= first) {
+        g[existing] += g[e];
+        b[existing] += b[e];
       } else {
-        slotOf[j] = out;
+        seenAt[j] = out;
         neighbours[out] = j;
-        g[out] = rawG[e];
-        b[out] = rawB[e];
+        g[out] = g[e];
+        b[out] = b[e];
         out++;
       }
     }
+    rowStart[i] = first;
   }
   rowStart[n] = out;
   return {

@@ -46,10 +46,8 @@ export function describeCollapse(network: Network, busIndex: Map<string, number>
   const totalMW = fed.reduce((sum, l) => sum + l.pMW, 0);
   const named = fed.slice(0, NAMED_LOADS).map((l) => `${l.name} (${formatMW(l.pMW)} MW)`);
   const others = fed.length - named.length;
-  const loadsText =
-    others > 0
-      ? `${named.join(", ")} and ${others} other load${others > 1 ? "s" : ""}, ${formatMW(totalMW)} MW in all,`
-      : `${joinWords(named)}${fed.length > 1 ? `, ${formatMW(totalMW)} MW in all,` : ""}`;
+  const loadsText = others > 0 ? `${named.join(", ")} and ${others} other load${others > 1 ? "s" : ""}` : joinWords(named);
+  const totalText = fed.length > 1 ? `, ${formatMW(totalMW)} MW in all` : "";
   const slackSource = network.sources.find((s) => s.control === "slack" && busIndex.get(s.bus) === slackBus);
   const sourceText = slackSource ? slackSource.name : network.buses[slackBus].name;
   const chainText = describeChain(chainBranches);
@@ -58,15 +56,15 @@ export function describeCollapse(network: Network, busIndex: Map<string, number>
 
   if (pct >= 99) {
     return (
-      `The load flow did not settle in ${facts.maxIterations} iterations: ${loadsText} fed from ${sourceText} through ${chainText}, ` +
-      `sits at the edge of what the chain can carry (it still solves with about ${pct} % of the load, ${weakBus.name} then at ${voltage} pu).`
+      `The load flow did not settle in ${facts.maxIterations} iterations: the chain from ${sourceText} through ${chainText} ` +
+      `is at the edge of what it can deliver to ${loadsText}${totalText} (it still solves with about ${pct} % of its load, ` +
+      `${weakBus.name} then at ${voltage} pu).`
     );
   }
-  const beyond = pct > 0 ? Math.round((100 / pct - 1) * 100) : undefined;
-  const beyondText = beyond === undefined ? "far beyond its limit" : `about ${beyond} % beyond its limit`;
+  const beyond = pct > 0 ? `about ${Math.round((100 / pct - 1) * 100)} % beyond its limit` : "far beyond its limit";
   return (
-    `The network cannot carry its load: ${loadsText} fed from ${sourceText} through ${chainText}, ` +
-    `is more than the chain can deliver. It could carry about ${pct} % of its load (the load is ${beyondText}); ` +
+    `The network cannot carry its load: the chain from ${sourceText} through ${chainText} cannot deliver ` +
+    `${loadsText}${totalText}. It could carry about ${pct} % of its load (the load is ${beyond}); ` +
     `at that point ${weakBus.name} is down to ${voltage} pu.`
   );
 }

@@ -64,6 +64,8 @@ export interface LoadFlowModel {
   /** Where each off-diagonal admittance entry's Jacobian block lives in the factor. */
   entrySlot: Int32Array;
   entryIsUpper: Uint8Array;
+  /** Scratch arrays for the iterations, made once per model. */
+  workspace: Workspace;
 }
 
 /** The changing part: voltages and bus kinds (PV buses may switch to PQ). */
@@ -193,6 +195,7 @@ export function buildLoadFlowModel(network: Network): LoadFlowModel {
     factor,
     entrySlot,
     entryIsUpper,
+    workspace: workspace(n),
   };
 }
 
@@ -444,7 +447,7 @@ export function solveState(
 ): NewtonOutcome {
   const maxIterations = options.maxIterations ?? MAX_ITERATIONS;
   const tolerance = options.tolerancePu ?? MISMATCH_TOLERANCE_PU;
-  const w = workspace(model.busCount);
+  const w = model.workspace;
   let used = 0;
   for (;;) {
     const outcome = newton(model, state, w, loadScale, maxIterations - used, tolerance);
@@ -531,7 +534,7 @@ function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: num
   const { network } = model;
   const base = network.baseMVA;
   const n = model.busCount;
-  const w = workspace(n);
+  const w = model.workspace;
   evaluate(model, state, w, 1, false);
   const { vm, va } = state;
   const { e, f } = w;

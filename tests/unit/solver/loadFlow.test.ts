@@ -207,3 +207,33 @@ describe("a chain that cannot carry its load", () => {
     expect(nonFiniteNumbers(result)).toEqual([]);
   });
 });
+
+describe("the sentence on a long overloaded chain", () => {
+  it("names the three largest loads, counts the rest, and shortens a long chain to its ends", () => {
+    const sections = 9;
+    const doc: NetworkInput = {
+      format: "kilostep.network",
+      version: 1,
+      name: "Long spur (fictional)",
+      frequencyHz: 50,
+      buses: Array.from({ length: sections + 1 }, (_, k) => ({ id: `b${k}`, name: `Pole ${k}`, nominalKV: 11 })),
+      sources: [{ id: "g", name: "Spur infeed", bus: "b0", kind: "grid", control: "slack", shortCircuitMVA: 200, xOverR: 5 }],
+      lines: Array.from({ length: sections }, (_, k) => ({
+        id: `l${k + 1}`,
+        name: `Span ${k + 1}`,
+        fromBus: `b${k}`,
+        toBus: `b${k + 1}`,
+        kind: "overhead" as const,
+        lengthKm: 3,
+        rOhmPerKm: 0.5,
+        xOhmPerKm: 0.4,
+      })),
+      loads: Array.from({ length: sections }, (_, k) => ({ id: `ld${k + 1}`, name: `Farm ${k + 1}`, bus: `b${k + 1}`, pMW: 0.4 + 0.1 * k, qMvar: 0.2 })),
+    };
+    const lf = loadFlowOf(doc);
+    expect(lf.converged).toBe(false);
+    expect(lf.message).toContain("Farm 9 (1.2 MW), Farm 8 (1.1 MW), Farm 7 (1.0 MW) and 6 other loads, 7.2 MW in all");
+    expect(lf.message).toContain("Span 1, Span 2, Span 3, … Span 8 and Span 9 (9 branches in all)");
+    expect(lf.message).toContain("Pole 9 is down to");
+  });
+});
