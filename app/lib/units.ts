@@ -2,74 +2,17 @@
 // a network field stores in its own unit. mathjs does the unit arithmetic; this module decides
 // which units fit which field, because mathjs treats W, VA and var as one dimension.
 import { create, createUnitDependencies, unitDependencies, type Unit } from "mathjs";
+import { formatQuantity, quantityKinds, tidy, type QuantityKind } from "./unitFormat.ts";
 
 const math = create({ unitDependencies, createUnitDependencies });
 // Reactive power is dimensionally a power; a unit of its own lets "2 Mvar" read as such.
 math.createUnit("var", { definition: "1 VA", prefixes: "short" });
 
-export type QuantityKind =
-  | "kV"
-  | "kA"
-  | "A"
-  | "MVA"
-  | "MW"
-  | "Mvar"
-  | "kW"
-  | "km"
-  | "ohmPerKm"
-  | "microSiemensPerKm"
-  | "pct"
-  | "pu"
-  | "deg"
-  | "ratio";
-
-interface KindSpec {
-  /** The unit the field stores, as the planner reads it. */
-  label: string;
-  /** The same unit in mathjs notation; absent for dimensionless kinds. */
-  mathUnit?: string;
-  /** Unit names (without prefix) that may be typed into this field. */
-  accepts?: string[];
-  /** What to say when the unit is wrong. */
-  expects: string;
-}
-
-const kinds: Record<QuantityKind, KindSpec> = {
-  kV: { label: "kV", mathUnit: "kV", expects: "a voltage such as 33 kV" },
-  kA: { label: "kA", mathUnit: "kA", expects: "a current such as 25 kA" },
-  A: { label: "A", mathUnit: "A", expects: "a current such as 500 A" },
-  MVA: { label: "MVA", mathUnit: "MVA", accepts: ["VA"], expects: "an apparent power such as 25 MVA" },
-  MW: { label: "MW", mathUnit: "MW", accepts: ["W"], expects: "an active power such as 250 kW or 12 MW" },
-  Mvar: { label: "Mvar", mathUnit: "Mvar", accepts: ["var"], expects: "a reactive power such as 2 Mvar" },
-  kW: { label: "kW", mathUnit: "kW", accepts: ["W"], expects: "a power such as 118 kW" },
-  km: { label: "km", mathUnit: "km", expects: "a length such as 48 km" },
-  ohmPerKm: { label: "Ω/km", mathUnit: "ohm/km", expects: "an impedance per length such as 0.12 ohm/km" },
-  microSiemensPerKm: { label: "µS/km", mathUnit: "uS/km", expects: "a susceptance per length such as 2.9 uS/km" },
-  pct: { label: "%", expects: "a percentage such as 18 %" },
-  pu: { label: "pu", expects: "a per-unit value such as 1.03 (or 103 %)" },
-  deg: { label: "°", mathUnit: "deg", expects: "an angle such as -5 deg" },
-  ratio: { label: "", expects: "a plain number" },
-};
-
-export function unitLabel(kind: QuantityKind): string {
-  return kinds[kind].label;
-}
+export { formatQuantity, unitLabel, type QuantityKind } from "./unitFormat.ts";
 
 export type ParsedQuantity =
   | { ok: true; value: number; /** What was understood, e.g. "= 0.5 kV". */ understood: string }
   | { ok: false; error: string };
-
-/** Twelve significant digits: enough for any rating, and it hides binary noise like 2.9000000000000004. */
-function tidy(value: number): number {
-  return Number(value.toPrecision(12));
-}
-
-export function formatQuantity(value: number, kind: QuantityKind): string {
-  const label = kinds[kind].label;
-  const text = String(tidy(value));
-  if (!label) return text;
-  return kind === "deg" ? `${text}°` : `${text} ${label}`;
-}
 
 const plainNumber = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
 
@@ -95,7 +38,7 @@ function normalise(text: string): string {
 
 /** Read what a planner typed into a field of the given kind; bad input gives a sentence, never a throw. */
 export function parseQuantity(input: string, kind: QuantityKind): ParsedQuantity {
-  const spec = kinds[kind];
+  const spec = quantityKinds[kind];
   const text = normalise(input);
   if (!text) return { ok: false, error: "is required" };
   if (/\d,\d/.test(text)) return { ok: false, error: "use a point for decimals, e.g. 0.12" };

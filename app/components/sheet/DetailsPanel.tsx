@@ -1,7 +1,7 @@
 // Details: the form for the selected element (or the network itself when nothing is selected).
 // Every value is checked by the network file's own element schema before it is written.
 import { useMemo } from "react";
-import { formatQuantity } from "#app/lib/units.ts";
+import { formatQuantity } from "#app/lib/unitFormat.ts";
 import type { Line, Network, Transformer } from "#solver/schema.ts";
 import { documentIssues, type SheetIssue } from "./documentIssues.ts";
 import { checkField, fieldsFor, type FieldDef } from "./elementFields.ts";

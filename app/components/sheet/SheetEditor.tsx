@@ -21,6 +21,7 @@ import { createSheetStore, EDIT_MARK, SheetStoreContext, useSheet, useSheetStore
 import { SheetToolbar } from "./SheetToolbar.tsx";
 import { ShortcutHelp } from "./ShortcutHelp.tsx";
 import { useSheetShortcuts, type ShortcutHandlers } from "./shortcuts.ts";
+import { loadUnitParser } from "./unitParser.ts";
 
 export interface SheetEditorProps {
   networkId: string | number;
@@ -78,6 +79,7 @@ function EditorLayout({ library }: { library: EquipmentTypes }) {
       store.temporal.getState().resume();
     }
     if (store.getState().readOnly) return;
+    void loadUnitParser();
     if (env.storage) setDraft(draftToOffer(readDraft(env.storage, networkId), { revision: savedRevision, document }));
     saver.current = startAutosave(store, env);
     return () => saver.current?.stop();

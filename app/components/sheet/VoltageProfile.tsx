@@ -28,9 +28,13 @@ export default function VoltageProfile({ document, readings }: { document: Netwo
   }, [document, readings, endBus]);
 
   if (!rows.length) return <p className="ks-panel-note">There is no chain from a slack source to draw yet.</p>;
+  // Round the scale out to steps a planner reads at a glance: 0.01, 0.02 or 0.05 pu.
   const low = Math.min(...rows.map((r) => Math.min(r.vPu, r.band[0])));
   const high = Math.max(...rows.map((r) => Math.max(r.vPu, r.band[1])));
-  const pad = Math.max(0.01, (high - low) * 0.15);
+  const step = [0.01, 0.02, 0.05, 0.1].find((s) => (high - low) / s <= 8) ?? 0.2;
+  const bottom = Math.floor((low - step / 2) / step) * step;
+  const top = Math.ceil((high + step / 2) / step) * step;
+  const ticks = Array.from({ length: Math.round((top - bottom) / step) + 1 }, (_, i) => Number((bottom + i * step).toFixed(2)));
 
   return (
     <div className="ks-profile">
@@ -51,9 +55,10 @@ export default function VoltageProfile({ document, readings }: { document: Netwo
           <ResponsiveContainer width="100%" height="100%">
             <ComposedChart data={rows} margin={{ top: 10, right: 24, bottom: 4, left: 8 }}>
               <CartesianGrid stroke="var(--color-paper-rule, #e6e1d5)" />
-              <XAxis dataKey="name" tick={{ fontSize: 12, fill: "var(--color-ink-soft, #3f4b59)" }} interval={0} />
+              <XAxis dataKey="name" tick={{ fontSize: 12, fill: "var(--color-ink-soft, #3f4b59)" }} interval={0} padding={{ left: 40, right: 60 }} />
               <YAxis
-                domain={[Number((low - pad).toFixed(3)), Number((high + pad).toFixed(3))]}
+                domain={[ticks[0], ticks[ticks.length - 1]]}
+                ticks={ticks}
                 tick={{ fontSize: 12, fill: "var(--color-ink-soft, #3f4b59)" }}
                 tickFormatter={(v: number) => v.toFixed(2)}
                 label={{ value: "pu", angle: -90, position: "insideLeft", fill: "var(--color-ink-soft, #3f4b59)" }}

@@ -10,7 +10,7 @@ import {
   transformerSchema,
   type Source,
 } from "#solver/schema.ts";
-import type { QuantityKind } from "#app/lib/units.ts";
+import type { QuantityKind } from "#app/lib/unitFormat.ts";
 import type { AnyElement, ElementKind, TerminalId } from "./flowModel.ts";
 
 export type FieldDef =

@@ -2,7 +2,8 @@
 // says what it understood, and shows a refusal next to the field; nothing is written to the
 // network until the value is committed (Enter or leaving the field).
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type ReactNode } from "react";
-import { parseQuantity, unitLabel, type QuantityKind } from "#app/lib/units.ts";
+import { unitLabel, type QuantityKind } from "#app/lib/unitFormat.ts";
+import { useUnitParser } from "./unitParser.ts";
 
 function numberText(value: number | undefined): string {
   return value === undefined ? "" : String(Number(value.toPrecision(12)));
@@ -55,6 +56,7 @@ export function QuantityField({ label, unit, value, optional, hint, externalErro
   const [text, setText] = useState(numberText(value));
   const [error, setError] = useState<string | undefined>();
   const focused = useRef(false);
+  const parseQuantity = useUnitParser();
 
   useEffect(() => {
     if (!focused.current) {
@@ -63,7 +65,7 @@ export function QuantityField({ label, unit, value, optional, hint, externalErro
     }
   }, [value]);
 
-  const live = text.trim() && text.trim() !== numberText(value) ? parseQuantity(text, unit) : undefined;
+  const live = parseQuantity && text.trim() && text.trim() !== numberText(value) ? parseQuantity(text, unit) : undefined;
 
   const commit = () => {
     const trimmed = text.trim();
@@ -78,6 +80,10 @@ export function QuantityField({ label, unit, value, optional, hint, externalErro
       }
       const refused = onCommit(undefined);
       setError(refused);
+      return;
+    }
+    if (!parseQuantity) {
+      setError("cannot be read yet: the unit reader is still loading, press Enter again in a moment");
       return;
     }
     const parsed = parseQuantity(trimmed, unit);

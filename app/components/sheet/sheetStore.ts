@@ -9,7 +9,6 @@ import { temporal, type TemporalState } from "zundo";
 import type { Network } from "#solver/schema.ts";
 import type { Check, SolveResult } from "#solver/results.ts";
 import type { SheetIssue } from "./documentIssues.ts";
-import { arrangeLeftToRight } from "./arrange.ts";
 import {
   applyMoves,
   indexDocument,
@@ -101,7 +100,8 @@ export interface SheetActions {
   focusElement(id: string): void;
   dragTo(positions: Record<string, XY>): void;
   commitMoves(positions: Record<string, XY>): void;
-  arrange(): void;
+  /** Lays the chain out left to right; the layout library loads on first use. */
+  arrange(): Promise<void>;
   undo(): void;
   redo(): void;
   setShowReadings(show: boolean): void;
@@ -199,7 +199,11 @@ export function createSheetStore(init: SheetInit): SheetStore {
             set({ dragPositions: null });
             apply(moved);
           },
-          arrange: () => apply(arrangeLeftToRight(content())),
+          arrange: async () => {
+            if (get().readOnly) return;
+            const { arrangeLeftToRight } = await import("./arrange.ts");
+            apply(arrangeLeftToRight(content()));
+          },
           undo: () => {
             if (!get().readOnly) history().undo();
           },

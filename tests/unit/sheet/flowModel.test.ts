@@ -66,8 +66,13 @@ describe("document to flow", () => {
     ]);
     const calder = nodes.find((n) => n.id === "b-calder-11")!;
     // wires to the two feeders land 60 px above and below the bus centre
-    expect(calder.data.halfLength).toBeGreaterThanOrEqual(60 + 3);
-    expect(calder.height).toBe(2 * calder.data.halfLength!);
+    expect(calder.data.bar!.top).toBeLessThanOrEqual(-60 - 3);
+    expect(calder.data.bar!.bottom).toBeGreaterThanOrEqual(60 + 3);
+    expect(calder.height).toBe(2 * Math.max(-calder.data.bar!.top, calder.data.bar!.bottom));
+    // a bar reaches only as far as its wires: the mine bus's feeder arrives from below its centre
+    const mine = nodes.find((n) => n.id === "b-mine")!;
+    expect(mine.data.bar!.top).toBe(-40);
+    expect(mine.data.bar!.bottom).toBeGreaterThanOrEqual(60);
   });
 
   it("marks selected nodes and wires and leaves the document untouched", () => {

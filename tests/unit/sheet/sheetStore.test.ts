@@ -74,14 +74,22 @@ describe("sheet store", () => {
     expect(store.getState().selection).toEqual([]);
   });
 
-  it("changes nothing in read-only mode", () => {
+  it("arranges the chain as one undo step", async () => {
+    const store = make();
+    await store.getState().actions.arrange();
+    expect(store.temporal.getState().pastStates).toHaveLength(1);
+    const xs = ["b-tarn-11", "b-tarn-66", "b-calder-66", "b-calder-11"].map((id) => store.getState().document.buses.find((b) => b.id === id)!.x!);
+    expect([...xs].sort((a, b) => a - b)).toEqual(xs);
+  });
+
+  it("changes nothing in read-only mode", async () => {
     const store = make(true);
     const { actions } = store.getState();
     const before = store.getState().document;
     actions.place("load", { x: 0, y: 0 });
     actions.select(["b-town"]);
     actions.deleteSelection();
-    actions.arrange();
+    await actions.arrange();
     expect(store.getState().document).toBe(before);
     expect(store.temporal.getState().pastStates).toHaveLength(0);
   });
