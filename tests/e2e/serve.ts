@@ -12,6 +12,11 @@ import { join, resolve } from "node:path";
 const folder = mkdtempSync(join(tmpdir(), "kilostep-e2e-"));
 mkdirSync("node_modules/.cache", { recursive: true });
 const served = mkdtempSync(resolve("node_modules/.cache/kilostep-e2e-"));
+// Registered first, so that a failure anywhere below still leaves no temporary folder behind.
+process.on("exit", () => {
+  rmSync(folder, { recursive: true, force: true });
+  rmSync(served, { recursive: true, force: true });
+});
 cpSync("build", join(served, "build"), { recursive: true });
 const databasePath = join(folder, "e2e.sqlite");
 process.env.DATABASE_PATH = databasePath;
@@ -38,19 +43,10 @@ const server = spawn(process.execPath, [serveBin, "./build/server/index.js"], {
   },
 });
 
-function removeTemporaryFolders() {
-  rmSync(folder, { recursive: true, force: true });
-  rmSync(served, { recursive: true, force: true });
-}
-
-function stop(code: number) {
+function stop() {
   server.kill("SIGTERM");
-  removeTemporaryFolders();
-  process.exit(code);
+  process.exit(0);
 }
-process.on("SIGTERM", () => stop(0));
-process.on("SIGINT", () => stop(0));
-server.on("exit", (code) => {
-  removeTemporaryFolders();
-  process.exit(code ?? 1);
-});
+process.on("SIGTERM", stop);
+process.on("SIGINT", stop);
+server.on("exit", (code) => process.exit(code ?? 1));
