@@ -10,13 +10,13 @@ import { ChecksPanel } from "./ChecksPanel.tsx";
 import { DetailsPanel } from "./DetailsPanel.tsx";
 import { clearDrafts, draftToOffer, readDraft, readLayout, type Draft } from "./draftStorage.ts";
 import type { EquipmentTypes } from "./EquipmentPicker.tsx";
-import { GRID_PX, sheetGeometry, type XY } from "./flowModel.ts";
+import { freeSpotNear, GRID_PX, partSize, sheetGeometry, type XY } from "./flowModel.ts";
 import { READINGS_MEASURE, useLiveSolve } from "./liveSolve.ts";
 import { PartsShelf } from "./PartsShelf.tsx";
 import { ResultsTabs } from "./ResultsTabs.tsx";
 import { ConflictBanner, DraftBanner, NoticeToast } from "./SheetBanners.tsx";
 import { SheetCanvas } from "./SheetCanvas.tsx";
-import type { PartKind } from "./sheetEdits.ts";
+import { elementKindOfPart, type PartKind } from "./sheetEdits.ts";
 import { createSheetStore, EDIT_MARK, SheetStoreContext, useSheet, useSheetStoreApi } from "./sheetStore.ts";
 import { SheetToolbar } from "./SheetToolbar.tsx";
 import { ShortcutHelp } from "./ShortcutHelp.tsx";
@@ -102,12 +102,11 @@ function EditorLayout({ library }: { library: EquipmentTypes }) {
     (part: PartKind) => {
       const rect = canvasRef.current?.getBoundingClientRect();
       if (!rect) return;
-      let at = snap(screenToFlowPosition({ x: rect.left + rect.width / 2, y: rect.top + rect.height / 2 }));
+      const centre = snap(screenToFlowPosition({ x: rect.left + rect.width / 2, y: rect.top + rect.height / 2 }));
       const { document, layout } = store.getState();
-      const taken = [...sheetGeometry(document, layout).centers.values()];
-      // Step aside from whatever already sits there, so repeated presses fan out.
-      for (let i = 0; i < 20 && taken.some((c) => Math.abs(c.x - at.x) < 40 && Math.abs(c.y - at.y) < 40); i++)
-        at = { x: at.x + 2 * GRID_PX, y: at.y + 2 * GRID_PX };
+      const kind = elementKindOfPart(part);
+      const size = kind === "bus" ? { width: 24, height: 80 } : partSize(kind);
+      const at = freeSpotNear(sheetGeometry(document, layout), centre, size);
       store.getState().actions.place(part, at);
     },
     [screenToFlowPosition, store],

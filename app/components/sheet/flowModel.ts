@@ -321,10 +321,14 @@ const kindWords: Record<ElementKind, string> = {
   shunt: "Shunt capacitor",
 };
 
+export function kindWord(entry: ElementEntry): string {
+  if (entry.kind === "source") return (entry.element as Source).kind === "grid" ? "Grid infeed" : "Generator";
+  if (entry.kind === "line") return (entry.element as Line).kind === "cable" ? "Cable" : "Overhead line";
+  return kindWords[entry.kind];
+}
+
 export function describeElement(entry: ElementEntry): string {
-  if (entry.kind === "source") return `${(entry.element as Source).kind === "grid" ? "Grid infeed" : "Generator"} ${entry.element.name}`;
-  if (entry.kind === "line") return `${(entry.element as Line).kind === "cable" ? "Cable" : "Overhead line"} ${entry.element.name}`;
-  return `${kindWords[entry.kind]} ${entry.element.name}`;
+  return `${kindWord(entry)} "${entry.element.name}"`;
 }
 
 export interface FlowOptions {
@@ -486,4 +490,41 @@ export function replaceElement(doc: Network, entry: ElementEntry, element: AnyEl
 /** Set (or clear, with "") the bus a terminal refers to. */
 export function setTerminalBus(doc: Network, entry: ElementEntry, terminal: TerminalId, busId: string): Network {
   return replaceElement(doc, entry, { ...entry.element, [terminalField[terminal]]: busId } as AnyElement);
+}
+
+/** Room around a node for its name above and its Readings below. */
+const LABEL_ROOM_PX = { x: 24, above: 36, below: 40 };
+
+/**
+ * The nearest free place to put a new element of the given size, starting at `at` and stepping
+ * out diagonally two grid steps at a time, so repeated placing fans out instead of piling up.
+ */
+export function freeSpotNear(geometry: SheetGeometry, at: XY, size: { width: number; height: number }): XY {
+  const boxes: { l: number; r: number; t: number; b: number }[] = [];
+  for (const [id, entry] of geometry.entries) {
+    const c = geometry.centers.get(id)!;
+    if (entry.kind === "bus") {
+      const { top, bottom } = geometry.busExtents.get(id)!;
+      boxes.push({ l: c.x - 12, r: c.x + 12, t: c.y + top - LABEL_ROOM_PX.above, b: c.y + bottom + LABEL_ROOM_PX.below });
+    } else {
+      const { width, height } = partSizes[entry.kind];
+      boxes.push({ l: c.x - width / 2, r: c.x + width / 2, t: c.y - height / 2 - LABEL_ROOM_PX.above, b: c.y + height / 2 + LABEL_ROOM_PX.below });
+    }
+  }
+  for (const wire of geometry.wires)
+    for (let i = 1; i < wire.points.length; i++) {
+      const [a, b] = [wire.points[i - 1], wire.points[i]];
+      boxes.push({ l: Math.min(a.x, b.x), r: Math.max(a.x, b.x), t: Math.min(a.y, b.y) - 4, b: Math.max(a.y, b.y) + 4 });
+    }
+  const clashes = (p: XY) =>
+    boxes.some(
+      (box) =>
+        p.x - size.width / 2 - LABEL_ROOM_PX.x < box.r &&
+        box.l < p.x + size.width / 2 + LABEL_ROOM_PX.x &&
+        p.y - size.height / 2 - LABEL_ROOM_PX.above < box.b &&
+        box.t < p.y + size.height / 2 + LABEL_ROOM_PX.below,
+    );
+  let spot = at;
+  for (let i = 0; i < 40 && clashes(spot); i++) spot = { x: spot.x + 2 * GRID_PX, y: spot.y + 2 * GRID_PX };
+  return spot;
 }

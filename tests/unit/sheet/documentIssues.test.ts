@@ -20,8 +20,8 @@ describe("document issues", () => {
     const placed = placePart({ document: demo(), layout: {} }, "transformer", { x: 0, y: 300 });
     const issues = documentIssues(placed.document);
     expect(issues).toEqual([
-      { elementId: placed.id, field: "hvBus", message: "Transformer Transformer 1: connect its HV terminal to a busbar" },
-      { elementId: placed.id, field: "lvBus", message: "Transformer Transformer 1: connect its LV terminal to a busbar" },
+      { elementId: placed.id, field: "hvBus", message: 'Transformer "Transformer 1": connect its HV terminal to a busbar' },
+      { elementId: placed.id, field: "lvBus", message: 'Transformer "Transformer 1": connect its LV terminal to a busbar' },
     ]);
   });
 

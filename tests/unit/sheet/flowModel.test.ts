@@ -1,10 +1,12 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { validateNetwork, type Network } from "#solver/schema.ts";
+import { placePart } from "#app/components/sheet/sheetEdits.ts";
 import {
   applyMoves,
   busAt,
   documentToFlow,
+  freeSpotNear,
   parseWireId,
   sheetGeometry,
   wireId,
@@ -148,5 +150,20 @@ describe("default places beside busbars", () => {
     // the export line arrives at the grid bus from the left, so the infeed hangs on the right
     expect(at("g-greyscar").x).toBeGreaterThan(at("b-greyscar").x);
     expect(at("g-greyscar").y).toBe(at("b-greyscar").y);
+  });
+});
+
+describe("placing from the keyboard", () => {
+  it("finds a free spot instead of dropping a part onto a busbar or a wire", () => {
+    const doc = demo();
+    const geometry = sheetGeometry(doc, {});
+    // the centre of the Calder Flats 66 kV bus: taken by the bar and its wires
+    const spot = freeSpotNear(geometry, { x: 480, y: 0 }, { width: 60, height: 40 });
+    expect(spot).not.toEqual({ x: 480, y: 0 });
+    const placed = placePart({ document: doc, layout: {} }, "capacitor", spot);
+    const after = sheetGeometry(placed.document, placed.layout);
+    expect(busAt(after, spot, 40)).toBeUndefined();
+    // an empty corner is taken as it is
+    expect(freeSpotNear(geometry, { x: 0, y: 600 }, { width: 60, height: 40 })).toEqual({ x: 0, y: 600 });
   });
 });
