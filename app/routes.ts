@@ -11,6 +11,7 @@ export default [
   ...prefix("networks", [
     index("routes/networks/list.tsx"),
     route(":networkId", "routes/networks/network.tsx"),
+    route(":networkId/ladder", "routes/networks/ladder.tsx"),
   ]),
 
   ...prefix("teams", [

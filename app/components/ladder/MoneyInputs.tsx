@@ -1,0 +1,126 @@
+// The money inputs with the defaults a planner recognises, and what they come to (loss load
+// factor, present-worth factor) worked out as they are typed. Also the read-only summary of the
+// same inputs that the study report prints.
+import { FormField } from "#app/components/FormField.tsx";
+import { lossLoadFactor, presentWorthFactor, type CostPoint, type MoneyInput } from "#solver/economics.ts";
+import { fixed, kvText } from "./ladderText.ts";
+import type { FieldErrors, MoneyDraft, MoneyField } from "./studyDraft.ts";
+
+const FIELDS: { field: MoneyField; label: (currency: string) => string; hint: string }[] = [
+  { field: "loadFactor", label: () => "Load factor", hint: "Average load over peak load, 0 to 1." },
+  { field: "lossLoadFactorK", label: () => "k of the loss load factor", hint: "0.15 to 0.3 in practice; 0.3 by default." },
+  { field: "energyPricePerMWh", label: (c) => `Energy price, ${c}/MWh`, hint: "What a lost MWh costs." },
+  { field: "discountRatePct", label: () => "Discount rate, % a year", hint: "For the present value of losses." },
+  { field: "studyYears", label: () => "Study period, years", hint: "Years of losses counted." },
+  { field: "loadGrowthPct", label: () => "Load growth, % a year", hint: "Losses grow with its square." },
+];
+
+export function MoneyInputs({
+  draft,
+  parsed,
+  errors,
+  onChange,
+}: {
+  draft: MoneyDraft;
+  /** The inputs as they read now, or undefined while one is wrong. */
+  parsed: MoneyInput | undefined;
+  errors: FieldErrors;
+  onChange: (patch: Partial<MoneyDraft>) => void;
+}) {
+  return (
+    <div>
+      <div className="ks-money-grid">
+        {FIELDS.map(({ field, label, hint }) => (
+          <FormField
+            key={field}
+            label={label(draft.currency)}
+            name={field}
+            inputMode="decimal"
+            hint={hint}
+            value={draft.text[field]}
+            error={errors[`money.${field}`]}
+            onChange={(event) => onChange({ text: { ...draft.text, [field]: event.target.value } })}
+          />
+        ))}
+        <FormField
+          label="Currency"
+          name="currency"
+          hint="Any code or name, e.g. EUR."
+          value={draft.currency}
+          error={errors["money.currency"]}
+          onChange={(event) => onChange({ currency: event.target.value })}
+        />
+      </div>
+      {parsed ? (
+        <p className="ks-derived" aria-live="polite">
+          Loss load factor {fixed(lossLoadFactor(parsed.loadFactor, parsed.lossLoadFactorK), 4)} (k·LF + (1 − k)·LF²); present-worth factor{" "}
+          {fixed(presentWorthFactor(parsed.discountRatePct / 100, parsed.studyYears), 4)} for {parsed.studyYears} years at {parsed.discountRatePct} %.
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+export function UnitCostNote({ money }: { money: MoneyInput }) {
+  return (
+    <p className="field-hint ks-unit-costs">
+      Unit costs used where no capital cost is entered, <strong>illustrative placeholders only</strong>: lines per km{" "}
+      {costList(money.lineCostPerKmByKV, money.currency)}; transformers per MVA by HV winding {costList(money.transformerCostPerMVAByKV, money.currency)};
+      cables {money.cableCostFactor} × the overhead cost. Enter your own capital cost for each alternative.
+    </p>
+  );
+}
+
+const costList = (table: readonly CostPoint[], currency: string) =>
+  `${table.map((p) => `${kvText(p.voltageKV)} ${Math.round(p.cost).toLocaleString("en-GB")}`).join(", ")} ${currency}`;
+
+/** The money inputs as the report prints them, with what they come to. */
+export function MoneySummary({ money }: { money: MoneyInput }) {
+  const llf = lossLoadFactor(money.loadFactor, money.lossLoadFactorK);
+  return (
+    <table className="data-table ks-money-summary">
+      <tbody>
+        <tr>
+          <th scope="row">Load factor</th>
+          <td className="num">{fixed(money.loadFactor, 3)}</td>
+        </tr>
+        <tr>
+          <th scope="row">k of the loss load factor</th>
+          <td className="num">{fixed(money.lossLoadFactorK, 3)}</td>
+        </tr>
+        <tr>
+          <th scope="row">Loss load factor, k·LF + (1 − k)·LF²</th>
+          <td className="num">{fixed(llf, 4)}</td>
+        </tr>
+        <tr>
+          <th scope="row">
+            Energy price <span className="unit">{money.currency}/MWh</span>
+          </th>
+          <td className="num">{fixed(money.energyPricePerMWh, 2)}</td>
+        </tr>
+        <tr>
+          <th scope="row">
+            Discount rate <span className="unit">% a year</span>
+          </th>
+          <td className="num">{fixed(money.discountRatePct, 2)}</td>
+        </tr>
+        <tr>
+          <th scope="row">
+            Study period <span className="unit">years</span>
+          </th>
+          <td className="num">{money.studyYears}</td>
+        </tr>
+        <tr>
+          <th scope="row">Present-worth factor, (1 − (1 + i)^−n) / i</th>
+          <td className="num">{fixed(presentWorthFactor(money.discountRatePct / 100, money.studyYears), 4)}</td>
+        </tr>
+        <tr>
+          <th scope="row">
+            Load growth <span className="unit">% a year</span>
+          </th>
+          <td className="num">{fixed(money.loadGrowthPct, 2)}</td>
+        </tr>
+      </tbody>
+    </table>
+  );
+}

@@ -1,0 +1,91 @@
+// Choosing the section to re-rate: click a bus on the drawing or pick it from the list; the
+// buses, lines and windings the section covers are spelled out under it.
+import { useId } from "react";
+import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
+import type { Section } from "#solver/ladder.ts";
+import type { Network } from "#solver/schema.ts";
+import { fixed, kvText } from "./ladderText.ts";
+
+export function SectionPicker({
+  network,
+  sectionBus,
+  section,
+  onPick,
+  error,
+}: {
+  network: Network;
+  sectionBus: string;
+  section: Section | undefined;
+  onPick: (busId: string) => void;
+  error?: string;
+}) {
+  const selectId = useId();
+  const errorId = `${selectId}-error`;
+  return (
+    <div className="ks-section-picker">
+      <div className="ks-drawing-frame">
+        <SingleLineDrawing
+          network={network}
+          highlightBusIds={section?.busIds ?? []}
+          onPickBus={onPick}
+          pickLabel={(name) => `Re-rate the section of ${name}`}
+          label={`Single-line drawing of ${network.name}; each bus is a button that picks its section`}
+        />
+      </div>
+      <div className="ks-section-choice">
+        <div>
+          <label htmlFor={selectId} className="field-label">
+            Bus of the section
+          </label>
+          <select
+            id={selectId}
+            className="input"
+            value={sectionBus}
+            onChange={(event) => onPick(event.target.value)}
+            aria-invalid={error ? true : undefined}
+            aria-describedby={error ? errorId : undefined}
+          >
+            {network.buses.map((b) => (
+              <option key={b.id} value={b.id}>
+                {b.name} ({kvText(b.nominalKV)})
+              </option>
+            ))}
+          </select>
+          {error ? (
+            <p id={errorId} className="field-error">
+              {error}
+            </p>
+          ) : null}
+        </div>
+        {section ? <SectionSummary network={network} section={section} /> : null}
+      </div>
+    </div>
+  );
+}
+
+function SectionSummary({ network, section }: { network: Network; section: Section }) {
+  const name = (id: string, list: readonly { id: string; name: string }[]) => list.find((e) => e.id === id)?.name ?? id;
+  const lines = section.lineIds.map((id) => network.lines.find((l) => l.id === id)!);
+  return (
+    <dl className="ks-section-summary" aria-live="polite">
+      <dt>Present voltage</dt>
+      <dd>{kvText(section.nominalKV)}</dd>
+      <dt>Buses re-rated</dt>
+      <dd>{section.busIds.map((id) => name(id, network.buses)).join(", ")}</dd>
+      <dt>Lines</dt>
+      <dd>
+        {lines.length === 0
+          ? "none: only the windings change"
+          : lines.map((l) => `${l.name} (${fixed(l.lengthKm, 1)} km ${l.kind === "cable" ? "cable" : "overhead"})`).join(", ")}
+      </dd>
+      <dt>Windings re-rated</dt>
+      <dd>
+        {section.facingWindings.length === 0
+          ? "none"
+          : section.facingWindings.map((w) => `${w.winding.toUpperCase()} of ${name(w.transformerId, network.transformers)}`).join(", ")}
+      </dd>
+      <dt>Fault levels reported at</dt>
+      <dd>{section.endBusIds.map((id) => name(id, network.buses)).join(", ")}</dd>
+    </dl>
+  );
+}

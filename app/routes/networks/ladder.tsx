@@ -1,0 +1,405 @@
+import { useEffect, useMemo, useRef, useState } from "react";
+import { data, Link, useFetcher, useLoaderData, type ShouldRevalidateFunctionArgs } from "react-router";
+import type { Route } from "./+types/ladder";
+import { AlternativeInputs } from "#app/components/ladder/AlternativeInputs.tsx";
+import { CostPlot } from "#app/components/ladder/CostPlot.tsx";
+import { LadderComparison, SensitivityTable } from "#app/components/ladder/LadderTables.tsx";
+import { kvText } from "#app/components/ladder/ladderText.ts";
+import { LossPlot } from "#app/components/ladder/LossPlot.tsx";
+import { MoneyInputs, UnitCostNote } from "#app/components/ladder/MoneyInputs.tsx";
+import { defaultProfileEnd, ProfilePlot } from "#app/components/ladder/ProfilePlot.tsx";
+import { SectionPicker } from "#app/components/ladder/SectionPicker.tsx";
+import {
+  canonicalRequest,
+  defaultSectionBus,
+  draftForSection,
+  draftFromRequest,
+  errorsByPath,
+  moneyOfDraft,
+  moveToSection,
+  requestFromDraft,
+  toggleVoltage,
+  voltageKey,
+  emptyAlternative,
+  type FieldErrors,
+  type StudyDraft,
+} from "#app/components/ladder/studyDraft.ts";
+import { VoltageChips } from "#app/components/ladder/VoltageChips.tsx";
+import { chainEndBuses } from "#app/components/report/singleLineLayout.ts";
+import { Notice } from "#app/components/Notice.tsx";
+import { PageTitle } from "#app/components/PageTitle.tsx";
+import { parseId } from "#app/lib/api.server.ts";
+import { requireUser, userActor } from "#app/lib/auth.server.ts";
+import { getDb } from "#app/lib/db.server.ts";
+import { formatDateTime } from "#app/lib/format.ts";
+import { runLadderOnNetwork, saveLadderStudy, savedLadderStudy } from "#app/lib/ladder.server.ts";
+import { currentDocument } from "#app/lib/networks.server.ts";
+import { grantedOrPageError, networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
+import { candidateVoltagesKV } from "#solver/iec60038.ts";
+import { findSection, runLadder, type Ladder } from "#solver/ladder.ts";
+import { validateNetwork } from "#solver/schema.ts";
+import "#app/components/report/drawing.css";
+import "#app/components/ladder/ladder.css";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `Voltage ladder · ${data?.name ?? "Network"} · Kilostep` }];
+
+function networkIdOf(params: { networkId: string }): number {
+  const id = parseId(params.networkId);
+  if (id === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
+  return id;
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  const db = await getDb();
+  const { network, role } = grantedOrPageError(await networkAccess(db, userActor(user), networkIdOf(params), "view"));
+  const [revision, saved] = await Promise.all([currentDocument(db, network), savedLadderStudy(db, network.id)]);
+  const checked = validateNetwork(revision.document);
+  // The saved study is run again on the current revision, so what the page shows is never stale.
+  const savedRun = saved.study && checked.ok ? runLadder(checked.network, saved.study.request) : null;
+  return {
+    id: network.id,
+    name: network.name,
+    role,
+    canSave: roleAllows(role, "edit"),
+    revision: network.current_revision,
+    document: checked.ok ? checked.network : null,
+    documentIssues: checked.ok ? [] : checked.issues,
+    saved: saved.study,
+    savedUnreadable: saved.unreadable,
+    savedLadder: savedRun?.ok ? savedRun.ladder : null,
+    savedIssues: savedRun && !savedRun.ok ? savedRun.issues : [],
+  };
+}
+
+type ActionAnswer =
+  | { ok: true; intent: "run" | "save"; ladder: Ladder; request: unknown }
+  | { ok: false; intent: "run" | "save"; error: string; issues: { path: string; message: string }[] };
+
+/** JSON `{ intent: "run" | "save", request }`: run the ladder (anyone who may view), or run and save it (editors). */
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireUser(request);
+  const db = await getDb();
+  const networkId = networkIdOf(params);
+  const answer = (body: ActionAnswer, status = 200) => data(body, { status });
+  let body: { intent?: unknown; request?: unknown };
+  try {
+    body = (await request.json()) as typeof body;
+  } catch {
+    return answer({ ok: false, intent: "run", error: "The page sent something that is not JSON; reload it and try again.", issues: [] }, 400);
+  }
+  const intent = body.intent === "save" ? "save" : "run";
+  const access = await networkAccess(db, userActor(user), networkId, intent === "save" ? "edit" : "view");
+  if (!access.ok) {
+    if (access.status === 404) throw data(access.error, { status: 404 });
+    return answer({ ok: false, intent, error: access.error, issues: [] }, access.status);
+  }
+  const run =
+    intent === "save" ? await saveLadderStudy(db, access.network, user.id, body.request) : await runLadderOnNetwork(db, access.network, body.request);
+  if (!run.ok) return answer({ ok: false, intent, error: run.error, issues: run.issues }, run.status);
+  return answer({ ok: true, intent, ladder: run.ladder, request: body.request });
+}
+
+/** Running changes nothing stored, so the page's data need not be read again; saving does. */
+export function shouldRevalidate({ actionResult, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  if (actionResult && typeof actionResult === "object" && (actionResult as { intent?: unknown }).intent === "run") return false;
+  return defaultShouldRevalidate;
+}
+
+export default function LadderPage({ loaderData }: Route.ComponentProps) {
+  const { id, name, document } = loaderData;
+  return (
+    <>
+      <p className="mb-2 text-sm">
+        <Link to={`/networks/${id}`}>← {name}</Link>
+      </p>
+      <PageTitle
+        title="Voltage ladder"
+        lead={
+          <>
+            {name} · revision {loaderData.revision} · your role <span className="role-badge">{loaderData.role}</span>
+          </>
+        }
+        actions={
+          <Link to={`/networks/${id}/report`} className="btn">
+            Study report
+          </Link>
+        }
+      />
+      {document ? (
+        <LadderStudy key={loaderData.revision} />
+      ) : (
+        <Notice tone="error">
+          This revision no longer passes the network file's checks, so the ladder cannot run. Fix the network first:
+          <ul className="mt-2 list-disc pl-5">
+            {loaderData.documentIssues.map((issue) => (
+              <li key={`${issue.path}-${issue.message}`}>
+                <code>{issue.path || "document"}</code>: {issue.message}
+              </li>
+            ))}
+          </ul>
+        </Notice>
+      )}
+    </>
+  );
+}
+
+function initialDraft(loaderData: Route.ComponentProps["loaderData"]): StudyDraft {
+  const network = loaderData.document!;
+  if (loaderData.saved) return draftFromRequest(network, loaderData.saved.request);
+  return draftForSection(network, defaultSectionBus(network));
+}
+
+function LadderStudy() {
+  const loaderData = useLoaderData<typeof loader>();
+  const network = loaderData.document!;
+  const fetcher = useFetcher<typeof action>();
+  const [draft, setDraft] = useState<StudyDraft>(() => initialDraft(loaderData));
+  const [clientErrors, setClientErrors] = useState<FieldErrors>({});
+  const [profileEnd, setProfileEnd] = useState<string>();
+  const errorSummary = useRef<HTMLDivElement>(null);
+
+  const section = findSection(network, draft.sectionBus);
+  const offeredKV = section ? candidateVoltagesKV(section.nominalKV, { frequencyHz: network.frequencyHz }) : [];
+  const money = useMemo(() => moneyOfDraft(draft, network), [draft, network]);
+  const draftCanonical = useMemo(() => canonicalRequest(requestFromDraft(draft, network).request), [draft, network]);
+
+  const answer = fetcher.data;
+  const running = fetcher.state !== "idle";
+  const shown: { ladder: Ladder; request: unknown } | null =
+    answer?.ok === true ? { ladder: answer.ladder, request: answer.request } : loaderData.savedLadder ? { ladder: loaderData.savedLadder, request: loaderData.saved?.request } : null;
+  const serverErrors = answer && !answer.ok ? errorsByPath(answer.issues) : {};
+  const errors = { ...serverErrors, ...clientErrors };
+  const stale = shown !== null && canonicalRequest(shown.request) !== draftCanonical;
+  const savedCanonical = loaderData.saved ? canonicalRequest(loaderData.saved.request) : undefined;
+  const unsaved = savedCanonical !== draftCanonical;
+
+  useEffect(() => {
+    if (answer && !answer.ok) errorSummary.current?.focus();
+  }, [answer]);
+
+  const submit = (intent: "run" | "save") => {
+    const { request, errors: found } = requestFromDraft(draft, network);
+    setClientErrors(found);
+    if (Object.keys(found).length > 0) {
+      requestAnimationFrame(() => errorSummary.current?.focus());
+      return;
+    }
+    fetcher.submit({ intent, request } as never, { method: "post", encType: "application/json" });
+  };
+
+  const update = (next: StudyDraft) => {
+    setDraft(next);
+    setClientErrors({});
+  };
+
+  const errorList = Object.entries(errors);
+  const ends = chainEndBuses(network);
+  const endBusId = shown ? (profileEnd && ends.includes(profileEnd) ? profileEnd : defaultProfileEnd(shown.ladder, network)) : undefined;
+
+  return (
+    <div className="ks-ladder">
+      {loaderData.savedUnreadable ? (
+        <Notice tone="info">The study saved with this network no longer reads with this version of Kilostep; the form starts afresh.</Notice>
+      ) : null}
+      {loaderData.savedIssues.length > 0 ? (
+        <Notice tone="info">
+          The saved study does not run on revision {loaderData.revision}: {loaderData.savedIssues.map((i) => `${i.path ? `${i.path} ` : ""}${i.message}`).join("; ")}.
+          Adjust it below.
+        </Notice>
+      ) : null}
+
+      <section aria-labelledby="ladder-section" className="panel ks-step">
+        <h2 id="ladder-section" className="ks-step-title">
+          <span className="ks-step-number" aria-hidden="true">
+            1
+          </span>
+          Section to re-rate
+        </h2>
+        <SectionPicker
+          network={network}
+          sectionBus={draft.sectionBus}
+          section={section}
+          error={errors.sectionBus}
+          onPick={(busId) => update(moveToSection(draft, network, busId))}
+        />
+      </section>
+
+      <section aria-labelledby="ladder-voltages" className="panel ks-step">
+        <h2 id="ladder-voltages" className="ks-step-title">
+          <span className="ks-step-number" aria-hidden="true">
+            2
+          </span>
+          Candidate voltages
+        </h2>
+        <VoltageChips
+          offeredKV={offeredKV}
+          presentKV={section?.nominalKV}
+          selectedKV={draft.voltagesKV}
+          onToggle={(kv) => update(toggleVoltage(draft, kv))}
+          onAdd={(kv) => update(toggleVoltage(draft, kv))}
+          error={voltageErrors(errors)}
+        />
+      </section>
+
+      {section ? (
+        <section aria-labelledby="ladder-alternatives" className="panel ks-step">
+          <h2 id="ladder-alternatives" className="ks-step-title">
+            <span className="ks-step-number" aria-hidden="true">
+              3
+            </span>
+            Each alternative
+          </h2>
+          <p className="field-hint ks-step-lead">
+            Every alternative re-rates the section's buses and the windings facing it. Change the conductor, the taps or the capital cost
+            where an alternative needs it; an empty field keeps the drawn value or the estimate shown.
+          </p>
+          <AlternativeInputs
+            network={network}
+            section={section}
+            draft={draft}
+            money={money}
+            errors={errors}
+            onChange={(kv, patch) =>
+              update({
+                ...draft,
+                alternatives: { ...draft.alternatives, [voltageKey(kv)]: { ...(draft.alternatives[voltageKey(kv)] ?? emptyAlternative()), ...patch } },
+              })
+            }
+          />
+        </section>
+      ) : null}
+
+      <section aria-labelledby="ladder-money" className="panel ks-step">
+        <h2 id="ladder-money" className="ks-step-title">
+          <span className="ks-step-number" aria-hidden="true">
+            4
+          </span>
+          Money
+        </h2>
+        <MoneyInputs draft={draft.money} parsed={money} errors={errors} onChange={(patch) => update({ ...draft, money: { ...draft.money, ...patch } })} />
+        {money ? <UnitCostNote money={money} /> : null}
+      </section>
+
+      <div className="ks-run-bar">
+        <button type="button" className="btn btn-primary" onClick={() => submit("run")} disabled={running}>
+          {running && fetcher.json && (fetcher.json as { intent?: string }).intent === "run" ? "Running…" : "Run the ladder"}
+        </button>
+        {loaderData.canSave ? (
+          <button type="button" className="btn" onClick={() => submit("save")} disabled={running}>
+            {running && fetcher.json && (fetcher.json as { intent?: string }).intent === "save" ? "Saving…" : "Save the study"}
+          </button>
+        ) : null}
+        <p className="ks-run-status" role="status">
+          {savedStatus(loaderData, unsaved)}
+        </p>
+      </div>
+
+      {errorList.length > 0 ? (
+        <div ref={errorSummary} tabIndex={-1} className="notice notice-error ks-error-summary" role="alert">
+          <p className="font-semibold">{answer && !answer.ok ? answer.error : "Some inputs need a look before the ladder can run:"}</p>
+          <ul>
+            {errorList.map(([path, message]) => (
+              <li key={path}>
+                {path ? <code>{path}</code> : null} {message}
+              </li>
+            ))}
+          </ul>
+        </div>
+      ) : answer && !answer.ok ? (
+        <div ref={errorSummary} tabIndex={-1}>
+          <Notice tone="error">{answer.error}</Notice>
+        </div>
+      ) : null}
+
+      {shown ? (
+        <section aria-labelledby="ladder-results" className="ks-results" aria-busy={running}>
+          <h2 id="ladder-results" className="ks-results-title">
+            Alternatives side by side
+          </h2>
+          {stale ? (
+            <Notice tone="info">These results are for the inputs as last run; run the ladder again to bring them up to date.</Notice>
+          ) : null}
+          <Recommendation ladder={shown.ladder} />
+          <LadderComparison ladder={shown.ladder} network={network} />
+          <SensitivityTable ladder={shown.ladder} />
+          <div className="ks-plot-grid">
+            <div className="panel ks-plot-panel">
+              <LossPlot ladder={shown.ladder} />
+            </div>
+            <div className="panel ks-plot-panel">
+              <CostPlot ladder={shown.ladder} />
+            </div>
+            <div className="panel ks-plot-panel ks-plot-wide">
+              <ProfilePlot ladder={shown.ladder} network={network} endBusId={endBusId} />
+              {ends.length > 1 ? (
+                <ProfileEndPicker ends={ends} network={network} value={endBusId} onChange={setProfileEnd} />
+              ) : null}
+            </div>
+          </div>
+          <p className="ks-caution">
+            <strong>Caution:</strong> planning-stage screening. Verify against the applicable grid code, local regulations and the equipment
+            makers' data; protection settings and construction designs must be done and approved by licensed engineers. Fault levels by
+            IEC 60909-0 are not a protection study.
+          </p>
+        </section>
+      ) : null}
+    </div>
+  );
+}
+
+function voltageErrors(errors: FieldErrors): string | undefined {
+  const messages = Object.entries(errors)
+    .filter(([path]) => path === "voltagesKV" || path.startsWith("voltagesKV["))
+    .map(([, message]) => message);
+  return messages.length > 0 ? messages.join(" ") : undefined;
+}
+
+function savedStatus(loaderData: Route.ComponentProps["loaderData"], unsaved: boolean): string {
+  const saved = loaderData.saved;
+  const who = saved ? `saved by ${saved.updatedByName ?? "a former member"}, ${formatDateTime(saved.updatedAt)}, on revision ${saved.networkRevision}` : "";
+  if (!loaderData.canSave)
+    return saved ? `Showing the study ${who}. Your role may run the ladder; saving needs an editor.` : "Your role may run the ladder; saving needs an editor.";
+  if (!saved) return "No study is saved with this network yet.";
+  return unsaved ? `Changed since the study was ${who}.` : `The study as ${who}.`;
+}
+
+function Recommendation({ ladder }: { ladder: Ladder }) {
+  if (!ladder.cheapest) return <Notice tone="error">No alternative carries the load, so there is nothing to recommend. Try a higher voltage or a heavier conductor.</Notice>;
+  return (
+    <div className={`notice ${ladder.cheapest.withinLimits ? "notice-ok" : "notice-info"} ks-recommendation`} role="status">
+      <p className="font-semibold">
+        <span aria-hidden="true">★ </span>
+        Recommended: {kvText(ladder.cheapest.voltageKV)}
+      </p>
+      <p>{ladder.cheapest.note}</p>
+    </div>
+  );
+}
+
+function ProfileEndPicker({
+  ends,
+  network,
+  value,
+  onChange,
+}: {
+  ends: string[];
+  network: NonNullable<Route.ComponentProps["loaderData"]["document"]>;
+  value: string | undefined;
+  onChange: (busId: string) => void;
+}) {
+  return (
+    <div className="ks-profile-end">
+      <label htmlFor="ladder-profile-end" className="field-label">
+        Profile to
+      </label>
+      <select id="ladder-profile-end" className="input" value={value} onChange={(event) => onChange(event.target.value)}>
+        {ends.map((busId) => (
+          <option key={busId} value={busId}>
+            {network.buses.find((b) => b.id === busId)?.name ?? busId}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
+}
