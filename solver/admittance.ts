@@ -3,6 +3,7 @@
 // Parallel branches add into the same entry, so rings and parallel lines need no special case.
 import type { Network } from "#solver/schema.ts";
 import type { Graph } from "#solver/sparse.ts";
+import { IdIndex } from "#solver/idIndex.ts";
 import {
   lineSeriesImpedancePu,
   lineShuntSusceptancePu,
@@ -30,20 +31,19 @@ export interface AdmittanceMatrix extends Graph {
 }
 
 export interface NetworkAdmittance {
-  busIndex: Map<string, number>;
+  busIndex: IdIndex;
   branches: BranchTwoPorts;
   matrix: AdmittanceMatrix;
 }
 
 export function buildAdmittance(network: Network): NetworkAdmittance {
-  const busIndex = new Map<string, number>();
-  network.buses.forEach((bus, i) => busIndex.set(bus.id, i));
+  const busIndex = new IdIndex(network.buses.map((bus) => bus.id));
   const branches = branchTwoPorts(network, busIndex);
   const matrix = assemble(network, busIndex, branches);
   return { busIndex, branches, matrix };
 }
 
-function branchTwoPorts(network: Network, busIndex: Map<string, number>): BranchTwoPorts {
+function branchTwoPorts(network: Network, busIndex: IdIndex): BranchTwoPorts {
   const { baseMVA, buses } = network;
   const count = network.lines.length + network.transformers.length;
   const from = new Int32Array(count);
@@ -104,7 +104,7 @@ function writeTwoPort(
   y[q + 7] = btt;
 }
 
-function assemble(network: Network, busIndex: Map<string, number>, branches: BranchTwoPorts): AdmittanceMatrix {
+function assemble(network: Network, busIndex: IdIndex, branches: BranchTwoPorts): AdmittanceMatrix {
   const n = network.buses.length;
   const { count, from, to, y } = branches;
   const diagonalG = new Float64Array(n);

@@ -1,6 +1,7 @@
 // The sentence a planner reads when a network cannot carry its load: which loads, fed through
 // which chain of branches from which source, and how far beyond the limit the load is.
 import type { Network } from "#solver/schema.ts";
+import type { IdIndex } from "#solver/idIndex.ts";
 
 export interface CollapseFacts {
   /** Bus voltages at the largest load share that still solved. */
@@ -16,7 +17,7 @@ export interface CollapseFacts {
 const NAMED_LOADS = 3;
 const NAMED_BRANCHES = 6;
 
-export function describeCollapse(network: Network, busIndex: Map<string, number>, facts: CollapseFacts): string {
+export function describeCollapse(network: Network, busIndex: IdIndex, facts: CollapseFacts): string {
   const n = network.buses.length;
   let weakest = -1;
   for (let i = 0; i < n; i++) {
@@ -76,7 +77,7 @@ interface SpanningTree {
 }
 
 /** Breadth-first tree of the slack's group over lines and transformers: the shortest chain to each bus. */
-function spanningTree(network: Network, busIndex: Map<string, number>, root: number): SpanningTree {
+function spanningTree(network: Network, busIndex: IdIndex, root: number): SpanningTree {
   const n = network.buses.length;
   const adjacency: { bus: number; name: string }[][] = Array.from({ length: n }, () => []);
   const connect = (a: string, b: string, name: string) => {

@@ -530,7 +530,7 @@ function notConverged(model: LoadFlowModel, outcome: NewtonOutcome): LoadFlowRes
   };
 }
 
-function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: number): LoadFlowResult {
+export function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: number): LoadFlowResult {
   const { network } = model;
   const base = network.baseMVA;
   const n = model.busCount;
@@ -547,9 +547,12 @@ function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: num
   }));
 
   const { from, to, y } = model.admittance.branches;
-  const elements = [...network.lines, ...network.transformers];
+  const lineCount = network.lines.length;
+  const branches: BranchReading[] = new Array(model.admittance.branches.count);
   let lossMW = 0;
-  const branches: BranchReading[] = elements.map((element, k) => {
+  for (let k = 0; k < branches.length; k++) {
+    const isLine = k < lineCount;
+    const element = isLine ? network.lines[k] : network.transformers[k - lineCount];
     const fb = from[k];
     const tb = to[k];
     const q = 8 * k;
@@ -566,16 +569,15 @@ function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: num
     const currentToA = Math.sqrt(itRe * itRe + itIm * itIm) * busCurrentBaseA(network.buses[tb], base);
     const currentA = Math.max(currentFromA, currentToA);
     lossMW += pFrom + pTo;
-    const isLine = k < network.lines.length;
     let loadingPct: number | null;
     if (isLine) {
       const ampacity = network.lines[k].ampacityA;
       loadingPct = ampacity === undefined ? null : (currentA / ampacity) * 100;
     } else {
-      const rated = network.transformers[k - network.lines.length].ratedMVA;
+      const rated = network.transformers[k - lineCount].ratedMVA;
       loadingPct = (Math.sqrt(Math.max(pFrom * pFrom + qFrom * qFrom, pTo * pTo + qTo * qTo)) / rated) * 100;
     }
-    return {
+    branches[k] = {
       id: element.id,
       kind: isLine ? "line" : "transformer",
       fromBus: network.buses[fb].id,
@@ -588,7 +590,7 @@ function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: num
       currentA,
       loadingPct,
     };
-  });
+  }
 
   const sources = sourceReadings(model, state, w);
   let generationMW = 0;

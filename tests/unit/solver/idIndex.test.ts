@@ -1,0 +1,20 @@
+// The id index agrees with a Map on any list of ids, including repeats and unicode.
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { IdIndex } from "#solver/idIndex.ts";
+
+describe("id index", () => {
+  it("finds every id at its first position and nothing else, like a Map", () => {
+    fc.assert(
+      fc.property(fc.array(fc.string({ unit: "grapheme", maxLength: 12 }), { maxLength: 300 }), fc.array(fc.string(), { maxLength: 50 }), (ids, probes) => {
+        const index = new IdIndex(ids);
+        const expected = new Map<string, number>();
+        ids.forEach((id, i) => {
+          if (!expected.has(id)) expected.set(id, i);
+        });
+        for (const id of [...ids, ...probes]) expect(index.get(id)).toBe(expected.get(id));
+      }),
+      { numRuns: 200 },
+    );
+  });
+});
