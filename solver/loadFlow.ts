@@ -530,7 +530,7 @@ function notConverged(model: LoadFlowModel, outcome: NewtonOutcome): LoadFlowRes
   };
 }
 
-export function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: number): LoadFlowResult {
+function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: number): LoadFlowResult {
   const { network } = model;
   const base = network.baseMVA;
   const n = model.busCount;
