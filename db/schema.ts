@@ -85,6 +85,35 @@ export interface LadderStudiesTable {
   updated_at: Timestamp;
 }
 
+export type LibraryTypeKind = "transformer" | "conductor";
+
+export interface LibraryTypesTable {
+  id: Generated<number>;
+  team_id: number;
+  kind: LibraryTypeKind;
+  /** Unique within the team and kind, whatever its case. */
+  name: string;
+  /** The type's numbers as JSON text, checked by app/lib/libraryTypes.ts before storing. */
+  data: string;
+  created_by: number | null;
+  created_at: Timestamp;
+  updated_at: Timestamp;
+}
+
+export type ApiTokenScope = "read" | "write";
+
+export interface ApiTokensTable {
+  id: Generated<number>;
+  user_id: number;
+  name: string;
+  scope: ApiTokenScope;
+  /** SHA-256 of the token, hex; the token itself is never stored. */
+  token_hash: string;
+  created_at: Timestamp;
+  last_used_at: Timestamp | null;
+  revoked_at: Timestamp | null;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
@@ -94,6 +123,8 @@ export interface Database {
   networks: NetworksTable;
   network_revisions: NetworkRevisionsTable;
   ladder_studies: LadderStudiesTable;
+  library_types: LibraryTypesTable;
+  api_tokens: ApiTokensTable;
 }
 
 export type User = Selectable<UsersTable>;
@@ -113,3 +144,5 @@ export type NetworkUpdate = Updateable<NetworksTable>;
 export type NetworkRevision = Selectable<NetworkRevisionsTable>;
 export type NewNetworkRevision = Insertable<NetworkRevisionsTable>;
 export type LadderStudyRow = Selectable<LadderStudiesTable>;
+export type LibraryTypeRow = Selectable<LibraryTypesTable>;
+export type ApiTokenRow = Selectable<ApiTokensTable>;
