@@ -533,7 +533,6 @@ function notConverged(model: LoadFlowModel, outcome: NewtonOutcome): LoadFlowRes
 function readResults(model: LoadFlowModel, state: LoadFlowState, iterations: number): LoadFlowResult {
   const { network } = model;
   const base = network.baseMVA;
-  const n = model.busCount;
   const w = model.workspace;
   evaluate(model, state, w, 1, false);
   const { vm, va } = state;
