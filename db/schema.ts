@@ -114,6 +114,107 @@ export interface ApiTokensTable {
   revoked_at: Timestamp | null;
 }
 
+export type ShareRole = "viewer" | "editor";
+
+export interface ShareLinksTable {
+  id: Generated<number>;
+  network_id: number;
+  role: ShareRole;
+  /** SHA-256 of the link's token, hex; the token itself is shown once and never stored. */
+  token_hash: string;
+  /** The owner's own words for whom the link is for. */
+  label: ColumnType<string, string | undefined, string>;
+  created_by: number | null;
+  created_at: Timestamp;
+  expires_at: Timestamp | null;
+  revoked_at: Timestamp | null;
+  revoked_by: number | null;
+}
+
+export interface ShareLinkUsesTable {
+  id: Generated<number>;
+  share_link_id: number;
+  /** Null when someone without an account opened a view link. */
+  user_id: number | null;
+  used_at: Timestamp;
+}
+
+export interface NetworkGrantsTable {
+  /** A grant lives only as long as its link: revoking or expiry ends it at once. */
+  share_link_id: number;
+  user_id: number;
+  network_id: number;
+  role: ShareRole;
+  created_at: Timestamp;
+}
+
+export interface TeamInvitationsTable {
+  id: Generated<number>;
+  team_id: number;
+  /** Lower-cased and trimmed, like users.email. */
+  email: string;
+  role: TeamRole;
+  token_hash: string;
+  invited_by: number | null;
+  created_at: Timestamp;
+  expires_at: Timestamp;
+  accepted_at: Timestamp | null;
+  accepted_by: number | null;
+  revoked_at: Timestamp | null;
+}
+
+export interface PasswordResetsTable {
+  id: Generated<number>;
+  user_id: number;
+  token_hash: string;
+  created_at: Timestamp;
+  expires_at: Timestamp;
+  used_at: Timestamp | null;
+}
+
+export interface ReviewThreadsTable {
+  id: Generated<number>;
+  network_id: number;
+  /** The element the thread is pinned to; null for the sheet as a whole. */
+  element_id: string | null;
+  /** The element's name when the thread began, for when it is later removed. */
+  element_name: string | null;
+  /** The network revision the first note was written against. */
+  revision: number;
+  created_by: number | null;
+  created_at: Timestamp;
+  resolved_at: Timestamp | null;
+  resolved_by: number | null;
+}
+
+export interface ReviewNotesTable {
+  id: Generated<number>;
+  thread_id: number;
+  author_id: number | null;
+  body: string;
+  created_at: Timestamp;
+}
+
+export type ReviewNoteMail = "each" | "off";
+
+export interface UserSettingsTable {
+  user_id: number;
+  /** Owners hear of new review notes on their team's networks: "each" note, or "off". */
+  review_note_mail: ColumnType<ReviewNoteMail, ReviewNoteMail | undefined, ReviewNoteMail>;
+}
+
+export interface AuditEventsTable {
+  id: Generated<number>;
+  team_id: number;
+  kind: string;
+  /** Null for someone without an account (a view-link holder) or a removed account. */
+  actor_id: number | null;
+  network_id: number | null;
+  /** A sentence written when it happened, so later renames do not rewrite history. */
+  summary: string;
+  created_at: Timestamp;
+}
+
 export interface Database {
   users: UsersTable;
   sessions: SessionsTable;
@@ -125,6 +226,15 @@ export interface Database {
   ladder_studies: LadderStudiesTable;
   library_types: LibraryTypesTable;
   api_tokens: ApiTokensTable;
+  share_links: ShareLinksTable;
+  share_link_uses: ShareLinkUsesTable;
+  network_grants: NetworkGrantsTable;
+  team_invitations: TeamInvitationsTable;
+  password_resets: PasswordResetsTable;
+  review_threads: ReviewThreadsTable;
+  review_notes: ReviewNotesTable;
+  user_settings: UserSettingsTable;
+  audit_events: AuditEventsTable;
 }
 
 export type User = Selectable<UsersTable>;
@@ -146,3 +256,9 @@ export type NewNetworkRevision = Insertable<NetworkRevisionsTable>;
 export type LadderStudyRow = Selectable<LadderStudiesTable>;
 export type LibraryTypeRow = Selectable<LibraryTypesTable>;
 export type ApiTokenRow = Selectable<ApiTokensTable>;
+export type ShareLinkRow = Selectable<ShareLinksTable>;
+export type TeamInvitationRow = Selectable<TeamInvitationsTable>;
+export type PasswordResetRow = Selectable<PasswordResetsTable>;
+export type ReviewThreadRow = Selectable<ReviewThreadsTable>;
+export type ReviewNoteRow = Selectable<ReviewNotesTable>;
+export type AuditEventRow = Selectable<AuditEventsTable>;

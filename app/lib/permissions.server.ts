@@ -3,15 +3,20 @@
 import { data } from "react-router";
 import type { Db } from "#db/database.ts";
 import { findNetwork } from "#db/networks.ts";
-import type { NetworkRow, Team, TeamRole } from "#db/schema.ts";
+import type { NetworkRow, ShareRole, Team, TeamRole } from "#db/schema.ts";
+import { liveGrantRole } from "#db/shareLinks.ts";
 import { findRole, findTeam } from "#db/teams.ts";
 
 /**
- * Who is acting. Only signed-in users exist today; a share-link holder (a role on one network)
- * and an API token (a user's role, narrowed by the token's scope) will join this union, and
- * `roleOnTeam` / `roleOnNetwork` are the two places that then learn about them.
+ * Who is acting. A signed-in user acts with their team roles, plus the roles that share links
+ * they opened grant on single networks (network_grants, live only while the link is). A
+ * share-link holder without an account acts as the link itself: one role on exactly one
+ * network, nothing on any team or any other network. `roleOnTeam` / `roleOnNetwork` are the
+ * two places that know about each kind.
  */
-export type Actor = { kind: "user"; userId: number };
+export type Actor =
+  | { kind: "user"; userId: number }
+  | { kind: "share-link"; linkId: number; networkId: number; role: ShareRole };
 
 export const TEAM_ACTIONS = ["view-team", "leave-team", "create-in-team", "manage-members"] as const;
 export const NETWORK_ACTIONS = ["view", "edit", "rename", "delete", "restore", "share"] as const;
@@ -56,11 +61,19 @@ export function abilitiesOf(role: TeamRole | null | undefined): Record<Action, b
 }
 
 export async function roleOnTeam(db: Db, actor: Actor, teamId: number): Promise<TeamRole | null> {
+  if (actor.kind !== "user") return null;
   return (await findRole(db, teamId, actor.userId)) ?? null;
 }
 
-async function roleOnNetwork(db: Db, actor: Actor, network: Pick<NetworkRow, "team_id">): Promise<TeamRole | null> {
-  return roleOnTeam(db, actor, network.team_id);
+const ROLE_STRENGTH: Record<TeamRole, number> = { viewer: 1, editor: 2, owner: 3 };
+
+async function roleOnNetwork(db: Db, actor: Actor, network: Pick<NetworkRow, "id" | "team_id">): Promise<TeamRole | null> {
+  if (actor.kind === "share-link") return actor.networkId === network.id ? actor.role : null;
+  const teamRole = await roleOnTeam(db, actor, network.team_id);
+  if (teamRole === "owner") return teamRole;
+  const granted = await liveGrantRole(db, network.id, actor.userId);
+  if (!granted) return teamRole;
+  return !teamRole || ROLE_STRENGTH[granted] > ROLE_STRENGTH[teamRole] ? granted : teamRole;
 }
 
 export type Refusal = { ok: false; status: 403 | 404; error: string };
@@ -99,6 +112,7 @@ export async function networkAccess(
   const role = await roleOnNetwork(db, actor, network);
   if (!role) return missing;
   if (!roleAllows(role, action)) {
+    if ((await roleOnTeam(db, actor, network.team_id)) !== role) return refusedFor(role, action, "this network, given by a share link,");
     const team = await findTeam(db, network.team_id);
     return refusedFor(role, action, `the team "${team?.name ?? network.team_id}"`);
   }
