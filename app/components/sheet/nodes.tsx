@@ -42,7 +42,7 @@ function Terminal({ id, side, readOnly }: { id: TerminalId; side: Side; readOnly
       position={side === "left" ? Position.Left : Position.Right}
       isConnectable={!readOnly}
       className="ks-terminal"
-      aria-label={`${id === "t" ? "terminal" : `${id} terminal`}: drag to a busbar`}
+      title={readOnly ? undefined : `${id === "t" ? "Terminal" : `${id.toUpperCase()} terminal`}: drag to a busbar to connect`}
     />
   );
 }
