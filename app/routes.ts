@@ -12,6 +12,7 @@ export default [
     index("routes/networks/list.tsx"),
     route(":networkId", "routes/networks/network.tsx"),
     route(":networkId/ladder", "routes/networks/ladder.tsx"),
+    route(":networkId/report", "routes/networks/report.tsx"),
   ]),
 
   ...prefix("teams", [

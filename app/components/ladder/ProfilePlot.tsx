@@ -60,7 +60,7 @@ export function ProfilePlot({
         <Sized width={width} height={height}>
           <ComposedChart data={rows} margin={{ top: 12, right: 24, bottom: 8, left: 8 }}>
             <CartesianGrid stroke={gridStroke} />
-            <XAxis dataKey="name" tick={WrappedTick} interval={0} height={40} />
+            <XAxis dataKey="name" tick={WrappedTick} interval={0} height={40} padding={{ left: 36, right: 36 }} />
             <YAxis
               domain={[Number((low - pad).toFixed(3)), Number((high + pad).toFixed(3))]}
               tick={axisTick}
