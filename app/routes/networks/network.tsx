@@ -49,6 +49,16 @@ export default function NetworkPage({ loaderData }: Route.ComponentProps) {
             {revision.by ? ` by ${revision.by}` : ""}
           </>
         }
+        actions={
+          <>
+            <Link to={`/networks/${id}/ladder`} className="btn btn-small">
+              Voltage ladder
+            </Link>
+            <Link to={`/networks/${id}/report`} className="btn btn-small">
+              Study report
+            </Link>
+          </>
+        }
       />
       {document ? (
         <SheetEditor networkId={id} document={document} revision={revision.number} readOnly={role === "viewer"} />
