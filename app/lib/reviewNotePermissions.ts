@@ -1,0 +1,47 @@
+// Who may do what with review notes, given what the permissions module already answered about
+// the network. Pure, so the server's checks and the panel's buttons are the same rules.
+//  - reading needs view access (a view-link holder without an account reads too);
+//  - writing a note or a reply needs an account as well: every note has a named author;
+//  - resolving or reopening a thread needs an account and either edit access or the thread's
+//    first note being one's own (a reviewer closes what they raised).
+
+export interface NoteReader {
+  /** The signed-in user's id; null for someone holding a view link without an account. */
+  userId: number | null;
+  canView: boolean;
+  canEdit: boolean;
+}
+
+export function mayReadNotes(reader: NoteReader): boolean {
+  return reader.canView;
+}
+
+export function mayWriteNotes(reader: NoteReader): boolean {
+  return reader.userId !== null && reader.canView;
+}
+
+export function mayResolveThread(reader: NoteReader, thread: { createdBy: number | null }): boolean {
+  if (!mayWriteNotes(reader)) return false;
+  return reader.canEdit || (thread.createdBy !== null && thread.createdBy === reader.userId);
+}
+
+export const NOTE_BODY_MAX = 4000;
+
+/** The note's text trimmed, or the sentence that says why it cannot be stored. */
+export function checkNoteBody(raw: unknown): { ok: true; body: string } | { ok: false; error: string } {
+  const body = typeof raw === "string" ? raw.trim() : "";
+  if (!body) return { ok: false, error: "Write something in the note first." };
+  if (body.length > NOTE_BODY_MAX) return { ok: false, error: `A note may have at most ${NOTE_BODY_MAX} characters; this one has ${body.length}.` };
+  return { ok: true, body };
+}
+
+/** Open threads per element id ("" for the sheet as a whole), for badges and the panel's count. */
+export function openCountsByElement(threads: readonly { elementId: string | null; resolvedAt: string | null }[]): Record<string, number> {
+  const counts: Record<string, number> = {};
+  for (const t of threads) {
+    if (t.resolvedAt) continue;
+    const key = t.elementId ?? "";
+    counts[key] = (counts[key] ?? 0) + 1;
+  }
+  return counts;
+}

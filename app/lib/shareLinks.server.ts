@@ -1,0 +1,125 @@
+// Share links: an owner gives view or edit on one network to whoever holds the link. The link's
+// token is 256 random bits, shown once; only its hash is stored. A view link opens the network
+// read only without an account (as a share-link actor); any link opened by a signed-in person
+// records a grant for them on that network, which lives exactly as long as the link does.
+import { z } from "zod";
+import type { Db } from "#db/database.ts";
+import { insertAuditEvent } from "#db/auditEvents.ts";
+import { findNetwork } from "#db/networks.ts";
+import type { NetworkRow, ShareLinkRow, ShareRole, User } from "#db/schema.ts";
+import {
+  findShareLinkByHash,
+  insertGrant,
+  insertShareLink,
+  markShareLinkRevoked,
+  recordShareLinkUse,
+} from "#db/shareLinks.ts";
+import type { Actor } from "./permissions.server.ts";
+import { daysFrom, hashSecretToken, looksLikeSecretToken, newSecretToken, secretState } from "./secretTokens.server.ts";
+
+export const SHARE_EXPIRY_MAX_DAYS = 365;
+
+export const shareRequestSchema = z.strictObject({
+  role: z.enum(["viewer", "editor"], { error: 'role must be "viewer" or "editor"' }),
+  expiresInDays: z
+    .number({ error: "expiresInDays must be a whole number of days, or null for a link that does not expire" })
+    .int("expiresInDays must be a whole number of days")
+    .min(1, "expiresInDays must be at least 1")
+    .max(SHARE_EXPIRY_MAX_DAYS, `expiresInDays may be at most ${SHARE_EXPIRY_MAX_DAYS}`)
+    .nullable()
+    .optional(),
+  label: z.string().trim().max(200, "label may have at most 200 characters").optional(),
+});
+export type ShareRequest = z.infer<typeof shareRequestSchema>;
+
+export function shareUrl(origin: string, token: string): string {
+  return `${origin}/s/${token}`;
+}
+
+const ROLE_WORDS: Record<ShareRole, string> = { viewer: "view", editor: "edit" };
+
+export async function createShareLink(
+  db: Db,
+  input: { network: NetworkRow; request: ShareRequest; by: User; origin: string; now?: Date },
+): Promise<{ link: ShareLinkRow; url: string }> {
+  const now = input.now ?? new Date();
+  const token = newSecretToken();
+  const { role, expiresInDays, label } = input.request;
+  const link = await insertShareLink(db, {
+    networkId: input.network.id,
+    role,
+    tokenHash: hashSecretToken(token),
+    label: label ?? "",
+    createdBy: input.by.id,
+    expiresAt: expiresInDays ? daysFrom(now, expiresInDays) : null,
+    now,
+  });
+  const lasting = expiresInDays ? `for ${expiresInDays} ${expiresInDays === 1 ? "day" : "days"}` : "without expiry";
+  await insertAuditEvent(db, {
+    teamId: input.network.team_id,
+    kind: "share-created",
+    actorId: input.by.id,
+    networkId: input.network.id,
+    summary: `${input.by.name} created ${role === "editor" ? "an edit" : "a view"} link #${link.id} to "${input.network.name}" ${lasting}${label ? ` (${label})` : ""}.`,
+    now,
+  });
+  return { link, url: shareUrl(input.origin, token) };
+}
+
+/** Revokes at once; false when the link was already revoked. */
+export async function revokeShareLink(db: Db, link: ShareLinkRow, by: User, now = new Date()): Promise<boolean> {
+  if (!(await markShareLinkRevoked(db, link.id, by.id, now))) return false;
+  const network = await findNetwork(db, link.network_id);
+  if (network) {
+    await insertAuditEvent(db, {
+      teamId: network.team_id,
+      kind: "share-revoked",
+      actorId: by.id,
+      networkId: network.id,
+      summary: `${by.name} revoked the ${ROLE_WORDS[link.role]} link #${link.id} to "${network.name}".`,
+      now,
+    });
+  }
+  return true;
+}
+
+export type OpenedShareLink =
+  | { state: "unknown" }
+  | { state: "revoked" | "expired"; link: ShareLinkRow }
+  | { state: "gone"; link: ShareLinkRow }
+  | { state: "live"; link: ShareLinkRow; network: NetworkRow };
+
+/** What a token in an address stands for right now; checked on every request. */
+export async function openShareLink(db: Db, token: string | undefined, now = new Date()): Promise<OpenedShareLink> {
+  if (!looksLikeSecretToken(token)) return { state: "unknown" };
+  const link = await findShareLinkByHash(db, hashSecretToken(token));
+  if (!link) return { state: "unknown" };
+  const state = secretState(link, now);
+  if (state === "revoked" || state === "expired") return { state, link };
+  const network = await findNetwork(db, link.network_id);
+  if (!network || network.deleted_at !== null) return { state: "gone", link };
+  return { state: "live", link, network };
+}
+
+/** The actor of someone holding a view link without signing in: that one network, that role. */
+export function shareLinkActor(link: ShareLinkRow): Actor {
+  return { kind: "share-link", linkId: link.id, networkId: link.network_id, role: link.role };
+}
+
+/** Notes the use (one row per visit) and, for a new visit, a line in the team's audit log. */
+export async function noteShareLinkUse(db: Db, link: ShareLinkRow, network: NetworkRow, user: User | null, now = new Date()) {
+  if (!(await recordShareLinkUse(db, link.id, user?.id ?? null, now))) return;
+  await insertAuditEvent(db, {
+    teamId: network.team_id,
+    kind: "link-used",
+    actorId: user?.id ?? null,
+    networkId: network.id,
+    summary: `${user ? user.name : "Someone without an account"} opened the ${ROLE_WORDS[link.role]} link #${link.id} to "${network.name}".`,
+    now,
+  });
+}
+
+/** A signed-in person opened a live link: they hold its role on its network while it lives. */
+export async function grantFromLink(db: Db, link: ShareLinkRow, user: User, now = new Date()): Promise<void> {
+  await insertGrant(db, link, user.id, now);
+}
