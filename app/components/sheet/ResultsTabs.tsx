@@ -268,15 +268,17 @@ const tabs: { id: TabId; label: string }[] = [
   { id: "profile", label: "Voltage profile" },
 ];
 
-function CsvLink({ table, networkId, revision }: { table: "buses" | "branches"; networkId: string; revision: number }) {
+function CsvLink({ table, csvBase, revision }: { table: "buses" | "branches"; csvBase: string | null; revision: number }) {
+  if (csvBase === null) return null;
   return (
-    <a className="btn btn-small" href={`/api/networks/${encodeURIComponent(networkId)}/results.csv?table=${table}`} download>
+    <a className="btn btn-small" href={`${csvBase}/results.csv?table=${table}`} download>
       Download CSV of {table} <span className="ks-muted">(saved revision {revision})</span>
     </a>
   );
 }
 
-export function ResultsTabs() {
+/** `csvBase`: where the results CSV comes from (default the network's API); null hides the links. */
+export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   const solve = useSheet((s) => s.solve);
   const document = useSheet((s) => s.document);
   const networkId = useSheet((s) => s.networkId);
@@ -320,7 +322,7 @@ export function ResultsTabs() {
       <>
         <ResultsTable caption="Bus voltages" data={rows.buses} columns={busColumns} />
         <div className="ks-results-foot">
-          <CsvLink table="buses" networkId={networkId} revision={savedRevision} />
+          <CsvLink table="buses" csvBase={csvBase === undefined ? `/api/networks/${encodeURIComponent(networkId)}` : csvBase} revision={savedRevision} />
           <p className="ks-muted">
             Angles are given as if every transformer were Yy0: vector-group phase shifts are not applied, which changes no
             magnitude or flow in a radial network.
@@ -333,7 +335,7 @@ export function ResultsTabs() {
       <>
         <ResultsTable caption="Branch flows" data={rows.branches} columns={branchColumns} />
         <div className="ks-results-foot">
-          <CsvLink table="branches" networkId={networkId} revision={savedRevision} />
+          <CsvLink table="branches" csvBase={csvBase === undefined ? `/api/networks/${encodeURIComponent(networkId)}` : csvBase} revision={savedRevision} />
           <p className="ks-muted">P and Q are measured into the branch at each end; loss is I²R for lines, copper plus core for transformers.</p>
         </div>
       </>

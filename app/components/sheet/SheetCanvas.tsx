@@ -6,8 +6,10 @@ import {
   BackgroundVariant,
   ConnectionLineType,
   ConnectionMode,
+  Panel,
   ReactFlow,
   useReactFlow,
+  useStore as useFlowStore,
   type Connection,
   type EdgeChange,
   type IsValidConnection,
@@ -29,6 +31,8 @@ import { useSheet, useSheetActions, useSheetStoreApi } from "./sheetStore.ts";
 import { edgeTypes } from "./wires.tsx";
 
 export const PART_DRAG_TYPE = "application/x-kilostep-part";
+
+const FAR_ZOOM = 0.5;
 
 const snapToGrid = (p: XY): XY => ({ x: Math.round(p.x / GRID_PX) * GRID_PX, y: Math.round(p.y / GRID_PX) * GRID_PX });
 
@@ -121,6 +125,10 @@ export function SheetCanvas() {
   const readOnly = useSheet((s) => s.readOnly);
   const focusRequest = useSheet((s) => s.focusRequest);
   const { screenToFlowPosition, setCenter, getZoom } = useReactFlow();
+  // Below this zoom, 11 px text is smaller than 5 px on screen: names and Readings are left out,
+  // which also keeps a large sheet quick to redraw.
+  const far = useFlowStore((flow) => flow.transform[2] < FAR_ZOOM);
+  const showReadings = useSheet((s) => s.showReadings);
 
   const flow = useMemo(
     () => documentToFlow(document, layout, { selection: new Set(selection), overrides: dragPositions ?? undefined }),
@@ -239,9 +247,15 @@ export function SheetCanvas() {
       minZoom={0.2}
       maxZoom={3}
       attributionPosition="bottom-left"
-      className="ks-sheet"
+      onlyRenderVisibleElements
+      className={far ? "ks-sheet ks-sheet-far" : "ks-sheet"}
       aria-label="The sheet"
     >
+      {far && showReadings ? (
+        <Panel position="top-right" className="ks-far-hint">
+          Zoom in to read names and Readings
+        </Panel>
+      ) : null}
       <Background id="minor" variant={BackgroundVariant.Lines} gap={GRID_PX} lineWidth={0.5} color="var(--ks-grid-minor)" />
       <Background id="major" variant={BackgroundVariant.Lines} gap={GRID_PX * 5} lineWidth={0.8} color="var(--ks-grid-major)" />
     </ReactFlow>

@@ -2,7 +2,7 @@
 // One store per editor (see sheetStore.ts); saving, drafts and live solving hang off that store.
 import "@xyflow/react/dist/style.css";
 import "./sheet.css";
-import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from "react";
 import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
 import type { Network } from "#solver/schema.ts";
 import { browserEnvironment, startAutosave, type Autosave } from "./autosave.ts";
@@ -31,14 +31,18 @@ export interface SheetEditorProps {
   readOnly?: boolean;
   /** The team's own equipment types, offered before the built-in ones. */
   library?: EquipmentTypes;
+  /** Shown under Checks and inside the editor's providers, so it may read the sheet: review notes. */
+  aside?: ReactNode;
+  /** Where the results CSV downloads come from (default the network's API); null hides them. */
+  resultsCsvBase?: string | null;
 }
 
-export function SheetEditor({ networkId, document, revision, readOnly = false, library }: SheetEditorProps) {
+export function SheetEditor({ networkId, document, revision, readOnly = false, library, aside, resultsCsvBase }: SheetEditorProps) {
   const [store] = useState(() => createSheetStore({ networkId: String(networkId), document, revision, readOnly }));
   return (
     <SheetStoreContext.Provider value={store}>
       <ReactFlowProvider>
-        <EditorLayout library={library ?? {}} />
+        <EditorLayout library={library ?? {}} aside={aside} resultsCsvBase={resultsCsvBase} />
       </ReactFlowProvider>
     </SheetStoreContext.Provider>
   );
@@ -56,7 +60,15 @@ function commitFieldBeingTyped() {
 
 const snap = (p: XY): XY => ({ x: Math.round(p.x / GRID_PX) * GRID_PX, y: Math.round(p.y / GRID_PX) * GRID_PX });
 
-function EditorLayout({ library }: { library: EquipmentTypes }) {
+function EditorLayout({
+  library,
+  aside,
+  resultsCsvBase,
+}: {
+  library: EquipmentTypes;
+  aside: ReactNode;
+  resultsCsvBase: string | null | undefined;
+}) {
   const store = useSheetStoreApi();
   const readOnly = useSheet((s) => s.readOnly);
   const solve = useSheet((s) => s.solve);
@@ -157,11 +169,12 @@ function EditorLayout({ library }: { library: EquipmentTypes }) {
           <div className="ks-canvas" ref={canvasRef} onPointerDownCapture={commitFieldBeingTyped}>
             <SheetCanvas />
           </div>
-          <ResultsTabs />
+          <ResultsTabs csvBase={resultsCsvBase} />
         </div>
         <div className="ks-side">
           <DetailsPanel library={library} />
           <ChecksPanel />
+          {aside}
         </div>
       </div>
       <ShortcutHelp />
