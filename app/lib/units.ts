@@ -86,5 +86,6 @@ export function parseQuantity(input: string, kind: QuantityKind): ParsedQuantity
 function understood(value: number, kind: QuantityKind): ParsedQuantity {
   if (!Number.isFinite(value)) return { ok: false, error: "must be a finite number" };
   const tidied = tidy(value);
-  return { ok: true, value: tidied, understood: `= ${formatQuantity(tidied, kind)}` };
+  // Six significant digits are plenty to confirm what was read; the field keeps all twelve.
+  return { ok: true, value: tidied, understood: `= ${formatQuantity(Number(tidied.toPrecision(6)), kind)}` };
 }

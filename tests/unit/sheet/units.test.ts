@@ -65,6 +65,10 @@ describe("parseQuantity reads what a planner types", () => {
     expect(parsed).toEqual({ ok: true, value: 0.5, understood: "= 0.5 kV" });
     const pct = parseQuantity("18", "pct");
     expect(pct.ok && pct.understood).toBe("= 18 %");
+    // 0.1 ohm per mile is 0.0621371192237… ohm/km: stored in full, confirmed in six digits
+    const perMile = parseQuantity("0.1 ohm/mi", "ohmPerKm");
+    expect(perMile.ok && perMile.understood).toBe("= 0.0621371 Ω/km");
+    expect(perMile.ok && perMile.value).toBeCloseTo(0.1 / 1.609344, 12);
   });
 
   it("refuses units of the wrong kind with a sentence naming what it expected", () => {
