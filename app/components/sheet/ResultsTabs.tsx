@@ -282,6 +282,7 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   const solve = useSheet((s) => s.solve);
   const document = useSheet((s) => s.document);
   const networkId = useSheet((s) => s.networkId);
+  const csvFrom = csvBase === undefined ? `/api/networks/${encodeURIComponent(networkId)}` : csvBase;
   const savedRevision = useSheet((s) => s.savedRevision);
   const [active, setActive] = useState<TabId>("buses");
   const tabRefs = useRef<Record<string, HTMLButtonElement | null>>({});
@@ -322,7 +323,7 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
       <>
         <ResultsTable caption="Bus voltages" data={rows.buses} columns={busColumns} />
         <div className="ks-results-foot">
-          <CsvLink table="buses" csvBase={csvBase === undefined ? `/api/networks/${encodeURIComponent(networkId)}` : csvBase} revision={savedRevision} />
+          <CsvLink table="buses" csvBase={csvFrom} revision={savedRevision} />
           <p className="ks-muted">
             Angles are given as if every transformer were Yy0: vector-group phase shifts are not applied, which changes no
             magnitude or flow in a radial network.
@@ -335,7 +336,7 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
       <>
         <ResultsTable caption="Branch flows" data={rows.branches} columns={branchColumns} />
         <div className="ks-results-foot">
-          <CsvLink table="branches" csvBase={csvBase === undefined ? `/api/networks/${encodeURIComponent(networkId)}` : csvBase} revision={savedRevision} />
+          <CsvLink table="branches" csvBase={csvFrom} revision={savedRevision} />
           <p className="ks-muted">P and Q are measured into the branch at each end; loss is I²R for lines, copper plus core for transformers.</p>
         </div>
       </>
