@@ -337,11 +337,6 @@ function LadderStudy() {
               ) : null}
             </div>
           </div>
-          <p className="ks-caution">
-            <strong>Caution:</strong> planning-stage screening. Verify against the applicable grid code, local regulations and the equipment
-            makers' data; protection settings and construction designs must be done and approved by licensed engineers. Fault levels by
-            IEC 60909-0 are not a protection study.
-          </p>
         </section>
       ) : null}
     </div>

@@ -55,6 +55,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
+const counted = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+
 export default function ReportPage({ loaderData }: Route.ComponentProps) {
   const { id, name, solved, study, ladder } = loaderData;
   return (
@@ -101,9 +103,14 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
           <section className="ks-report-part" aria-labelledby="report-network">
             <h2 id="report-network">1. The network</h2>
             <p>
-              {solved.network.buses.length} buses, {solved.network.transformers.length} transformers, {solved.network.lines.length} lines and
-              cables, {solved.network.loads.length} loads, {solved.network.shunts.length} shunts; {solved.network.frequencyHz} Hz, system base{" "}
-              {solved.network.baseMVA} MVA. Bus voltages from the load flow are written under each bus.
+              {[
+                counted(solved.network.buses.length, "bus", "buses"),
+                counted(solved.network.transformers.length, "transformer", "transformers"),
+                counted(solved.network.lines.length, "line or cable", "lines and cables"),
+                counted(solved.network.loads.length, "load", "loads"),
+                counted(solved.network.shunts.length, "shunt", "shunts"),
+              ].join(", ")}
+              ; {solved.network.frequencyHz} Hz, system base {solved.network.baseMVA} MVA. Bus voltages from the load flow are written under each bus.
             </p>
             <figure className="ks-report-figure">
               <SingleLineDrawing
