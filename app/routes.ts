@@ -7,10 +7,14 @@ export default [
   route("sign-up", "routes/auth/sign-up.tsx"),
   route("sign-out", "routes/auth/sign-out.tsx"),
   route("account", "routes/auth/account.tsx"),
+  route("account/tokens", "routes/auth/api-tokens.ts"),
+  route("docs/api", "routes/docs/api.tsx"),
 
   ...prefix("networks", [
     index("routes/networks/list.tsx"),
+    route("upload", "routes/networks/upload.tsx"),
     route(":networkId", "routes/networks/network.tsx"),
+    route(":networkId/loads-import", "routes/networks/loads-import.tsx"),
     route(":networkId/ladder", "routes/networks/ladder.tsx"),
     route(":networkId/report", "routes/networks/report.tsx"),
   ]),
@@ -19,6 +23,7 @@ export default [
     index("routes/teams/list.tsx"),
     route("new", "routes/teams/new.tsx"),
     route(":teamId", "routes/teams/team.tsx"),
+    route(":teamId/library", "routes/teams/library.tsx"),
   ]),
 
   ...prefix("api", [
@@ -27,6 +32,7 @@ export default [
     route("networks", "routes/api/networks.ts"),
     route("networks/:networkId", "routes/api/network.ts"),
     route("networks/:networkId/solve", "routes/api/network-solve.ts"),
+    route("networks/:networkId/export", "routes/api/network-export.ts"),
     route("networks/:networkId/ladder", "routes/api/ladder.ts"),
   ]),
 ] satisfies RouteConfig;

@@ -7,7 +7,9 @@ import { findUserByEmail } from "#db/users.ts";
 import type { User } from "#db/schema.ts";
 import { getDb } from "./db.server.ts";
 import { verifyPassword } from "./password.server.ts";
+import { userFromApiToken } from "./apiAuth.server.ts";
 import type { Actor } from "./permissions.server.ts";
+import { guardApiRequest, guardPageRequest } from "./requestGuards.server.ts";
 import { getSessionUser } from "./session.server.ts";
 
 /** Wrong e-mail or wrong password: deliberately one case, so the answer reveals neither. */
@@ -35,8 +37,9 @@ export function userActor(user: User): Actor {
   return { kind: "user", userId: user.id };
 }
 
-/** The signed-in user, or a redirect to the sign-in page that comes back here afterwards. */
+/** The signed-in user, or a redirect to the sign-in page that comes back here afterwards; refuses unsafe writes first. */
 export async function requireUser(request: Request): Promise<User> {
+  guardPageRequest(request);
   const user = await getSessionUser(request);
   if (user) return user;
   const url = new URL(request.url);
@@ -44,12 +47,19 @@ export async function requireUser(request: Request): Promise<User> {
   throw redirect(`/sign-in?${new URLSearchParams({ redirectTo: back })}`);
 }
 
-/** For the JSON API: the signed-in user, or a 401 answer in JSON (an API client cannot follow a sign-in page). */
+/**
+ * For the JSON API: the owner of the request's API token (Authorization: Bearer, capped by its
+ * scope), else the signed-in user, or a 401 answer in JSON (an API client cannot follow a sign-in
+ * page). Cross-origin writes, oversized bodies and too many solves are refused here too.
+ */
 export async function requireApiUser(request: Request): Promise<User> {
-  const user = await getSessionUser(request);
-  if (user) return user;
+  const user = (await userFromApiToken(request)) ?? (await getSessionUser(request));
+  if (user) {
+    guardApiRequest(request, user.id);
+    return user;
+  }
   throw Response.json(
-    { error: "Sign in first: this request carries no valid session cookie." },
+    { error: "Sign in first: this request carries neither a valid session cookie nor an API token (Authorization: Bearer …)." },
     { status: 401 },
   );
 }

@@ -18,7 +18,7 @@ export type Actor =
   | { kind: "user"; userId: number }
   | { kind: "share-link"; linkId: number; networkId: number; role: ShareRole };
 
-export const TEAM_ACTIONS = ["view-team", "leave-team", "create-in-team", "manage-members"] as const;
+export const TEAM_ACTIONS = ["view-team", "leave-team", "create-in-team", "manage-members", "edit-library"] as const;
 export const NETWORK_ACTIONS = ["view", "edit", "rename", "delete", "restore", "share"] as const;
 export type TeamAction = (typeof TEAM_ACTIONS)[number];
 export type NetworkAction = (typeof NETWORK_ACTIONS)[number];
@@ -28,7 +28,7 @@ export const ROLES: readonly TeamRole[] = ["owner", "editor", "viewer"];
 
 const GRANTS: Record<TeamRole, ReadonlySet<Action>> = {
   owner: new Set<Action>([...TEAM_ACTIONS, ...NETWORK_ACTIONS]),
-  editor: new Set<Action>(["view-team", "leave-team", "create-in-team", "view", "edit", "rename"]),
+  editor: new Set<Action>(["view-team", "leave-team", "create-in-team", "edit-library", "view", "edit", "rename"]),
   viewer: new Set<Action>(["view-team", "leave-team", "view"]),
 };
 
@@ -37,6 +37,7 @@ const ACTION_WORDS: Record<Action, string> = {
   "leave-team": "leaving this team",
   "create-in-team": "creating a network in this team",
   "manage-members": "managing this team's members",
+  "edit-library": "changing this team's equipment library",
   view: "opening this network",
   edit: "changing this network",
   rename: "renaming this network",

@@ -1,21 +1,24 @@
 import { Form, Link } from "react-router";
 import type { Route } from "./+types/account";
+import { ApiTokensPanel } from "#app/components/ApiTokensPanel.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDate } from "#app/lib/format.ts";
+import { listApiTokens } from "#db/apiTokens.ts";
 import { teamsOfUser } from "#db/teams.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Account · Kilostep" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const teams = await teamsOfUser(await getDb(), user.id);
-  return { name: user.name, email: user.email, since: user.created_at, teams };
+  const db = await getDb();
+  const [teams, tokens] = await Promise.all([teamsOfUser(db, user.id), listApiTokens(db, user.id)]);
+  return { name: user.name, email: user.email, since: user.created_at, teams, tokens };
 }
 
 export default function Account({ loaderData }: Route.ComponentProps) {
-  const { name, email, since, teams } = loaderData;
+  const { name, email, since, teams, tokens } = loaderData;
   return (
     <>
       <PageTitle title="Account" lead={`Signed in as ${email}.`} />
@@ -52,6 +55,7 @@ export default function Account({ loaderData }: Route.ComponentProps) {
           </ul>
         </section>
       </div>
+      <ApiTokensPanel tokens={tokens} />
     </>
   );
 }

@@ -6,6 +6,7 @@ import { authenticator, InvalidCredentials, redirectIfSignedIn } from "#app/lib/
 import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields, signInSchema } from "#app/lib/forms.ts";
 import { safeRedirect } from "#app/lib/redirect.ts";
+import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 import { startSession } from "#app/lib/session.server.ts";
 import {
   clientAddress,
@@ -25,6 +26,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  guardPageRequest(request);
   // The form strategy reads the body itself, so read a clone here and leave the original unread.
   const form = await request.clone().formData();
   const redirectTo = safeRedirect(form.get("redirectTo"));

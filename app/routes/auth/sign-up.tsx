@@ -6,6 +6,7 @@ import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields, MIN_PASSWORD_LENGTH, signUpSchema } from "#app/lib/forms.ts";
 import { hashPassword } from "#app/lib/password.server.ts";
 import { safeRedirect } from "#app/lib/redirect.ts";
+import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 import { startSession } from "#app/lib/session.server.ts";
 import { insertTeamWithOwner } from "#db/teams.ts";
 import { findUserByEmail, insertUser } from "#db/users.ts";
@@ -21,6 +22,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
+  guardPageRequest(request);
   const form = await request.formData();
   const redirectTo = safeRedirect(form.get("redirectTo"));
   const parsed = signUpSchema.safeParse(formFields(form));

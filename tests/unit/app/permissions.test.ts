@@ -21,18 +21,19 @@ import { insertMembership, insertTeamWithOwner } from "#db/teams.ts";
 import { makeUser } from "./harness.ts";
 
 // The product's rules, written out by hand (not derived from the module under test):
-// owners do everything; editors create, change and rename; viewers only look (and may leave).
+// owners do everything; editors create, change and rename, and keep the team's equipment library;
+// viewers only look (and may leave).
 const EXPECTED: Record<TeamRole, Record<Action, boolean>> = {
   owner: {
-    "view-team": true, "leave-team": true, "create-in-team": true, "manage-members": true,
+    "view-team": true, "leave-team": true, "create-in-team": true, "manage-members": true, "edit-library": true,
     view: true, edit: true, rename: true, delete: true, restore: true, share: true,
   },
   editor: {
-    "view-team": true, "leave-team": true, "create-in-team": true, "manage-members": false,
+    "view-team": true, "leave-team": true, "create-in-team": true, "manage-members": false, "edit-library": true,
     view: true, edit: true, rename: true, delete: false, restore: false, share: false,
   },
   viewer: {
-    "view-team": true, "leave-team": true, "create-in-team": false, "manage-members": false,
+    "view-team": true, "leave-team": true, "create-in-team": false, "manage-members": false, "edit-library": false,
     view: true, edit: false, rename: false, delete: false, restore: false, share: false,
   },
 };

@@ -1,0 +1,49 @@
+// A team's equipment library: reading it for the library page and for the sheet, and checking
+// every write against the type schemas before it reaches the table.
+import type { Db } from "#db/database.ts";
+import { listLibraryTypes, type LibraryTypeListing } from "#db/libraryTypes.ts";
+import {
+  conductorTypeDataSchema,
+  toConductorType,
+  toTransformerType,
+  transformerTypeDataSchema,
+  type ConductorTypeData,
+  type TeamConductorType,
+  type TeamTransformerType,
+  type TransformerTypeData,
+} from "./libraryTypes.ts";
+
+export type LibraryEntry =
+  | { id: number; kind: "transformer"; name: string; data: TransformerTypeData; createdByName: string | null; updatedAt: string }
+  | { id: number; kind: "conductor"; name: string; data: ConductorTypeData; createdByName: string | null; updatedAt: string };
+
+/** A stored type whose data no longer reads under today's schema is left out rather than guessed at. */
+function readEntry(row: LibraryTypeListing): LibraryEntry | null {
+  const base = { id: row.id, name: row.name, createdByName: row.createdByName, updatedAt: row.updatedAt };
+  if (row.kind === "transformer") {
+    const data = transformerTypeDataSchema.safeParse(row.data);
+    return data.success ? { ...base, kind: "transformer", data: data.data } : null;
+  }
+  const data = conductorTypeDataSchema.safeParse(row.data);
+  return data.success ? { ...base, kind: "conductor", data: data.data } : null;
+}
+
+export async function teamLibrary(db: Db, teamId: number): Promise<LibraryEntry[]> {
+  return (await listLibraryTypes(db, teamId)).flatMap((row) => readEntry(row) ?? []);
+}
+
+/**
+ * The team's own types in the shapes of the built-in library, for the sheet's type pickers
+ * (`EquipmentTypes` of the sheet's EquipmentPicker): call it from a loader after checking that
+ * the caller may view the team or the network.
+ */
+export async function teamEquipmentTypes(
+  db: Db,
+  team: { id: number; name: string },
+): Promise<{ transformers: TeamTransformerType[]; conductors: TeamConductorType[] }> {
+  const entries = await teamLibrary(db, team.id);
+  return {
+    transformers: entries.flatMap((e) => (e.kind === "transformer" ? [toTransformerType(e.id, e.name, e.data, team.name)] : [])),
+    conductors: entries.flatMap((e) => (e.kind === "conductor" ? [toConductorType(e.id, e.name, e.data, team.name)] : [])),
+  };
+}
