@@ -13,7 +13,7 @@ import {
 } from "#app/components/sheet/symbols.tsx";
 import { strokeFor } from "#app/components/sheet/voltageClasses.ts";
 import type { Network } from "#solver/schema.ts";
-import { ATTACHMENT_TEXT_OFFSET, layoutSingleLine, type PlacedAttachment, type PlacedBranch, type PlacedBus } from "./singleLineLayout.ts";
+import { ATTACHMENT_TEXT_OFFSET, layoutSingleLine, type LoopBranch, type PlacedAttachment, type PlacedBranch, type PlacedBus } from "./singleLineLayout.ts";
 
 const SYMBOL_WIDTH = 56;
 // The stub and symbol sizes here and ATTACHMENT_TEXT_OFFSET in the layout must agree.
@@ -60,21 +60,9 @@ export function SingleLineDrawing({ network, busNotes, highlightBusIds = [], onP
       {layout.branches.map((b) => (
         <Branch key={b.id} branch={b} />
       ))}
-      {layout.loops.map((loop) => {
-        const s = stroke(loop.fromKV);
-        const mid = (loop.fromX + loop.toX) / 2;
-        return (
-          <g key={loop.id}>
-            <polyline
-              points={`${loop.fromX},${loop.fromY} ${loop.fromX},${loop.y} ${loop.toX},${loop.y} ${loop.toX},${loop.toY}`}
-              fill="none"
-              stroke={s.colour}
-              strokeWidth={s.strokePx}
-            />
-            <BranchLabel x={mid} y={loop.y} nameLines={loop.nameLines} details={loop.details} />
-          </g>
-        );
-      })}
+      {layout.loops.map((loop) => (
+        <Loop key={loop.id} loop={loop} />
+      ))}
       {layout.attachments.map((a) => (
         <Attachment key={a.id} attachment={a} />
       ))}
@@ -170,6 +158,53 @@ function Branch({ branch: b }: { branch: PlacedBranch }) {
         )}
       </g>
       <BranchLabel x={mid} y={b.y} nameLines={b.nameLines} details={b.details} />
+    </g>
+  );
+}
+
+/** A branch that closes a loop: down from one bus, along under the drawing with its symbol, up to the other. */
+function Loop({ loop }: { loop: LoopBranch }) {
+  const from = stroke(loop.fromKV);
+  const to = stroke(loop.toKV);
+  const [leftX, rightX] = [Math.min(loop.fromX, loop.toX), Math.max(loop.fromX, loop.toX)];
+  const fromIsLeft = loop.fromX <= loop.toX;
+  const mid = (leftX + rightX) / 2;
+  const roomForSymbol = rightX - leftX >= SYMBOL_WIDTH + 24;
+  const symbolX = mid - SYMBOL_WIDTH / 2;
+  const leftStroke = fromIsLeft ? from : to;
+  const rightStroke = fromIsLeft ? to : from;
+  const [leftY, rightY] = fromIsLeft ? [loop.fromY, loop.toY] : [loop.toY, loop.fromY];
+  return (
+    <g>
+      <polyline
+        points={`${leftX},${leftY} ${leftX},${loop.y} ${roomForSymbol ? symbolX : mid},${loop.y}`}
+        fill="none"
+        stroke={leftStroke.colour}
+        strokeWidth={leftStroke.strokePx}
+      />
+      <polyline
+        points={`${roomForSymbol ? symbolX + SYMBOL_WIDTH : mid},${loop.y} ${rightX},${loop.y} ${rightX},${rightY}`}
+        fill="none"
+        stroke={rightStroke.colour}
+        strokeWidth={rightStroke.strokePx}
+      />
+      {roomForSymbol ? (
+        <g transform={`translate(${symbolX} ${loop.y - SYMBOL_HEIGHT / 2})`}>
+          {loop.kind === "transformer" ? (
+            <TransformerSymbol
+              width={SYMBOL_WIDTH}
+              height={SYMBOL_HEIGHT}
+              hvSide={fromIsLeft ? "left" : "right"}
+              hvStroke={from}
+              lvStroke={to}
+              tapChanger={loop.tapChanger}
+            />
+          ) : (
+            <LineSymbol width={SYMBOL_WIDTH} height={SYMBOL_HEIGHT} stroke={leftStroke} cable={loop.kind === "cable"} />
+          )}
+        </g>
+      ) : null}
+      <BranchLabel x={mid} y={loop.y} nameLines={loop.nameLines} details={loop.details} />
     </g>
   );
 }

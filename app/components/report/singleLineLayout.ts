@@ -54,7 +54,7 @@ export interface PlacedBranch {
   details: string[];
 }
 
-/** A branch that closes a loop: drawn under the drawing from one bus to the other. */
+/** A branch that closes a loop: drawn under the drawing from one bus to the other; a transformer's "from" is its HV bus. */
 export interface LoopBranch {
   id: string;
   name: string;
@@ -68,6 +68,7 @@ export interface LoopBranch {
   y: number;
   fromKV: number;
   toKV: number;
+  tapChanger: boolean;
   nameLines: string[];
   details: string[];
 }
@@ -258,6 +259,7 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
       y: yOf(lastRow) + ROW_HEIGHT * (0.6 + i * 0.75),
       fromKV: from.nominalKV,
       toKV: to.nominalKV,
+      tapChanger: e.kind === "transformer" && isOnLoadTapChanger(network, e.id),
       nameLines: wrapName(e.name),
       details: branchDetails(network, e),
     };
