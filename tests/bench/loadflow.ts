@@ -34,7 +34,7 @@ interface Measurement {
   validateMs: number;
 }
 
-/** Collects the previous run's garbage between runs (outside the timing) when the flag allows it. */
+/** Collects garbage before the memory reading (a collection before every timed run would slow the runs: the heap shrinks and regrows). */
 const collectGarbage = (globalThis as { gc?: () => void }).gc ?? (() => undefined);
 
 function heldBytes(): number {
@@ -51,7 +51,6 @@ function measure(busCount: number): Measurement {
   const cpuTimes: number[] = [];
   let result = runLoadFlow(network);
   for (let r = 0; r < runs; r++) {
-    collectGarbage();
     const cpuStarted = process.cpuUsage();
     const started = performance.now();
     result = runLoadFlow(network);
@@ -132,7 +131,7 @@ export const loadFlowBench: Bench = {
   run(): void {
     console.log(
       `load flow: synthetic radial feeders (132/33 kV infeed, 33 kV trunk, 33/11 kV laterals with spurs, 11/0.4 kV ends), ` +
-        `median of repeated solves with garbage collected between them, each size in its own process ` +
+        `median of repeated solves, each size in its own process ` +
         `(peak RSS target ≤ ${TARGET_PEAK_MB} MB at 100,000 buses); load average now ${loadAverage()}`,
     );
     printTable(SIZES.map(measureInChild));
