@@ -8,7 +8,7 @@ import type { Network } from "#solver/schema.ts";
 import { fixed, kvText } from "./ladderText.ts";
 import { conductorOptions, emptyAlternative, SAVED_CONDUCTOR, voltageKey, type AlternativeDraft, type FieldErrors, type StudyDraft } from "./studyDraft.ts";
 
-const signedPct = (value: number) => `${value > 0 ? "+" : ""}${value}`;
+const signedPct = (value: number) => (value > 0 ? `+${value}` : value < 0 ? `−${-value}` : "0");
 
 export function AlternativeInputs({
   network,
