@@ -122,7 +122,8 @@ function WrappedTick({ x: xAt, y: yAt, payload }: { x: number | string; y: numbe
   const x = Number(xAt);
   const y = Number(yAt);
   const lines: string[] = [];
-  for (const word of String(payload?.value ?? "").split(/\s+/)) {
+  // A voltage stays with its unit: "11 kV" is one word here.
+  for (const word of String(payload?.value ?? "").split(/\s+(?!kV\b)/)) {
     const last = lines[lines.length - 1];
     if (last !== undefined && (lines.length === 2 || `${last} ${word}`.length <= TICK_LINE_CHARACTERS)) lines[lines.length - 1] = `${last} ${word}`;
     else lines.push(word);

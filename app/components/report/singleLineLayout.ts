@@ -335,7 +335,8 @@ function textWidth(text: string, px: number): number {
 
 function wrapName(name: string): string[] {
   const lines: string[] = [];
-  for (const word of name.split(/\s+/)) {
+  // A voltage stays with its unit: "66 kV" is one word here.
+  for (const word of name.split(/\s+(?!kV\b)/)) {
     const last = lines[lines.length - 1];
     if (last !== undefined && (last + " " + word).length <= WRAP_CHARACTERS) lines[lines.length - 1] = `${last} ${word}`;
     else lines.push(word);
