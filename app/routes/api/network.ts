@@ -2,6 +2,7 @@ import { z } from "zod";
 import type { Route } from "./+types/network";
 import { apiError, issuesUnder, parseId, readJsonBody } from "#app/lib/api.server.ts";
 import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
+import { auditNetworkDeletion } from "#app/lib/audit.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { currentDocument, saveNetworkDocument } from "#app/lib/networks.server.ts";
 import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
@@ -70,6 +71,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     const { network } = grantedOrApiError(await networkAccess(db, actor, networkId, "delete"));
     const deletedAt = new Date();
     await markNetworkDeleted(db, network.id, user.id, deletedAt);
+    await auditNetworkDeletion(db, { network, by: user, restored: false });
     const restorableUntil = new Date(deletedAt.getTime() + RESTORE_WINDOW_DAYS * 86_400_000).toISOString();
     return Response.json({ id: network.id, deleted: true, restorableUntil });
   }

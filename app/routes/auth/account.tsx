@@ -2,23 +2,29 @@ import { Form, Link } from "react-router";
 import type { Route } from "./+types/account";
 import { ApiTokensPanel } from "#app/components/ApiTokensPanel.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
+import { NoteMailSetting } from "#app/components/review/NoteMailSetting.tsx";
 import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDate } from "#app/lib/format.ts";
 import { listApiTokens } from "#db/apiTokens.ts";
 import { teamsOfUser } from "#db/teams.ts";
+import { reviewNoteMailSetting } from "#db/userSettings.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Account · Kilostep" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const db = await getDb();
-  const [teams, tokens] = await Promise.all([teamsOfUser(db, user.id), listApiTokens(db, user.id)]);
-  return { name: user.name, email: user.email, since: user.created_at, teams, tokens };
+  const [teams, tokens, reviewNoteMail] = await Promise.all([
+    teamsOfUser(db, user.id),
+    listApiTokens(db, user.id),
+    reviewNoteMailSetting(db, user.id),
+  ]);
+  return { name: user.name, email: user.email, since: user.created_at, teams, tokens, reviewNoteMail };
 }
 
 export default function Account({ loaderData }: Route.ComponentProps) {
-  const { name, email, since, teams, tokens } = loaderData;
+  const { name, email, since, teams, tokens, reviewNoteMail } = loaderData;
   return (
     <>
       <PageTitle title="Account" lead={`Signed in as ${email}.`} />
@@ -54,6 +60,7 @@ export default function Account({ loaderData }: Route.ComponentProps) {
             ))}
           </ul>
         </section>
+        <NoteMailSetting value={reviewNoteMail} />
       </div>
       <ApiTokensPanel tokens={tokens} />
     </>

@@ -85,6 +85,9 @@ export default function SignIn({ loaderData, actionData }: Route.ComponentProps)
       <p className="mt-4 text-center text-ink-soft">
         New to Kilostep? <Link to={signUpHref}>Create an account</Link>
       </p>
+      <p className="mt-2 text-center text-ink-soft">
+        <Link to="/forgot-password">Forgotten your password?</Link>
+      </p>
     </div>
   );
 }

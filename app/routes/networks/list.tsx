@@ -5,6 +5,7 @@ import { PageTitle } from "#app/components/PageTitle.tsx";
 import { NetworkRows, RecentlyDeleted } from "#app/components/NetworkList.tsx";
 import { parseId } from "#app/lib/api.server.ts";
 import { requireUser, userActor } from "#app/lib/auth.server.ts";
+import { auditNetworkDeletion } from "#app/lib/audit.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { documentFromTemplate, TEMPLATE_IDS, TEMPLATES, type TemplateId } from "#app/lib/network-templates.server.ts";
 import { NETWORK_NAME_MAX } from "#app/lib/forms.ts";
@@ -74,11 +75,13 @@ export async function action({ request }: Route.ActionArgs) {
   if (intent === "delete") {
     const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "delete"));
     await markNetworkDeleted(db, networkId, user.id);
+    await auditNetworkDeletion(db, { network, by: user, restored: false });
     return data<ActionResult>({ ok: true, message: `Deleted "${network.name}". You can restore it from "Recently deleted" for 30 days.` });
   }
   if (intent === "restore") {
     const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "restore"));
     if (!(await restoreNetwork(db, networkId))) return fail(`"${network.name}" is not deleted, or its 30 days have passed.`, 409);
+    await auditNetworkDeletion(db, { network, by: user, restored: true });
     return data<ActionResult>({ ok: true, message: `Restored "${network.name}".`, networkId });
   }
   return fail("Unknown request: the form named no known action.");
@@ -89,7 +92,17 @@ export default function Networks({ loaderData, actionData }: Route.ComponentProp
   const creating = useNavigation().formData?.get("intent") === "create";
   return (
     <>
-      <PageTitle title="Networks" lead="Every study of the teams you belong to, most recently changed first." />
+      <PageTitle
+        title="Networks"
+        lead="Every study of the teams you belong to, most recently changed first."
+        actions={
+          createTeams.length > 0 ? (
+            <Link to="/networks/upload" className="btn btn-small">
+              Upload a network file
+            </Link>
+          ) : undefined
+        }
+      />
       {actionData ? (
         <div className="mb-6">
           <Notice tone={actionData.ok ? "ok" : "error"}>{actionData.message}</Notice>

@@ -1,5 +1,6 @@
 import { data, Link } from "react-router";
 import type { Route } from "./+types/network";
+import { ReviewNotesPanel } from "#app/components/review/ReviewNotesPanel.tsx";
 import { SheetEditor } from "#app/components/sheet/SheetEditor.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
@@ -8,7 +9,8 @@ import { requireUser, userActor } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
-import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
+import { grantedOrPageError, networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
+import { reviewNotesFor } from "#app/lib/reviewNotes.server.ts";
 import { findTeam } from "#db/teams.ts";
 import { validateNetwork } from "#solver/schema.ts";
 
@@ -20,13 +22,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (networkId === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
   const db = await getDb();
   const { network, role } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "view"));
-  const [revision, team] = await Promise.all([currentDocument(db, network), findTeam(db, network.team_id)]);
+  const [revision, team, notes] = await Promise.all([
+    currentDocument(db, network),
+    findTeam(db, network.team_id),
+    reviewNotesFor(db, network.id, { userId: user.id, canView: true, canEdit: roleAllows(role, "edit") }),
+  ]);
   const checked = validateNetwork(revision.document);
   return {
     id: network.id,
     name: network.name,
     team: { id: network.team_id, name: team?.name ?? "" },
     role,
+    mayShare: roleAllows(role, "share"),
+    notes,
     revision: { number: network.current_revision, savedAt: revision.createdAt, by: revision.authorName, message: revision.message },
     document: checked.ok ? checked.network : null,
     issues: checked.ok ? [] : checked.issues,
@@ -34,7 +42,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export default function NetworkPage({ loaderData }: Route.ComponentProps) {
-  const { id, name, team, role, revision, document, issues } = loaderData;
+  const { id, name, team, role, revision, document, issues, notes, mayShare } = loaderData;
   return (
     <>
       <p className="mb-2 text-sm">
@@ -57,11 +65,33 @@ export default function NetworkPage({ loaderData }: Route.ComponentProps) {
             <Link to={`/networks/${id}/report`} className="btn btn-small">
               Study report
             </Link>
+            {role !== "viewer" ? (
+              <Link to={`/networks/${id}/loads-import`} className="btn btn-small">
+                Import loads
+              </Link>
+            ) : null}
+            <a href={`/api/networks/${id}/export`} className="btn btn-small" download>
+              Download network file
+            </a>
+            <Link to={`/networks/${id}/revisions`} className="btn btn-small">
+              Revisions
+            </Link>
+            {mayShare ? (
+              <Link to={`/networks/${id}/share`} className="btn btn-small">
+                Share
+              </Link>
+            ) : null}
           </>
         }
       />
       {document ? (
-        <SheetEditor networkId={id} document={document} revision={revision.number} readOnly={role === "viewer"} />
+        <SheetEditor
+          networkId={id}
+          document={document}
+          revision={revision.number}
+          readOnly={role === "viewer"}
+          aside={<ReviewNotesPanel {...notes} action={`/networks/${id}/notes`} signInBack={`/networks/${id}`} />}
+        />
       ) : (
         <Notice tone="error">
           This revision no longer passes the network file's checks:

@@ -1,4 +1,4 @@
-import { data, Link } from "react-router";
+import { Link } from "react-router";
 import type { Route } from "./+types/report";
 import { CostPlot } from "#app/components/ladder/CostPlot.tsx";
 import { LadderComparison, SensitivityTable } from "#app/components/ladder/LadderTables.tsx";
@@ -10,13 +10,11 @@ import { BranchTable, BusTable, CheckList, FaultTable } from "#app/components/re
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
 import { StudyInputs } from "#app/components/report/StudyInputs.tsx";
 import { Notice } from "#app/components/Notice.tsx";
-import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDate, formatDateTime } from "#app/lib/format.ts";
 import { savedLadderStudy } from "#app/lib/ladder.server.ts";
+import { networkReader } from "#app/lib/networkReader.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
-import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
 import { findTeam } from "#db/teams.ts";
 import { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU, solveNetwork } from "#solver/index.ts";
 import { ladderRequestSchema, runLadder, type AlternativeOverrides } from "#solver/ladder.ts";
@@ -30,11 +28,9 @@ const PRINT_CHART_WIDTH = 660;
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Study report · ${data?.name ?? "Network"} · Kilostep` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
   const db = await getDb();
-  const { network } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "view"));
+  // Also mapped at /s/:token/report: a view-link holder reads the same report without an account.
+  const { network, user, home, viaLink } = await networkReader(db, request, params);
   const [revision, team, saved] = await Promise.all([currentDocument(db, network), findTeam(db, network.team_id), savedLadderStudy(db, network.id)]);
   const solved = solveNetwork(revision.document);
   const ladderRun = saved.study && solved.ok ? runLadder(solved.network, saved.study.request) : null;
@@ -43,7 +39,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     id: network.id,
     name: network.name,
     team: team?.name ?? "",
-    preparedBy: user.name,
+    preparedBy: user?.name ?? "a reviewer holding a view link",
+    home,
+    viaLink,
     preparedAt: new Date().toISOString(),
     revision: { number: network.current_revision, savedAt: revision.createdAt, by: revision.authorName, message: revision.message },
     solved: solved.ok ? { network: solved.network, result: solved.result } : null,
@@ -58,15 +56,17 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const counted = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
 
 export default function ReportPage({ loaderData }: Route.ComponentProps) {
-  const { id, name, solved, study, ladder } = loaderData;
+  const { id, name, solved, study, ladder, home, viaLink } = loaderData;
   return (
     <article className="ks-report" aria-labelledby="report-title">
       <div className="ks-report-tools">
-        <Link to={`/networks/${id}`}>← {name}</Link>
+        <Link to={home}>← {name}</Link>
         <span className="flex-1" />
-        <Link to={`/networks/${id}/ladder`} className="btn btn-small">
-          Voltage ladder
-        </Link>
+        {viaLink ? null : (
+          <Link to={`/networks/${id}/ladder`} className="btn btn-small">
+            Voltage ladder
+          </Link>
+        )}
         <button type="button" className="btn btn-primary btn-small" onClick={() => window.print()}>
           Print
         </button>

@@ -1,13 +1,16 @@
-import { data, Form, redirect } from "react-router";
+import { data, Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/team";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { TeamMembers } from "#app/components/TeamMembers.tsx";
+import { TeamAuditLog } from "#app/components/review/TeamAuditLog.tsx";
+import { TeamInvitations } from "#app/components/review/TeamInvitations.tsx";
 import { parseId } from "#app/lib/api.server.ts";
 import { requireUser, userActor } from "#app/lib/auth.server.ts";
+import { addMemberAudited, changeRoleAudited, ownerPanels, removeMemberAudited } from "#app/lib/audit.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { abilitiesOf, grantedOrPageError, ROLES, teamAccess } from "#app/lib/permissions.server.ts";
-import { addMemberByEmail, changeMemberRole, removeMember, type Outcome } from "#app/lib/teams.server.ts";
+import type { Outcome } from "#app/lib/teams.server.ts";
 import type { TeamRole } from "#db/schema.ts";
 import { membersOf } from "#db/teams.ts";
 
@@ -25,14 +28,16 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const db = await getDb();
   const { team, role } = grantedOrPageError(await teamAccess(db, userActor(user), teamIdOf(params), "view-team"));
-  const members = await membersOf(db, team.id);
+  const may = abilitiesOf(role);
+  const [members, owner] = await Promise.all([membersOf(db, team.id), may["manage-members"] ? ownerPanels(db, team) : null]);
   return {
     team: { id: team.id, name: team.name },
     role,
     me: user.id,
-    may: abilitiesOf(role),
+    may,
     ownerCount: members.filter((m) => m.role === "owner").length,
     members,
+    owner,
   };
 }
 
@@ -54,7 +59,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 
   if (intent === "leave") {
     grantedOrPageError(await teamAccess(db, actor, teamId, "leave-team"));
-    const outcome = await removeMember(db, teamId, user.id);
+    const outcome = await removeMemberAudited(db, { teamId, by: user, memberId: user.id });
     return outcome.ok ? redirect("/teams") : answer(outcome);
   }
 
@@ -64,29 +69,34 @@ export async function action({ request, params }: Route.ActionArgs) {
     const role = asRole(form.get("role"));
     if (!email) return answer({ ok: false, error: "Enter the e-mail address of the person to add." });
     if (!role) return answer({ ok: false, error: "Choose owner, editor or viewer." });
-    return answer(await addMemberByEmail(db, teamId, email, role));
+    return answer(await addMemberAudited(db, { teamId, by: user, email, role }));
   }
   const memberId = parseId(String(form.get("userId") ?? ""));
   if (memberId === null) return answer({ ok: false, error: "Which member? The request names none." });
   if (intent === "change-role") {
     const role = asRole(form.get("role"));
     if (!role) return answer({ ok: false, error: "Choose owner, editor or viewer." });
-    return answer(await changeMemberRole(db, teamId, memberId, role));
+    return answer(await changeRoleAudited(db, { teamId, by: user, memberId, role }));
   }
   if (intent === "remove") {
-    const outcome = await removeMember(db, teamId, memberId);
+    const outcome = await removeMemberAudited(db, { teamId, by: user, memberId });
     return outcome.ok && memberId === user.id ? redirect("/teams") : answer(outcome);
   }
   return answer({ ok: false, error: "Unknown request: the form named no known action." });
 }
 
 export default function TeamPage({ loaderData, actionData }: Route.ComponentProps) {
-  const { team, role, me, may, members, ownerCount } = loaderData;
+  const { team, role, me, may, members, ownerCount, owner } = loaderData;
   const lastOwner = role === "owner" && ownerCount === 1;
   return (
     <>
       <PageTitle
         title={team.name}
+        actions={
+          <Link to={`/teams/${team.id}/library`} className="btn btn-small">
+            Equipment library
+          </Link>
+        }
         lead={
           <>
             Your role <span className="role-badge">{role}</span> · {members.length}{" "}
@@ -134,6 +144,12 @@ export default function TeamPage({ loaderData, actionData }: Route.ComponentProp
           </section>
         ) : null}
       </div>
+      {owner ? (
+        <>
+          <TeamInvitations teamId={team.id} invitations={owner.invitations} />
+          <TeamAuditLog events={owner.audit} />
+        </>
+      ) : null}
       <section aria-labelledby="leave-title" className="mt-10 max-w-2xl">
         <h2 id="leave-title" className="text-lg">
           Leave this team

@@ -1,0 +1,61 @@
+// /api/networks/:id/shares — share links of one network (owner). POST { role, expiresInDays,
+// label? } → 201 { id, url, role, expiresAt }: the url carries the token and is shown only here.
+// GET lists the links with their state and uses (never a token).
+import type { Route } from "./+types/network-shares";
+import { apiError, parseId, readJsonBody } from "#app/lib/api.server.ts";
+import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
+import { getDb } from "#app/lib/db.server.ts";
+import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
+import { secretState } from "#app/lib/secretTokens.server.ts";
+import { createShareLink, shareRequestSchema } from "#app/lib/shareLinks.server.ts";
+import { listShareLinks } from "#db/shareLinks.ts";
+import { formatPath } from "#solver/schema.ts";
+
+async function ownerOf(request: Request, params: { networkId: string }) {
+  const user = await requireApiUser(request);
+  const networkId = parseId(params.networkId);
+  if (networkId === null) throw apiError(404, `"${params.networkId}" is not a network number.`);
+  const db = await getDb();
+  const { network } = grantedOrApiError(await networkAccess(db, userActor(user), networkId, "share"));
+  return { db, user, network };
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { db, network } = await ownerOf(request, params);
+  const now = new Date();
+  const links = await listShareLinks(db, network.id);
+  return Response.json({
+    networkId: network.id,
+    shares: links.map((l) => ({
+      id: l.id,
+      role: l.role,
+      label: l.label,
+      createdAt: l.createdAt,
+      createdBy: l.createdByName,
+      expiresAt: l.expiresAt,
+      revokedAt: l.revokedAt,
+      state: secretState({ expires_at: l.expiresAt, revoked_at: l.revokedAt }, now),
+      uses: l.uses.map((u) => ({ user: u.userEmail, usedAt: u.usedAt })),
+    })),
+  });
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  if (request.method !== "POST") {
+    return Response.json({ error: `${request.method} is not supported here: GET lists links, POST makes one.` }, { status: 405, headers: { Allow: "GET, POST" } });
+  }
+  const { db, user, network } = await ownerOf(request, params);
+  const parsed = shareRequestSchema.safeParse(await readJsonBody(request));
+  if (!parsed.success) {
+    return apiError(
+      400,
+      'The body must be { "role": "viewer" or "editor", "expiresInDays": days or null }.',
+      parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })),
+    );
+  }
+  const { link, url } = await createShareLink(db, { network, request: parsed.data, by: user, origin: new URL(request.url).origin });
+  return Response.json(
+    { id: link.id, url, role: link.role, expiresAt: link.expires_at },
+    { status: 201, headers: { Location: `/api/shares/${link.id}`, "Cache-Control": "no-store" } },
+  );
+}
