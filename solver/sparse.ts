@@ -219,27 +219,20 @@ class MinHeap {
 export class BlockFactor {
   readonly lower: Float64Array;
   readonly upper: Float64Array;
+  /** Diagonal blocks; after `factorise` each holds the inverse of its pivot block. */
   readonly diagonal: Float64Array;
-  private readonly inverse: Float64Array;
 
   constructor(readonly symbolic: Symbolic) {
     const slots = symbolic.slotStart[symbolic.nodeCount];
     this.lower = new Float64Array(4 * slots);
     this.upper = new Float64Array(4 * slots);
     this.diagonal = new Float64Array(4 * symbolic.nodeCount);
-    this.inverse = new Float64Array(4 * symbolic.nodeCount);
-  }
-
-  clear(): void {
-    this.lower.fill(0);
-    this.upper.fill(0);
-    this.diagonal.fill(0);
   }
 
   /** Factorises in place; false when a pivot block is singular (the matrix has no inverse). */
   factorise(): boolean {
     const s = this.symbolic;
-    const { lower, upper, diagonal, inverse } = this;
+    const { lower, upper, diagonal } = this;
     const { order, slotStart, slotNode, updateStart, updateLower, updateUpper, updateTarget, updateTargetIsUpper } = s;
     for (let p = 0; p < s.nodeCount; p++) {
       const k = order[p];
@@ -255,10 +248,10 @@ export class BlockFactor {
       const i1 = -b / det;
       const i2 = -c / det;
       const i3 = a / det;
-      inverse[d] = i0;
-      inverse[d + 1] = i1;
-      inverse[d + 2] = i2;
-      inverse[d + 3] = i3;
+      diagonal[d] = i0;
+      diagonal[d + 1] = i1;
+      diagonal[d + 2] = i2;
+      diagonal[d + 3] = i3;
       for (let slot = slotStart[p]; slot < slotStart[p + 1]; slot++) {
         const q = 4 * slot;
         // L = A(i,k) · D⁻¹
@@ -297,7 +290,7 @@ export class BlockFactor {
   /** Solves A·x = rhs in place (rhs holds two entries per node, node-indexed). */
   solve(rhs: Float64Array): void {
     const s = this.symbolic;
-    const { lower, upper, inverse } = this;
+    const { lower, upper, diagonal: inverse } = this;
     const { order, slotStart, slotNode } = s;
     const n = s.nodeCount;
     for (let p = 0; p < n; p++) {
