@@ -90,13 +90,6 @@ export const API_ENDPOINTS: ApiEndpoint[] = [
     example: { path: "/api/solve", body: "@network.json" },
   },
   {
-    method: "GET",
-    route: "/api/networks/:networkId/results.csv",
-    what: "Results as RFC 4180 CSV with units in the header: ?table=buses or ?table=branches.",
-    who: "viewer",
-    example: { path: "/api/networks/$NETWORK_ID/results.csv?table=buses", outputFile: "buses.csv" },
-  },
-  {
     method: "POST",
     route: "/api/networks/:networkId/ladder",
     what: "The voltage ladder on the saved revision: { sectionBus, voltagesKV }, one alternative per candidate voltage.",
@@ -116,6 +109,13 @@ export const API_ENDPOINTS: ApiEndpoint[] = [
     what: "One revision's document.",
     who: "viewer",
     example: { path: "/api/networks/$NETWORK_ID/revisions/1" },
+  },
+  {
+    method: "GET",
+    route: "/api/networks/:networkId/shares",
+    what: "The network's share links: role, label, expiry, whether revoked, and who used them when.",
+    who: "owner",
+    example: { path: "/api/networks/$NETWORK_ID/shares" },
   },
   {
     method: "POST",

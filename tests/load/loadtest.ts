@@ -1,6 +1,6 @@
 // Load test: the built server on loopback, autocannon with 50 connections for 20 s on each of the
 // networks page, the sheet's loader, the solve API and the results CSV export. Prints p50, p95,
-// p99 and errors per target. Run: `npm run build && npm run loadtest` (LOADTEST_SECONDS shortens it).
+// p99 and errors per target. Run: `npm run loadtest` (it builds first; LOADTEST_SECONDS shortens it).
 import { readFileSync } from "node:fs";
 import autocannon, { type Result } from "autocannon";
 import { DEMO_ACCOUNTS } from "#db/demo-accounts.ts";
