@@ -234,9 +234,13 @@ test("a viewer sees the sheet, readings and results but cannot edit", async ({ p
   await page.mouse.down();
   await page.mouse.move(bar.x + 200, bar.y + 120, { steps: 10 });
   await page.mouse.up();
+  // The drag may have panned the view (and the sheet draws only what is in view): fit it again.
+  await page.keyboard.press("f");
+  await page.waitForTimeout(500);
   const after = await offset();
-  expect(after.x).toBeCloseTo(before.x, 1);
-  expect(after.y).toBeCloseTo(before.y, 1);
+  // A moved bus would have shifted by at least one 20 px grid step; refitting alone shifts a fraction of a pixel.
+  expect(Math.abs(after.x - before.x)).toBeLessThan(2);
+  expect(Math.abs(after.y - before.y)).toBeLessThan(2);
 
   await bus.click();
   await expect(page.locator(".ks-details input, .ks-details select")).toHaveCount(0);

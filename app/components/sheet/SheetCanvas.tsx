@@ -124,7 +124,15 @@ export function SheetCanvas() {
   const dragPositions = useSheet((s) => s.dragPositions);
   const readOnly = useSheet((s) => s.readOnly);
   const focusRequest = useSheet((s) => s.focusRequest);
-  const { screenToFlowPosition, setCenter, getZoom } = useReactFlow();
+  const { screenToFlowPosition, setCenter, getZoom, fitView } = useReactFlow();
+  // The sheet fits the drawing whenever its frame changes size (the page settling, a window
+  // resize) until the planner pans or zooms; from then on the view is theirs.
+  const paneWidth = useFlowStore((flow) => flow.width);
+  const paneHeight = useFlowStore((flow) => flow.height);
+  const viewMovedByHand = useRef(false);
+  useEffect(() => {
+    if (!viewMovedByHand.current && paneWidth > 0 && paneHeight > 0) void fitView({ padding: 0.2, maxZoom: 1.25 });
+  }, [paneWidth, paneHeight, fitView]);
   // Below this zoom, 11 px text is smaller than 5 px on screen: names and Readings are left out,
   // which also keeps a large sheet quick to redraw.
   const far = useFlowStore((flow) => flow.transform[2] < FAR_ZOOM);
@@ -248,6 +256,9 @@ export function SheetCanvas() {
       maxZoom={3}
       attributionPosition="bottom-left"
       onlyRenderVisibleElements
+      onMoveStart={(event) => {
+        if (event) viewMovedByHand.current = true;
+      }}
       className={far ? "ks-sheet ks-sheet-far" : "ks-sheet"}
       aria-label="The sheet"
     >
