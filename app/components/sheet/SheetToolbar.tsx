@@ -78,7 +78,7 @@ export function SheetToolbar({ onFit }: { onFit(): void }) {
           <button type="button" className="btn btn-small" onClick={actions.redo} disabled={!canRedo} aria-keyshortcuts="Control+Shift+Z">
             Redo
           </button>
-          <button type="button" className="btn btn-small" onClick={() => void actions.arrange()} aria-keyshortcuts="Shift+L">
+          <button type="button" className="btn btn-small" onClick={() => void actions.arrange().then(onFit)} aria-keyshortcuts="Shift+L">
             Arrange
           </button>
         </div>

@@ -92,7 +92,7 @@ export function useSheetShortcuts(store: SheetStore, root: React.RefObject<HTMLE
       if (key === "r" || key === "R") return run(() => actions.setShowReadings(!state.showReadings));
       if (key === "k" || key === "K") return run(() => actions.setShowFaults(!state.showFaults));
       if (readOnly) return;
-      if (key === "L" && event.shiftKey) return run(() => void actions.arrange());
+      if (key === "L" && event.shiftKey) return run(() => void actions.arrange().then(handlers.fit));
       if (key === "Delete" || key === "Backspace") return run(actions.deleteSelection);
       const digit = Number(key);
       if (Number.isInteger(digit) && digit >= 1 && digit <= partKinds.length)
