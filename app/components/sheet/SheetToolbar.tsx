@@ -1,5 +1,6 @@
 // The bar above the sheet: history, layout and view actions, the save state, the voltage legend.
 import { fixed } from "./readingFormat.ts";
+import { afterNextPaint } from "./shortcuts.ts";
 import { useSheet, useSheetActions, useSheetHistory, type SaveStatus } from "./sheetStore.ts";
 import { voltageClasses } from "./voltageClasses.ts";
 
@@ -78,7 +79,7 @@ export function SheetToolbar({ onFit }: { onFit(): void }) {
           <button type="button" className="btn btn-small" onClick={actions.redo} disabled={!canRedo} aria-keyshortcuts="Control+Shift+Z">
             Redo
           </button>
-          <button type="button" className="btn btn-small" onClick={() => void actions.arrange().then(onFit)} aria-keyshortcuts="Shift+L">
+          <button type="button" className="btn btn-small" onClick={() => void actions.arrange().then(() => afterNextPaint(onFit))} aria-keyshortcuts="Shift+L">
             Arrange
           </button>
         </div>

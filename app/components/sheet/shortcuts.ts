@@ -33,6 +33,11 @@ export const shortcuts: Shortcut[] = [
   { keys: "?", does: "This help" },
 ];
 
+/** After the browser has drawn what a change produced: two frames, since the sheet renders in between. */
+export function afterNextPaint(run: () => void): void {
+  requestAnimationFrame(() => requestAnimationFrame(run));
+}
+
 function typingInto(target: EventTarget | null): boolean {
   if (!(target instanceof HTMLElement)) return false;
   return target.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(target.tagName);
@@ -92,7 +97,7 @@ export function useSheetShortcuts(store: SheetStore, root: React.RefObject<HTMLE
       if (key === "r" || key === "R") return run(() => actions.setShowReadings(!state.showReadings));
       if (key === "k" || key === "K") return run(() => actions.setShowFaults(!state.showFaults));
       if (readOnly) return;
-      if (key === "L" && event.shiftKey) return run(() => void actions.arrange().then(handlers.fit));
+      if (key === "L" && event.shiftKey) return run(() => void actions.arrange().then(() => afterNextPaint(handlers.fit)));
       if (key === "Delete" || key === "Backspace") return run(actions.deleteSelection);
       const digit = Number(key);
       if (Number.isInteger(digit) && digit >= 1 && digit <= partKinds.length)
