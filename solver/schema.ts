@@ -227,16 +227,27 @@ function networkRules(net: Network, ctx: z.RefinementCtx): void {
   net.loads.forEach((ld, i) => busRef(["loads", i, "bus"], ld.bus, label("Load", ld)));
   net.shunts.forEach((sh, i) => busRef(["shunts", i, "bus"], sh.bus, label("Shunt", sh)));
 
-  // One slack per connected group: union-find over branches whose ends both exist.
+  // One slack per connected group: union-find over branches whose ends both exist, with full path
+  // compression and union by size so that a 100,000-bus chain stays linear.
   const parent = new Map(net.buses.map((b) => [b.id, b.id]));
+  const size = new Map(net.buses.map((b) => [b.id, 1]));
   const find = (x: string): string => {
     let root = x;
     while (parent.get(root) !== root) root = parent.get(root)!;
-    parent.set(x, root);
+    for (let node = x; node !== root; ) {
+      const next = parent.get(node)!;
+      parent.set(node, root);
+      node = next;
+    }
     return root;
   };
   const join = (a: string, b: string) => {
-    if (parent.has(a) && parent.has(b)) parent.set(find(a), find(b));
+    if (!parent.has(a) || !parent.has(b)) return;
+    let [ra, rb] = [find(a), find(b)];
+    if (ra === rb) return;
+    if (size.get(ra)! < size.get(rb)!) [ra, rb] = [rb, ra];
+    parent.set(rb, ra);
+    size.set(ra, size.get(ra)! + size.get(rb)!);
   };
   net.lines.forEach((l) => join(l.fromBus, l.toBus));
   net.transformers.forEach((t) => join(t.hvBus, t.lvBus));
