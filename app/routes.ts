@@ -47,6 +47,7 @@ export default [
     route("networks", "routes/api/networks.ts"),
     route("networks/:networkId", "routes/api/network.ts"),
     route("networks/:networkId/solve", "routes/api/network-solve.ts"),
+    route("networks/:networkId/results.csv", "routes/api/results-csv.ts"),
     route("networks/:networkId/export", "routes/api/network-export.ts"),
     route("networks/:networkId/ladder", "routes/api/ladder.ts"),
     route("networks/:networkId/shares", "routes/api/network-shares.ts"),
