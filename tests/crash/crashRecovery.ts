@@ -25,43 +25,49 @@ interface Tally {
 
 type NetworkDocument = { loads: { pMW: number }[] } & Record<string, unknown>;
 
+/** A JSON answer, or null when the connection was cut before the whole answer arrived. */
+async function answer(request: Promise<Response>): Promise<{ status: number; body: unknown } | null> {
+  try {
+    const response = await request;
+    const text = await response.text();
+    return { status: response.status, body: text ? (JSON.parse(text) as unknown) : null };
+  } catch {
+    return null;
+  }
+}
+
 async function writer(server: RunningServer, cookie: string, networkId: number, tally: Tally, stop: { now: boolean }) {
   const headers = { "Content-Type": "application/json", Cookie: cookie, Origin: server.url };
-  let current: { revision: number; document: NetworkDocument };
-  try {
-    current = (await (await fetch(`${server.url}/api/networks/${networkId}`, { headers })).json()) as typeof current;
-  } catch {
-    tally.unanswered++;
-    return;
-  }
+  const read = async () => (await answer(fetch(`${server.url}/api/networks/${networkId}`, { headers })))?.body as
+    | { revision: number; document: NetworkDocument }
+    | undefined;
+  let current = await read();
   let step = 0;
-  while (!stop.now) {
+  while (current && !stop.now) {
     step++;
     const markerMW = Number((1 + networkId + step / 1000).toFixed(3));
     const document = structuredClone(current.document);
     document.loads[0].pMW = markerMW;
-    let response: Response;
-    try {
-      response = await fetch(`${server.url}/api/networks/${networkId}`, {
-        method: "PUT",
-        headers,
-        body: JSON.stringify({ revision: current.revision, document }),
-      });
-    } catch {
+    const saved = await answer(
+      fetch(`${server.url}/api/networks/${networkId}`, { method: "PUT", headers, body: JSON.stringify({ revision: current.revision, document }) }),
+    );
+    // No complete answer: the save may or may not have committed, but it was not acknowledged.
+    if (saved === null) {
       tally.unanswered++;
       return;
     }
-    if (response.status === 200) {
-      const body = (await response.json()) as { revision: number; document: NetworkDocument };
+    if (saved.status === 200) {
+      const body = saved.body as { revision: number; document: NetworkDocument };
       tally.acknowledged.push({ networkId, revision: body.revision, markerMW });
       current = { revision: body.revision, document: body.document };
-    } else if (response.status === 409) {
+    } else if (saved.status === 409) {
       tally.conflicts++;
-      current = (await (await fetch(`${server.url}/api/networks/${networkId}`, { headers })).json()) as typeof current;
+      current = await read();
     } else {
-      throw new Error(`A save answered ${response.status}: ${await response.text()}`);
+      throw new Error(`A save answered ${saved.status}: ${JSON.stringify(saved.body)}`);
     }
   }
+  if (!current) tally.unanswered++;
 }
 
 function verify(databasePath: string, acknowledged: Acknowledged[]): { integrity: string; missing: Acknowledged[] } {

@@ -34,15 +34,20 @@ test("every curl example runs against the server and answers 2xx", async ({ page
   await page.getByLabel("Scope").selectOption("write");
   await page.getByRole("button", { name: "Create token" }).click();
   const token = (await page.getByLabel("The new token").textContent())!.trim();
+  // The examples change what they touch (a save, a share link), so they get a network of their own.
   const networks = (await (await page.request.get("/api/networks")).json()).networks as { id: number; name: string; team: { id: number } }[];
-  const tarnHead = networks.find((n) => n.name.startsWith("Tarn Head"))!;
+  const teamId = networks.find((n) => n.name.startsWith("Tarn Head"))!.team.id;
+  const fixture = JSON.parse(readFileSync(join(repository, "tests", "fixtures", "tarn-head-calder-flats.json"), "utf8"));
+  const own = await page.request.post(`/api/networks?team=${teamId}`, { data: { ...fixture, name: "API examples (fictional)" } });
+  expect(own.status()).toBe(201);
+  const networkId = (await own.json()).id as number;
 
   const folder = mkdtempSync(join(tmpdir(), "kilostep-docs-"));
   const variables: Record<string, string> = {
     KILOSTEP_URL: baseURL!,
     KILOSTEP_TOKEN: token,
-    TEAM_ID: String(tarnHead.team.id),
-    NETWORK_ID: String(tarnHead.id),
+    TEAM_ID: String(teamId),
+    NETWORK_ID: String(networkId),
     SECTION_BUS: "b-tarn-66",
   };
   writeFileSync(join(folder, "network.json"), readFileSync(join(repository, "tests", "fixtures", "tarn-head-calder-flats.json")));
