@@ -16,3 +16,7 @@ export const newPasswordSchema = z
     confirm: z.string(),
   })
   .refine((form) => form.password === form.confirm, { path: ["confirm"], message: "The two passwords differ; type the same one twice." });
+
+/** The same sentence for every address: it must not tell who has an account. */
+export const RESET_REQUESTED_MESSAGE =
+  "If an account uses that address, a message with a link to choose a new password is on its way. The link works for one hour.";

@@ -12,10 +12,6 @@ import { hashSecretToken, hoursFrom, looksLikeSecretToken, newSecretToken, secre
 
 export const RESET_VALID_MINUTES = 60;
 
-/** The same sentence for every address: it must not tell who has an account. */
-export const RESET_REQUESTED_MESSAGE =
-  "If an account uses that address, a message with a link to choose a new password is on its way. The link works for one hour.";
-
 // A few messages an hour per address at most, so the form cannot be used to flood someone's inbox.
 const perAccount = createRateLimiter({ limit: 3, windowMs: 3_600_000 });
 

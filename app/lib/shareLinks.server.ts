@@ -2,7 +2,6 @@
 // token is 256 random bits, shown once; only its hash is stored. A view link opens the network
 // read only without an account (as a share-link actor); any link opened by a signed-in person
 // records a grant for them on that network, which lives exactly as long as the link does.
-import { z } from "zod";
 import type { Db } from "#db/database.ts";
 import { insertAuditEvent } from "#db/auditEvents.ts";
 import { findNetwork } from "#db/networks.ts";
@@ -16,21 +15,7 @@ import {
 } from "#db/shareLinks.ts";
 import type { Actor } from "./permissions.server.ts";
 import { daysFrom, hashSecretToken, looksLikeSecretToken, newSecretToken, secretState } from "./secretTokens.server.ts";
-
-export const SHARE_EXPIRY_MAX_DAYS = 365;
-
-export const shareRequestSchema = z.strictObject({
-  role: z.enum(["viewer", "editor"], { error: 'role must be "viewer" or "editor"' }),
-  expiresInDays: z
-    .number({ error: "expiresInDays must be a whole number of days, or null for a link that does not expire" })
-    .int("expiresInDays must be a whole number of days")
-    .min(1, "expiresInDays must be at least 1")
-    .max(SHARE_EXPIRY_MAX_DAYS, `expiresInDays may be at most ${SHARE_EXPIRY_MAX_DAYS}`)
-    .nullable()
-    .optional(),
-  label: z.string().trim().max(200, "label may have at most 200 characters").optional(),
-});
-export type ShareRequest = z.infer<typeof shareRequestSchema>;
+import type { ShareRequest } from "./shareRequest.ts";
 
 export function shareUrl(origin: string, token: string): string {
   return `${origin}/s/${token}`;

@@ -40,6 +40,9 @@ const server = spawn(process.execPath, [serveBin, "./build/server/index.js"], {
     DATABASE_PATH: databasePath,
     SESSION_SECRET: randomBytes(32).toString("hex"),
     PORT: process.env.PORT ?? "3111",
+    // The browser tests read mail from the local fake (/dev/mail.json); any free port will do.
+    MAIL_TRANSPORT: "fake",
+    MAIL_FAKE_PORT: "0",
   },
 });
 

@@ -33,7 +33,7 @@ export function TeamAuditLog({ events }: { events: AuditEventItem[] }) {
       {events.length === 0 ? (
         <p className="mt-3 text-ink-soft">Nothing recorded yet.</p>
       ) : (
-        <div className="mt-3 max-h-[28rem] overflow-y-auto" tabIndex={0} role="region" aria-labelledby="audit-title">
+        <div className="mt-3 max-h-[28rem] overflow-y-auto" tabIndex={0} role="region" aria-label="Audit log entries, scrollable">
           <table className="w-full text-sm">
             <caption className="sr-only">Audit log, newest first</caption>
             <thead>

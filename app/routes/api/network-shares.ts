@@ -7,7 +7,8 @@ import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
 import { secretState } from "#app/lib/secretTokens.server.ts";
-import { createShareLink, shareRequestSchema } from "#app/lib/shareLinks.server.ts";
+import { createShareLink } from "#app/lib/shareLinks.server.ts";
+import { shareRequestSchema } from "#app/lib/shareRequest.ts";
 import { listShareLinks } from "#db/shareLinks.ts";
 import { formatPath } from "#solver/schema.ts";
 

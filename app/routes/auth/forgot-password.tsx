@@ -6,8 +6,8 @@ import { FormField } from "#app/components/FormField.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields } from "#app/lib/forms.ts";
-import { forgotPasswordSchema } from "#app/lib/passwordForms.ts";
-import { requestPasswordReset, RESET_REQUESTED_MESSAGE } from "#app/lib/passwordReset.server.ts";
+import { forgotPasswordSchema, RESET_REQUESTED_MESSAGE } from "#app/lib/passwordForms.ts";
+import { requestPasswordReset } from "#app/lib/passwordReset.server.ts";
 import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Forgotten password · Kilostep" }];

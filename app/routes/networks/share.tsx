@@ -14,7 +14,8 @@ import { MailUnavailable, mailAvailable, sendMail } from "#app/lib/mail.server.t
 import { reviewRequestMail } from "#app/lib/mailMessages.ts";
 import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
 import { secretState } from "#app/lib/secretTokens.server.ts";
-import { createShareLink, revokeShareLink, SHARE_EXPIRY_MAX_DAYS, shareRequestSchema } from "#app/lib/shareLinks.server.ts";
+import { createShareLink, revokeShareLink } from "#app/lib/shareLinks.server.ts";
+import { SHARE_EXPIRY_MAX_DAYS, shareRequestSchema } from "#app/lib/shareRequest.ts";
 import { findShareLink, listShareLinks } from "#db/shareLinks.ts";
 import { z } from "zod";
 
