@@ -201,6 +201,10 @@ test("an edit link asks for an account, then edits that network and no other", a
   await holder.waitForURL(`**/networks/${networkId}`);
   await expect(holder.getByRole("main").locator(".role-badge").first()).toHaveText("editor");
 
+  await holder.goto("/networks");
+  await expect(holder.getByRole("region", { name: "Shared with you" }).getByRole("listitem")).toContainText(["Edit-linked study"]);
+  await expect(holder.getByRole("region", { name: "Shared with you" })).toContainText("editor");
+
   const current = (await (await holder.request.get(`/api/networks/${networkId}`)).json()) as { revision: number; document: { name: string } };
   const saved = await holder.request.put(`/api/networks/${networkId}`, { data: { revision: current.revision, document: { ...current.document, name: `${current.document.name}, reviewed` } } });
   expect(saved.status()).toBe(200);

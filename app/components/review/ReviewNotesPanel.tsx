@@ -53,12 +53,14 @@ function NoteBadges({ counts, onPick }: { counts: Record<string, number>; onPick
           const width = node.width ?? node.measured?.width ?? 0;
           const height = node.height ?? node.measured?.height ?? 0;
           const count = counts[node.id];
+          // A busbar's name sits above its bar, so its badge goes beside the bar's top end instead.
+          const at = node.type === "bus" ? { x: node.position.x + width / 2 + 4, y: node.position.y - height / 2 } : { x: node.position.x + width / 2 - 6, y: node.position.y - height / 2 - 18 };
           return (
             <button
               key={node.id}
               type="button"
               className="ks-note-badge nodrag nopan"
-              style={{ transform: `translate(${node.position.x + width / 2 - 6}px, ${node.position.y - height / 2 - 18}px)` }}
+              style={{ transform: `translate(${at.x}px, ${at.y}px)` }}
               onClick={() => onPick(node.id)}
               title={`${count} open review ${count === 1 ? "note" : "notes"}`}
             >

@@ -3,6 +3,7 @@ import type { Route } from "./+types/list";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { NetworkRows, RecentlyDeleted } from "#app/components/NetworkList.tsx";
+import { SharedWithYou } from "#app/components/review/SharedWithYou.tsx";
 import { parseId } from "#app/lib/api.server.ts";
 import { requireUser, userActor } from "#app/lib/auth.server.ts";
 import { auditNetworkDeletion } from "#app/lib/audit.server.ts";
@@ -12,6 +13,7 @@ import { NETWORK_NAME_MAX } from "#app/lib/forms.ts";
 import { createNetwork, renameNetwork } from "#app/lib/networks.server.ts";
 import { abilitiesOf, grantedOrPageError, networkAccess, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";
 import { listDeletedNetworksForUser, listNetworksForUser, markNetworkDeleted, restoreNetwork } from "#db/networks.ts";
+import { listGrantedNetworks } from "#db/shareLinks.ts";
 import { teamsOfUser } from "#db/teams.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Networks · Kilostep" }];
@@ -19,13 +21,15 @@ export const meta: Route.MetaFunction = () => [{ title: "Networks · Kilostep" }
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const db = await getDb();
-  const [networks, deleted, teams] = await Promise.all([
+  const [networks, deleted, teams, shared] = await Promise.all([
     listNetworksForUser(db, user.id),
     listDeletedNetworksForUser(db, user.id),
     teamsOfUser(db, user.id),
+    listGrantedNetworks(db, user.id),
   ]);
   return {
     networks: networks.map((n) => ({ ...n, may: abilitiesOf(n.role) })),
+    shared,
     deleted: deleted.filter((n) => roleAllows(n.role, "restore")),
     createTeams: teams.filter((t) => roleAllows(t.role, "create-in-team")).map((t) => ({ id: t.id, name: t.name })),
     templates: TEMPLATES.map(({ id, label, hint }) => ({ id, label, hint })),
@@ -88,7 +92,7 @@ export async function action({ request }: Route.ActionArgs) {
 }
 
 export default function Networks({ loaderData, actionData }: Route.ComponentProps) {
-  const { networks, deleted, createTeams, templates } = loaderData;
+  const { networks, shared, deleted, createTeams, templates } = loaderData;
   const creating = useNavigation().formData?.get("intent") === "create";
   return (
     <>
@@ -182,6 +186,7 @@ export default function Networks({ loaderData, actionData }: Route.ComponentProp
           </section>
         ) : null}
       </div>
+      {shared.length > 0 ? <SharedWithYou networks={shared} /> : null}
       {deleted.length > 0 ? <RecentlyDeleted networks={deleted} /> : null}
     </>
   );
