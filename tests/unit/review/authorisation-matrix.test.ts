@@ -224,6 +224,8 @@ const CASES: Case[] = [
   },
   { route: "api/networks/:networkId/solve", method: "POST", path: "/api/networks/{network}/solve", body: { json: {} }, expect: view(401) },
   { route: "api/networks/:networkId/export", method: "GET", path: "/api/networks/{network}/export", expect: view(401) },
+  { route: "api/networks/:networkId/results.csv", method: "GET", path: "/api/networks/{network}/results.csv?table=branches", expect: view(401) },
+  { route: "api/networks/:networkId/results.csv", method: "GET", path: "/api/networks/{other}/results.csv?table=buses", expect: { ...view(401), editLink: 404 } },
   {
     route: "api/networks/:networkId/ladder",
     method: "POST",
