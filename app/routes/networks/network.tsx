@@ -8,6 +8,7 @@ import { parseId } from "#app/lib/api.server.ts";
 import { requireUser, userActor } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
+import { teamEquipmentTypes } from "#app/lib/library.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
 import { grantedOrPageError, networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
 import { reviewNotesFor } from "#app/lib/reviewNotes.server.ts";
@@ -27,6 +28,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     findTeam(db, network.team_id),
     reviewNotesFor(db, network.id, { userId: user.id, canView: true, canEdit: roleAllows(role, "edit") }),
   ]);
+  const library = await teamEquipmentTypes(db, { id: network.team_id, name: team?.name ?? "" });
   const checked = validateNetwork(revision.document);
   return {
     id: network.id,
@@ -35,6 +37,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     role,
     mayShare: roleAllows(role, "share"),
     notes,
+    library,
     revision: { number: network.current_revision, savedAt: revision.createdAt, by: revision.authorName, message: revision.message },
     document: checked.ok ? checked.network : null,
     issues: checked.ok ? [] : checked.issues,
@@ -42,7 +45,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export default function NetworkPage({ loaderData }: Route.ComponentProps) {
-  const { id, name, team, role, revision, document, issues, notes, mayShare } = loaderData;
+  const { id, name, team, role, revision, document, issues, notes, mayShare, library } = loaderData;
   return (
     <>
       <p className="mb-2 text-sm">
@@ -90,6 +93,7 @@ export default function NetworkPage({ loaderData }: Route.ComponentProps) {
           document={document}
           revision={revision.number}
           readOnly={role === "viewer"}
+          library={library}
           aside={<ReviewNotesPanel {...notes} action={`/networks/${id}/notes`} signInBack={`/networks/${id}`} />}
         />
       ) : (
