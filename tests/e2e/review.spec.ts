@@ -1,7 +1,8 @@
 // Review together in the browser: an invitation through the mail fake, a forgotten password, a
 // share link revoked while someone has it open, and an edit link that opens one network only.
 // Each test makes its own people and networks, so the demo data stays as it was.
-import { expect, test, type APIRequestContext, type Browser, type Page } from "@playwright/test";
+import AxeBuilder from "@axe-core/playwright";
+import { expect, test, type APIRequestContext, type Browser, type Page, type TestInfo } from "@playwright/test";
 import { readFileSync } from "node:fs";
 import { signIn } from "./accounts.ts";
 
@@ -214,4 +215,53 @@ test("an edit link asks for an account, then edits that network and no other", a
   await expect(holder.getByRole("heading", { name: "Not found" })).toBeVisible();
   expect((await holder.request.delete(`/api/networks/${networkId}`)).status()).toBe(403);
   await holder.context().close();
+});
+
+/** A full-page picture for a person to look at, and an accessibility scan (serious or worse fails). */
+async function lookAt(page: Page, testInfo: TestInfo, file: string) {
+  await page.evaluate(() => document.fonts.ready);
+  await page.screenshot({ path: testInfo.outputPath(file), fullPage: true });
+  const scan = await new AxeBuilder({ page }).withTags(["wcag2a", "wcag2aa", "wcag21a", "wcag21aa"]).analyze();
+  const serious = scan.violations
+    .filter((v) => v.impact === "serious" || v.impact === "critical")
+    .map((v) => `${v.id}: ${v.help} (${v.nodes.map((n) => n.target.join(" ")).join(", ")})`);
+  expect(serious, `accessibility problems on ${page.url()}`).toEqual([]);
+}
+
+test("Share, the shared view, Review notes, Revisions and the mail fake pass an accessibility scan", async ({ page, browser }, testInfo) => {
+  await signIn(page, "owner");
+  const networkId = await ownNetwork(page, `Looked-at study ${stamp()}`);
+  const current = (await (await page.request.get(`/api/networks/${networkId}`)).json()) as { revision: number; document: { lines: { id: string; lengthKm: number }[] } };
+  current.document.lines.find((l) => l.id === "l-fell")!.lengthKm = 47.6;
+  expect((await page.request.put(`/api/networks/${networkId}`, { data: { revision: current.revision, document: current.document, message: "Surveyed route length" } })).status()).toBe(200);
+
+  await page.goto(`/networks/${networkId}`);
+  const notes = page.getByRole("region", { name: "Review notes" });
+  await notes.getByLabel("Pin to").selectOption({ label: "Line: Fell crossing 66 kV" });
+  await notes.getByLabel("Note", { exact: true }).fill("Is 47.6 km the surveyed route length?");
+  await notes.getByRole("button", { name: "Add note" }).click();
+  await expect(notes.getByRole("status")).toHaveText("Note pinned to Fell crossing 66 kV.");
+  await expect(page.getByRole("button", { name: /1 open review note on l-fell/ })).toBeVisible();
+  await expect(notes.locator(".ks-panel-sub")).toHaveText("1 open · 0 resolved");
+  await lookAt(page, testInfo, "review-notes.png");
+
+  await page.goto(`/networks/${networkId}/share`);
+  await page.getByRole("button", { name: "Make link" }).click();
+  const url = await page.getByLabel("The new link").inputValue();
+  await lookAt(page, testInfo, "share.png");
+
+  const reviewer = await newPage(browser);
+  await reviewer.goto(new URL(url).pathname);
+  await expect(reviewer.getByRole("heading", { name: /^Looked-at study/, level: 1 })).toBeVisible();
+  await expect(reviewer.getByRole("region", { name: "Review notes" })).toContainText("Is 47.6 km the surveyed route length?");
+  await lookAt(reviewer, testInfo, "shared-view.png");
+  await reviewer.context().close();
+
+  await page.goto(`/networks/${networkId}/revisions`);
+  await expect(page.getByRole("status").filter({ hasText: "Revision 1 → revision 2" })).toContainText("1 changed");
+  await expect(page.getByRole("row", { name: /Length/ })).toContainText("48 km");
+  await lookAt(page, testInfo, "revisions.png");
+
+  await page.goto("/dev/mail");
+  await lookAt(page, testInfo, "dev-mail.png");
 });
