@@ -90,6 +90,13 @@ export const API_ENDPOINTS: ApiEndpoint[] = [
     example: { path: "/api/solve", body: "@network.json" },
   },
   {
+    method: "GET",
+    route: "/api/networks/:networkId/results.csv",
+    what: "The saved revision's results as RFC 4180 CSV with units in the header, as a download: ?table=buses or ?table=branches.",
+    who: "viewer",
+    example: { path: "/api/networks/$NETWORK_ID/results.csv?table=buses", outputFile: "buses.csv" },
+  },
+  {
     method: "POST",
     route: "/api/networks/:networkId/ladder",
     what: "The voltage ladder on the saved revision: { sectionBus, voltagesKV }, one alternative per candidate voltage.",
