@@ -144,9 +144,12 @@ export async function liveGrantRole(db: Db, networkId: number, userId: number, n
 export interface GrantedNetworkListing {
   id: number;
   name: string;
+  teamId: number;
+  teamName: string;
   role: ShareRole;
   revision: number;
   updatedAt: string;
+  updatedByName: string | null;
 }
 
 /** Live networks the user reaches only through share links they opened, strongest role each. */
@@ -155,7 +158,18 @@ export async function listGrantedNetworks(db: Db, userId: number, now = new Date
     .selectFrom("network_grants as g")
     .innerJoin("share_links as s", "s.id", "g.share_link_id")
     .innerJoin("networks as n", "n.id", "g.network_id")
-    .select(["n.id", "n.name", "g.role", "n.current_revision as revision", "n.updated_at as updatedAt"])
+    .innerJoin("teams as t", "t.id", "n.team_id")
+    .leftJoin("users as u", "u.id", "n.updated_by")
+    .select([
+      "n.id",
+      "n.name",
+      "t.id as teamId",
+      "t.name as teamName",
+      "g.role",
+      "n.current_revision as revision",
+      "n.updated_at as updatedAt",
+      "u.name as updatedByName",
+    ])
     .where("g.user_id", "=", userId)
     .where("n.deleted_at", "is", null)
     .where("s.revoked_at", "is", null)

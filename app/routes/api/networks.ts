@@ -5,14 +5,16 @@ import { getDb } from "#app/lib/db.server.ts";
 import { createNetwork } from "#app/lib/networks.server.ts";
 import { grantedOrApiError, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";
 import { listNetworksForUser } from "#db/networks.ts";
+import { listGrantedNetworks } from "#db/shareLinks.ts";
 import { teamsOfUser } from "#db/teams.ts";
 
-/** GET /api/networks: every live network of the caller's teams. */
+/** GET /api/networks: every live network of the caller's teams, then those shared with them by a live link. */
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireApiUser(request);
-  const rows = await listNetworksForUser(await getDb(), user.id);
+  const db = await getDb();
+  const [own, shared] = await Promise.all([listNetworksForUser(db, user.id), listGrantedNetworks(db, user.id)]);
   return Response.json({
-    networks: rows.map((n) => ({
+    networks: [...own, ...shared].map((n) => ({
       id: n.id,
       name: n.name,
       team: { id: n.teamId, name: n.teamName },

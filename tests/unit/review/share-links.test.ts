@@ -1,4 +1,5 @@
 import { beforeAll, describe, expect, it } from "vitest";
+import { loader as networksApi } from "#app/routes/api/networks.ts";
 import { loader as sharedNetworkLoader } from "#app/routes/share/shared-network.tsx";
 import { getDb } from "#app/lib/db.server.ts";
 import { networkAccess, teamAccess } from "#app/lib/permissions.server.ts";
@@ -108,6 +109,13 @@ describe("what a link grants", () => {
     expect(await teamAccess(db, actor, people.team.id, "view-team")).toMatchObject({ ok: false, status: 404 });
     expect((await listGrantedNetworks(db, people.editLinkUser.id)).map((n) => n.id)).toContain(world.networkId);
     expect((await listGrantedNetworks(db, people.revokedUser.id)).map((n) => n.id)).not.toContain(world.networkId);
+    const listed = await call(networksApi, getRequest("/api/networks", people.cookies.editLink));
+    expect(listed.body.networks).toContainEqual(
+      expect.objectContaining({ id: world.networkId, role: "editor", team: { id: people.team.id, name: people.team.name } }),
+    );
+    expect(listed.body.networks.map((n: { id: number }) => n.id)).not.toContain(world.otherNetworkId);
+    const revoked = await call(networksApi, getRequest("/api/networks", people.cookies.revokedLink));
+    expect(revoked.body.networks.map((n: { id: number }) => n.id)).not.toContain(world.networkId);
   });
 
   it("a team viewer who opens an edit link edits that network, and keeps only viewing the others", async () => {
