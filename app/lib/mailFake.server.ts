@@ -38,7 +38,7 @@ function addressText(field: AddressObject | AddressObject[] | undefined): string
   return (Array.isArray(field) ? field : [field]).map((a) => a.text).join(", ");
 }
 
-export function linksIn(text: string): string[] {
+function linksIn(text: string): string[] {
   return [...text.matchAll(/https?:\/\/[^\s<>"')]+/g)].map((m) => m[0].replace(/[.,;:]+$/, ""));
 }
 
