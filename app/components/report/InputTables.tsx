@@ -1,280 +1,160 @@
-import type { ReactNode } from "react";
+// The study report's input data: every element of the network file by kind, each quantity with
+// its unit, so a reviewer can check what was solved without opening the file. A dash is a value
+// the file does not give. Seldom-given data (zero-sequence, reactive limits, generator ratings)
+// is written out in a last column, only where the file has it.
+import { DataTable, type DataTableProps } from "#app/components/DataTable.tsx";
+import { voltageClassOf } from "#app/components/sheet/voltageClasses.ts";
 import { formatNumber } from "#app/lib/format.ts";
-import { VOLTAGE_CLASS_LABEL, voltageClass } from "#app/lib/voltage-class.ts";
-import type { Network } from "#solver/schema.ts";
+import type { Bus, Line, Load, Network, Shunt, Source, Transformer } from "#solver/schema.ts";
 
-const CLASS_COLOUR = {
-  lv: "var(--color-kv-lv)",
-  mv: "var(--color-kv-mv)",
-  hv: "var(--color-kv-hv)",
-  ehv: "var(--color-kv-ehv)",
-} as const;
+const REPORT_TABLE = "data-table ks-report-table";
 
-function Th({ label, unit, num }: { label: ReactNode; unit?: string; num?: boolean }) {
-  return (
-    <th scope="col" className={num ? "num" : undefined}>
-      {label}
-      {unit ? <span className="unit"> ({unit})</span> : null}
-    </th>
-  );
-}
-
-function Num({ value, digits }: { value: number | null | undefined; digits?: number }) {
-  return <td className="num">{formatNumber(value, digits)}</td>;
-}
-
-function Section({ id, title, count, children }: { id: string; title: string; count: number; children: ReactNode }) {
-  return (
-    <section aria-labelledby={`${id}-title`} className="panel overflow-x-auto" id={id} tabIndex={0}>
-      <h2 id={`${id}-title`} className="flex items-baseline gap-2 px-4 pt-4 text-lg">
-        {title}
-        <span className="text-sm font-normal text-ink-muted">{count}</span>
-      </h2>
-      {count === 0 ? <p className="px-4 pb-4 pt-1 text-ink-muted">None in this network.</p> : <div className="pb-2">{children}</div>}
-    </section>
-  );
-}
-
+/** The voltage class as the drawings show it: a stroke of its weight and hue, and its range in words. */
 function VoltageClassTag({ nominalKV }: { nominalKV: number }) {
-  const cls = voltageClass(nominalKV);
+  const voltageClass = voltageClassOf(nominalKV);
+  if (!voltageClass) return "–";
   return (
-    <span className="inline-flex items-center gap-1.5 text-sm font-semibold" style={{ color: CLASS_COLOUR[cls] }}>
-      <span aria-hidden="true" className="inline-block h-2.5 w-2.5 rounded-sm" style={{ background: CLASS_COLOUR[cls] }} />
-      {VOLTAGE_CLASS_LABEL[cls]}
+    <span className="ks-class-tag">
+      <svg width="20" height="8" aria-hidden="true" focusable="false">
+        <line x1="1" y1="4" x2="19" y2="4" style={{ stroke: voltageClass.colour, strokeWidth: voltageClass.strokePx }} />
+      </svg>
+      {voltageClass.label}
     </span>
   );
 }
 
-/** The network file's elements as readable tables by kind, every quantity with its unit. */
-export function NetworkTables({ network }: { network: Network }) {
+function Named({ name, note }: { name: string; note: string }) {
+  return (
+    <>
+      {name}
+      <span className="ks-cell-note">{note}</span>
+    </>
+  );
+}
+
+/** "a; b" of the parts that are given, or a dash. */
+function further(parts: (string | false | undefined)[]): string {
+  const given = parts.filter((p): p is string => typeof p === "string");
+  return given.length ? given.join("; ") : "–";
+}
+
+const num = (value: number | null | undefined, digits?: number) => formatNumber(value, digits);
+const signed = (value: number) => `${value > 0 ? "+" : ""}${num(value)}`;
+
+function sourceControl(s: Source): string {
+  const kind = s.kind === "grid" ? "Grid infeed" : "Generator";
+  const control = s.control === "slack" ? "slack" : s.control === "pv" ? "P and V set" : "P and Q set";
+  return `${kind}, ${control}`;
+}
+
+function tapText(t: Transformer): string {
+  const range = t.tapMinPct !== undefined && t.tapMaxPct !== undefined ? ` (${signed(t.tapMinPct)} to ${signed(t.tapMaxPct)}${t.tapStepPct !== undefined ? ` by ${num(t.tapStepPct)}` : ""})` : "";
+  return `${signed(t.tapPct)}${range}`;
+}
+
+function powerFactorText(load: Load): string {
+  const apparentMVA = Math.hypot(load.pMW, load.qMvar);
+  if (apparentMVA === 0) return "–";
+  const powerFactor = num(Math.abs(load.pMW) / apparentMVA, 3);
+  return load.qMvar === 0 ? powerFactor : `${powerFactor} ${load.qMvar > 0 ? "lagging" : "leading"}`;
+}
+
+function InputTable<Row extends { id: string }>({ caption, columns, rows }: { caption: string; columns: DataTableProps<Row>["columns"]; rows: readonly Row[] }) {
+  if (rows.length === 0) return null;
+  return <DataTable className={REPORT_TABLE} caption={caption} columns={columns} rows={rows} rowKey={(row) => row.id} />;
+}
+
+export function InputTables({ network }: { network: Network }) {
   const busName = new Map(network.buses.map((b) => [b.id, b.name]));
   const bus = (id: string) => busName.get(id) ?? id;
-  const kinds = [
-    { id: "buses", title: "Buses", count: network.buses.length },
-    { id: "sources", title: "Sources", count: network.sources.length },
-    { id: "transformers", title: "Transformers", count: network.transformers.length },
-    { id: "lines", title: "Lines and cables", count: network.lines.length },
-    { id: "loads", title: "Loads", count: network.loads.length },
-    { id: "shunts", title: "Shunts", count: network.shunts.length },
+
+  const busColumns: DataTableProps<Bus>["columns"] = [
+    { header: "Bus", cell: (b) => <Named name={b.name} note={b.id} /> },
+    { header: "Voltage class", cell: (b) => <VoltageClassTag nominalKV={b.nominalKV} /> },
+    { header: <>U<sub>n</sub></>, unit: "kV", numeric: true, cell: (b) => num(b.nominalKV) },
+    { header: "Band", unit: "pu", numeric: true, cell: (b) => `${num(b.vMinPu)}–${num(b.vMaxPu)}` },
+    { header: "Breaking", unit: "kA", numeric: true, cell: (b) => num(b.breakingKA) },
+  ];
+  const sourceColumns: DataTableProps<Source>["columns"] = [
+    { header: "Source", cell: (s) => <Named name={s.name} note={bus(s.bus)} /> },
+    { header: "Kind and control", cell: sourceControl },
+    { header: "V set", unit: "pu", numeric: true, cell: (s) => (s.control === "pq" ? "–" : num(s.voltagePu)) },
+    { header: "P", unit: "MW", numeric: true, cell: (s) => (s.control === "slack" ? "–" : num(s.pMW)) },
+    { header: "Q", unit: "Mvar", numeric: true, cell: (s) => (s.control === "pq" ? num(s.qMvar) : "–") },
+    { header: "S″k", unit: "MVA", numeric: true, cell: (s) => num(s.shortCircuitMVA) },
+    { header: <>S<sub>r</sub></>, unit: "MVA", numeric: true, cell: (s) => num(s.ratedMVA) },
+    { header: "X″d", unit: "%", numeric: true, cell: (s) => num(s.xdSubtransientPct) },
+    { header: "X/R", numeric: true, cell: (s) => num(s.xOverR) },
+    {
+      header: "Further data",
+      cell: (s) =>
+        further([
+          s.control === "slack" && s.angleDeg !== 0 && `angle ${num(s.angleDeg)}°`,
+          (s.qMinMvar !== undefined || s.qMaxMvar !== undefined) && `Q from ${num(s.qMinMvar)} to ${num(s.qMaxMvar)} Mvar`,
+          s.ratedKV !== undefined && `U_r ${num(s.ratedKV)} kV`,
+          s.ratedPowerFactor !== undefined && `cos φ_r ${num(s.ratedPowerFactor)}`,
+          s.z0OverZ1 !== undefined && `Z0/Z1 ${num(s.z0OverZ1)}`,
+        ]),
+    },
+  ];
+  const transformerColumns: DataTableProps<Transformer>["columns"] = [
+    { header: "Transformer", cell: (t) => <Named name={t.name} note={`${bus(t.hvBus)} → ${bus(t.lvBus)}`} /> },
+    { header: <>S<sub>r</sub></>, unit: "MVA", numeric: true, cell: (t) => num(t.ratedMVA) },
+    { header: "HV / LV", unit: "kV", numeric: true, cell: (t) => `${num(t.hvKV)} / ${num(t.lvKV)}` },
+    { header: <>u<sub>k</sub></>, unit: "%", numeric: true, cell: (t) => num(t.impedancePct) },
+    { header: "X/R", numeric: true, cell: (t) => num(t.xOverR) },
+    { header: <>P<sub>k</sub></>, unit: "kW", numeric: true, cell: (t) => num(t.loadLossKW) },
+    { header: <>P<sub>0</sub></>, unit: "kW", numeric: true, cell: (t) => num(t.noLoadLossKW) },
+    { header: "Tap (range)", unit: "%", numeric: true, cell: tapText },
+    { header: "Vector group", cell: (t) => t.vectorGroup },
+    { header: "Further data", cell: (t) => further([t.z0OverZ1 !== undefined && `Z0/Z1 ${num(t.z0OverZ1)}`]) },
+  ];
+  const lineColumns: DataTableProps<Line>["columns"] = [
+    { header: "Line or cable", cell: (l) => <Named name={l.name} note={`${bus(l.fromBus)} → ${bus(l.toBus)}`} /> },
+    { header: "Construction", cell: (l) => (l.kind === "cable" ? "Cable" : "Overhead line") },
+    { header: "Length", unit: "km", numeric: true, cell: (l) => num(l.lengthKm) },
+    { header: "R", unit: "Ω/km", numeric: true, cell: (l) => num(l.rOhmPerKm, 4) },
+    { header: "X", unit: "Ω/km", numeric: true, cell: (l) => num(l.xOhmPerKm, 4) },
+    { header: "B", unit: "µS/km", numeric: true, cell: (l) => num(l.bMicroSiemensPerKm) },
+    { header: "Ampacity", unit: "A", numeric: true, cell: (l) => num(l.ampacityA) },
+    {
+      header: "Further data",
+      cell: (l) =>
+        further([
+          (l.r0OhmPerKm !== undefined || l.x0OhmPerKm !== undefined) && `R0 ${num(l.r0OhmPerKm, 4)}, X0 ${num(l.x0OhmPerKm, 4)} Ω/km`,
+        ]),
+    },
+  ];
+  const loadColumns: DataTableProps<Load>["columns"] = [
+    { header: "Load", cell: (ld) => <Named name={ld.name} note={bus(ld.bus)} /> },
+    { header: "P", unit: "MW", numeric: true, cell: (ld) => num(ld.pMW) },
+    { header: "Q", unit: "Mvar", numeric: true, cell: (ld) => num(ld.qMvar) },
+    { header: "Power factor", numeric: true, cell: powerFactorText },
+    { header: "Voltage dependence", cell: (ld) => ld.model.replace("constant-", "constant ") },
+  ];
+  const shuntColumns: DataTableProps<Shunt>["columns"] = [
+    { header: "Shunt", cell: (sh) => <Named name={sh.name} note={bus(sh.bus)} /> },
+    { header: "Q at 1 pu", unit: "Mvar", numeric: true, cell: (sh) => num(sh.qMvar) },
+    { header: "Kind", cell: (sh) => (sh.qMvar >= 0 ? "Capacitor" : "Reactor") },
   ];
 
+  const counts: [number, string][] = [
+    [network.sources.length, "sources"],
+    [network.transformers.length, "transformers"],
+    [network.lines.length, "lines or cables"],
+    [network.loads.length, "loads"],
+    [network.shunts.length, "shunts"],
+  ];
+  const absent = counts.filter(([count]) => count === 0).map(([, kindWords]) => kindWords);
   return (
-    <div className="space-y-6">
-      <nav aria-label="Element kinds" className="flex flex-wrap gap-2">
-        {kinds.map((k) => (
-          <a key={k.id} href={`#${k.id}`} className="btn btn-small">
-            {k.title} <span className="text-ink-muted">{k.count}</span>
-          </a>
-        ))}
-        <span className="ml-auto self-center text-sm text-ink-muted">
-          {network.frequencyHz} Hz · base {formatNumber(network.baseMVA)} MVA
-        </span>
-      </nav>
-
-      <Section id="buses" title="Buses" count={network.buses.length}>
-        <table className="data-table">
-          <thead>
-            <tr>
-              <Th label="Name" />
-              <Th label="Id" />
-              <Th label="Class" />
-              <Th label="Nominal voltage" unit="kV" num />
-              <Th label="Voltage band" unit="pu" num />
-              <Th label="Switchgear breaking current" unit="kA" num />
-            </tr>
-          </thead>
-          <tbody>
-            {network.buses.map((b) => (
-              <tr key={b.id}>
-                <td className="whitespace-nowrap font-medium">{b.name}</td>
-                <td className="font-mono text-sm text-ink-soft">{b.id}</td>
-                <td>
-                  <VoltageClassTag nominalKV={b.nominalKV} />
-                </td>
-                <Num value={b.nominalKV} />
-                <td className="num">
-                  {formatNumber(b.vMinPu)} – {formatNumber(b.vMaxPu)}
-                </td>
-                <Num value={b.breakingKA} />
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </Section>
-
-      <Section id="sources" title="Sources" count={network.sources.length}>
-        <table className="data-table">
-          <thead>
-            <tr>
-              <Th label="Name" />
-              <Th label="Bus" />
-              <Th label="Type" />
-              <Th label="Control" />
-              <Th label="Set voltage" unit="pu" num />
-              <Th label="P" unit="MW" num />
-              <Th label="Q" unit="Mvar" num />
-              <Th label="Fault infeed S″k" unit="MVA" num />
-              <Th label="Rating" unit="MVA" num />
-              <Th label="X″d" unit="%" num />
-              <Th label="X/R" num />
-            </tr>
-          </thead>
-          <tbody>
-            {network.sources.map((s) => (
-              <tr key={s.id}>
-                <td className="whitespace-nowrap font-medium">{s.name}</td>
-                <td>{bus(s.bus)}</td>
-                <td>{s.kind === "grid" ? "Grid infeed" : "Generator"}</td>
-                <td>{s.control === "slack" ? "Slack" : s.control.toUpperCase()}</td>
-                <Num value={s.control === "pq" ? null : s.voltagePu} />
-                <Num value={s.control === "slack" ? null : s.pMW} />
-                <Num value={s.control === "pq" ? s.qMvar : null} />
-                <Num value={s.shortCircuitMVA} />
-                <Num value={s.ratedMVA} />
-                <Num value={s.xdSubtransientPct} />
-                <Num value={s.xOverR} />
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </Section>
-
-      <Section id="transformers" title="Transformers" count={network.transformers.length}>
-        <table className="data-table">
-          <thead>
-            <tr>
-              <Th label="Name" />
-              <Th label="HV bus → LV bus" />
-              <Th label="Rating" unit="MVA" num />
-              <Th label="Windings" unit="kV" num />
-              <Th label="Impedance uk" unit="%" num />
-              <Th label="X/R" num />
-              <Th label="Load loss" unit="kW" num />
-              <Th label="No-load loss" unit="kW" num />
-              <Th label="Tap" unit="%" num />
-              <Th label="Tap range" unit="%" num />
-              <Th label="Vector group" />
-            </tr>
-          </thead>
-          <tbody>
-            {network.transformers.map((t) => (
-              <tr key={t.id}>
-                <td className="whitespace-nowrap font-medium">{t.name}</td>
-                <td>
-                  {bus(t.hvBus)} → {bus(t.lvBus)}
-                </td>
-                <Num value={t.ratedMVA} />
-                <td className="num">
-                  {formatNumber(t.hvKV)} / {formatNumber(t.lvKV)}
-                </td>
-                <Num value={t.impedancePct} />
-                <Num value={t.xOverR} />
-                <Num value={t.loadLossKW} />
-                <Num value={t.noLoadLossKW} />
-                <Num value={t.tapPct} />
-                <td className="num">
-                  {t.tapMinPct !== undefined && t.tapMaxPct !== undefined
-                    ? `${formatNumber(t.tapMinPct)} to ${formatNumber(t.tapMaxPct)}${t.tapStepPct !== undefined ? ` by ${formatNumber(t.tapStepPct)}` : ""}`
-                    : "–"}
-                </td>
-                <td className="font-mono text-sm">{t.vectorGroup}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </Section>
-
-      <Section id="lines" title="Lines and cables" count={network.lines.length}>
-        <table className="data-table">
-          <thead>
-            <tr>
-              <Th label="Name" />
-              <Th label="From → to" />
-              <Th label="Kind" />
-              <Th label="Length" unit="km" num />
-              <Th label="R" unit="Ω/km" num />
-              <Th label="X" unit="Ω/km" num />
-              <Th label="B" unit="µS/km" num />
-              <Th label="Ampacity" unit="A" num />
-            </tr>
-          </thead>
-          <tbody>
-            {network.lines.map((l) => (
-              <tr key={l.id}>
-                <td className="whitespace-nowrap font-medium">{l.name}</td>
-                <td>
-                  {bus(l.fromBus)} → {bus(l.toBus)}
-                </td>
-                <td>{l.kind === "cable" ? "Cable" : "Overhead line"}</td>
-                <Num value={l.lengthKm} />
-                <Num value={l.rOhmPerKm} digits={4} />
-                <Num value={l.xOhmPerKm} digits={4} />
-                <Num value={l.bMicroSiemensPerKm} />
-                <Num value={l.ampacityA} />
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </Section>
-
-      <Section id="loads" title="Loads" count={network.loads.length}>
-        <table className="data-table">
-          <thead>
-            <tr>
-              <Th label="Name" />
-              <Th label="Bus" />
-              <Th label="P" unit="MW" num />
-              <Th label="Q" unit="Mvar" num />
-              <Th label="Power factor" num />
-              <Th label="Model" />
-            </tr>
-          </thead>
-          <tbody>
-            {network.loads.map((ld) => {
-              const apparentMVA = Math.hypot(ld.pMW, ld.qMvar);
-              const powerFactor = apparentMVA > 0 ? Math.abs(ld.pMW) / apparentMVA : null;
-              return (
-                <tr key={ld.id}>
-                  <td className="whitespace-nowrap font-medium">{ld.name}</td>
-                  <td>{bus(ld.bus)}</td>
-                  <Num value={ld.pMW} />
-                  <Num value={ld.qMvar} />
-                  <td className="num">
-                    {formatNumber(powerFactor, 3)}
-                    {powerFactor !== null && ld.qMvar !== 0 ? (
-                      <span className="text-ink-muted"> {ld.qMvar > 0 ? "lagging" : "leading"}</span>
-                    ) : null}
-                  </td>
-                  <td>{ld.model.replace("constant-", "constant ")}</td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
-      </Section>
-
-      <Section id="shunts" title="Shunts" count={network.shunts.length}>
-        <table className="data-table">
-          <thead>
-            <tr>
-              <Th label="Name" />
-              <Th label="Bus" />
-              <Th label="Q at 1 pu" unit="Mvar" num />
-              <Th label="Kind" />
-            </tr>
-          </thead>
-          <tbody>
-            {network.shunts.map((sh) => (
-              <tr key={sh.id}>
-                <td className="whitespace-nowrap font-medium">{sh.name}</td>
-                <td>{bus(sh.bus)}</td>
-                <Num value={sh.qMvar} />
-                <td>{sh.qMvar >= 0 ? "Capacitor" : "Reactor"}</td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </Section>
-    </div>
+    <>
+      <InputTable caption="Buses" columns={busColumns} rows={network.buses} />
+      <InputTable caption="Sources" columns={sourceColumns} rows={network.sources} />
+      <InputTable caption="Transformers" columns={transformerColumns} rows={network.transformers} />
+      <InputTable caption="Lines and cables" columns={lineColumns} rows={network.lines} />
+      <InputTable caption="Loads" columns={loadColumns} rows={network.loads} />
+      <InputTable caption="Shunts" columns={shuntColumns} rows={network.shunts} />
+      {absent.length ? <p>This network has no {absent.join(", no ")}.</p> : null}
+    </>
   );
 }

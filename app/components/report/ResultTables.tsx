@@ -2,8 +2,9 @@
 // every quantity with its unit and every status with an icon and words.
 import { statusCue, upperLimitStatus, voltageStatus, type LimitStatus } from "#app/components/sheet/readingStatus.ts";
 import { checkLine, fixed, kvText } from "#app/components/ladder/ladderText.ts";
-import type { SolveResult } from "#solver/results.ts";
-import type { Network } from "#solver/schema.ts";
+import { DataTable, type DataTableProps } from "#app/components/DataTable.tsx";
+import type { BranchReading, SolveResult } from "#solver/results.ts";
+import type { Bus, Network } from "#solver/schema.ts";
 
 function Status({ status }: { status: LimitStatus | undefined }) {
   if (!status) return <span className="ks-muted">no limit given</span>;
@@ -17,52 +18,26 @@ function Status({ status }: { status: LimitStatus | undefined }) {
 
 const nameOf = (network: Network, id: string) => network.buses.find((b) => b.id === id)?.name ?? id;
 
+const REPORT_TABLE = "data-table ks-report-table";
+
 export function BusTable({ network, result }: { network: Network; result: SolveResult }) {
   const readings = new Map(result.loadFlow.buses.map((b) => [b.id, b]));
-  return (
-    <table className="data-table ks-report-table">
-      <caption>Bus voltages</caption>
-      <thead>
-        <tr>
-          <th scope="col">Bus</th>
-          <th scope="col" className="num">
-            U<sub>n</sub> <span className="unit">kV</span>
-          </th>
-          <th scope="col" className="num">
-            V <span className="unit">pu</span>
-          </th>
-          <th scope="col" className="num">
-            V <span className="unit">kV</span>
-          </th>
-          <th scope="col" className="num">
-            Angle <span className="unit">°</span>
-          </th>
-          <th scope="col" className="num">
-            Band <span className="unit">pu</span>
-          </th>
-          <th scope="col">Status</th>
-        </tr>
-      </thead>
-      <tbody>
-        {network.buses.map((bus) => {
-          const r = readings.get(bus.id);
-          return (
-            <tr key={bus.id}>
-              <th scope="row">{bus.name}</th>
-              <td className="num">{fixed(bus.nominalKV, 2)}</td>
-              <td className="num">{fixed(r?.vPu, 4)}</td>
-              <td className="num">{fixed(r?.vKV, 2)}</td>
-              <td className="num">{fixed(r?.angleDeg, 2)}</td>
-              <td className="num">
-                {fixed(bus.vMinPu, 2)}–{fixed(bus.vMaxPu, 2)}
-              </td>
-              <td>{r ? <Status status={voltageStatus(r.vPu, bus.vMinPu, bus.vMaxPu)} /> : "–"}</td>
-            </tr>
-          );
-        })}
-      </tbody>
-    </table>
-  );
+  const columns: DataTableProps<Bus>["columns"] = [
+    { header: "Bus", cell: (bus) => bus.name },
+    { header: <>U<sub>n</sub></>, unit: "kV", numeric: true, cell: (bus) => fixed(bus.nominalKV, 2) },
+    { header: "V", unit: "pu", numeric: true, cell: (bus) => fixed(readings.get(bus.id)?.vPu, 4) },
+    { header: "V", unit: "kV", numeric: true, cell: (bus) => fixed(readings.get(bus.id)?.vKV, 2) },
+    { header: "Angle", unit: "°", numeric: true, cell: (bus) => fixed(readings.get(bus.id)?.angleDeg, 2) },
+    { header: "Band", unit: "pu", numeric: true, cell: (bus) => `${fixed(bus.vMinPu, 2)}–${fixed(bus.vMaxPu, 2)}` },
+    {
+      header: "Status",
+      cell: (bus) => {
+        const r = readings.get(bus.id);
+        return r ? <Status status={voltageStatus(r.vPu, bus.vMinPu, bus.vMaxPu)} /> : "–";
+      },
+    },
+  ];
+  return <DataTable className={REPORT_TABLE} caption="Bus voltages" columns={columns} rows={network.buses} rowKey={(bus) => bus.id} />;
 }
 
 export function BranchTable({ network, result }: { network: Network; result: SolveResult }) {
@@ -71,53 +46,32 @@ export function BranchTable({ network, result }: { network: Network; result: Sol
     ...network.lines.map((l): [string, string] => [l.id, l.kind === "cable" ? "cable" : "overhead line"]),
     ...network.transformers.map((t): [string, string] => [t.id, "transformer"]),
   ]);
+  const columns: DataTableProps<BranchReading>["columns"] = [
+    {
+      header: "Branch",
+      cell: (b) => (
+        <>
+          {names.get(b.id) ?? b.id}
+          <span className="ks-cell-note">{kinds.get(b.id)}</span>
+        </>
+      ),
+    },
+    { header: "From → to", cell: (b) => `${nameOf(network, b.fromBus)} → ${nameOf(network, b.toBus)}` },
+    { header: "P", unit: "MW", numeric: true, cell: (b) => fixed(b.pFromMW, 3) },
+    { header: "Q", unit: "Mvar", numeric: true, cell: (b) => fixed(b.qFromMvar, 3) },
+    { header: "I", unit: "A", numeric: true, cell: (b) => fixed(b.currentA, 1) },
+    { header: "Loading", unit: "%", numeric: true, cell: (b) => fixed(b.loadingPct, 1) },
+    { header: "Losses", unit: "kW", numeric: true, cell: (b) => fixed(b.lossKW, 1) },
+    { header: "Status", cell: (b) => <Status status={upperLimitStatus(b.loadingPct, b.loadingPct === null ? undefined : 100)} /> },
+  ];
   return (
-    <table className="data-table ks-report-table">
-      <caption>Branch flows and losses (flows at the first-named end)</caption>
-      <thead>
-        <tr>
-          <th scope="col">Branch</th>
-          <th scope="col">From → to</th>
-          <th scope="col" className="num">
-            P <span className="unit">MW</span>
-          </th>
-          <th scope="col" className="num">
-            Q <span className="unit">Mvar</span>
-          </th>
-          <th scope="col" className="num">
-            I <span className="unit">A</span>
-          </th>
-          <th scope="col" className="num">
-            Loading <span className="unit">%</span>
-          </th>
-          <th scope="col" className="num">
-            Losses <span className="unit">kW</span>
-          </th>
-          <th scope="col">Status</th>
-        </tr>
-      </thead>
-      <tbody>
-        {result.loadFlow.branches.map((b) => (
-          <tr key={b.id}>
-            <th scope="row">
-              {names.get(b.id) ?? b.id}
-              <span className="ks-cell-note">{kinds.get(b.id)}</span>
-            </th>
-            <td>
-              {nameOf(network, b.fromBus)} → {nameOf(network, b.toBus)}
-            </td>
-            <td className="num">{fixed(b.pFromMW, 3)}</td>
-            <td className="num">{fixed(b.qFromMvar, 3)}</td>
-            <td className="num">{fixed(b.currentA, 1)}</td>
-            <td className="num">{fixed(b.loadingPct, 1)}</td>
-            <td className="num">{fixed(b.lossKW, 1)}</td>
-            <td>
-              <Status status={upperLimitStatus(b.loadingPct, b.loadingPct === null ? undefined : 100)} />
-            </td>
-          </tr>
-        ))}
-      </tbody>
-      <tfoot>
+    <DataTable
+      className={REPORT_TABLE}
+      caption="Branch flows and losses (flows at the first-named end)"
+      columns={columns}
+      rows={result.loadFlow.branches}
+      rowKey={(b) => b.id}
+      foot={
         <tr>
           <th scope="row" colSpan={6}>
             Losses in all (generation {fixed(result.loadFlow.totals.generationMW, 3)} MW, load {fixed(result.loadFlow.totals.loadMW, 3)} MW)
@@ -125,62 +79,63 @@ export function BranchTable({ network, result }: { network: Network; result: Sol
           <td className="num">{fixed(result.loadFlow.totals.lossMW * 1000, 1)}</td>
           <td>{fixed(result.loadFlow.totals.lossPct, 2)} % of generation</td>
         </tr>
-      </tfoot>
-    </table>
+      }
+    />
   );
 }
 
 export function FaultTable({ network, result }: { network: Network; result: SolveResult }) {
   const faults = new Map((result.faults?.buses ?? []).map((f) => [f.id, f]));
+  const fault = (bus: Bus) => faults.get(bus.id);
+  const columns: DataTableProps<Bus>["columns"] = [
+    {
+      header: "Bus",
+      cell: (bus) => (
+        <>
+          {bus.name}
+          <span className="ks-cell-note">{kvText(bus.nominalKV)}</span>
+        </>
+      ),
+    },
+    { header: "I″k3", unit: "kA", numeric: true, cell: (bus) => fixed(fault(bus)?.ik3kA, 2) },
+    { header: "S″k3", unit: "MVA", numeric: true, cell: (bus) => fixed(fault(bus)?.ik3MVA, 0) },
+    { header: <>i<sub>p</sub></>, unit: "kA", numeric: true, cell: (bus) => fixed(fault(bus)?.ip3kA, 2) },
+    {
+      header: "I″k1",
+      unit: "kA",
+      numeric: true,
+      cell: (bus) => {
+        const f = fault(bus);
+        return (
+          <>
+            {fixed(f?.ik1kA, 2)}
+            {f?.note ? <span className="ks-cell-note">{f.note}</span> : null}
+          </>
+        );
+      },
+    },
+    { header: "R/X", numeric: true, cell: (bus) => fixed(fault(bus)?.rOverX, 3) },
+    { header: "Breaking", unit: "kA", numeric: true, cell: (bus) => fixed(bus.breakingKA, 1) },
+    {
+      header: "Status",
+      cell: (bus) => {
+        const f = fault(bus);
+        return f ? <Status status={upperLimitStatus(Math.max(f.ik3kA, f.ik1kA), bus.breakingKA)} /> : "–";
+      },
+    },
+  ];
   return (
-    <table className="data-table ks-report-table">
-      <caption>Initial short-circuit currents by IEC 60909-0 (maximum: c<sub>max</sub> 1.10 above 1 kV, 1.05 at or below)</caption>
-      <thead>
-        <tr>
-          <th scope="col">Bus</th>
-          <th scope="col" className="num">
-            I″k3 <span className="unit">kA</span>
-          </th>
-          <th scope="col" className="num">
-            S″k3 <span className="unit">MVA</span>
-          </th>
-          <th scope="col" className="num">
-            i<sub>p</sub> <span className="unit">kA</span>
-          </th>
-          <th scope="col" className="num">
-            I″k1 <span className="unit">kA</span>
-          </th>
-          <th scope="col" className="num">R/X</th>
-          <th scope="col" className="num">
-            Breaking <span className="unit">kA</span>
-          </th>
-          <th scope="col">Status</th>
-        </tr>
-      </thead>
-      <tbody>
-        {network.buses.map((bus) => {
-          const f = faults.get(bus.id);
-          return (
-            <tr key={bus.id}>
-              <th scope="row">
-                {bus.name}
-                <span className="ks-cell-note">{kvText(bus.nominalKV)}</span>
-              </th>
-              <td className="num">{fixed(f?.ik3kA, 2)}</td>
-              <td className="num">{fixed(f?.ik3MVA, 0)}</td>
-              <td className="num">{fixed(f?.ip3kA, 2)}</td>
-              <td className="num">
-                {fixed(f?.ik1kA, 2)}
-                {f?.note ? <span className="ks-cell-note">{f.note}</span> : null}
-              </td>
-              <td className="num">{fixed(f?.rOverX, 3)}</td>
-              <td className="num">{fixed(bus.breakingKA, 1)}</td>
-              <td>{f ? <Status status={upperLimitStatus(Math.max(f.ik3kA, f.ik1kA), bus.breakingKA)} /> : "–"}</td>
-            </tr>
-          );
-        })}
-      </tbody>
-    </table>
+    <DataTable
+      className={REPORT_TABLE}
+      caption={
+        <>
+          Initial short-circuit currents by IEC 60909-0 (maximum: c<sub>max</sub> 1.10 above 1 kV, 1.05 at or below)
+        </>
+      }
+      columns={columns}
+      rows={network.buses}
+      rowKey={(bus) => bus.id}
+    />
   );
 }
 

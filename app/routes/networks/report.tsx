@@ -6,6 +6,7 @@ import { fixed, kvText } from "#app/components/ladder/ladderText.ts";
 import { LossPlot } from "#app/components/ladder/LossPlot.tsx";
 import { MoneySummary, UnitCostNote } from "#app/components/ladder/MoneyInputs.tsx";
 import { defaultProfileEnd, ProfilePlot } from "#app/components/ladder/ProfilePlot.tsx";
+import { InputTables } from "#app/components/report/InputTables.tsx";
 import { BranchTable, BusTable, CheckList, FaultTable } from "#app/components/report/ResultTables.tsx";
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
 import { StudyInputs } from "#app/components/report/StudyInputs.tsx";
@@ -193,7 +194,7 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
           </section>
 
           <section className="ks-report-part" aria-labelledby="report-assumptions">
-            <h2 id="report-assumptions">6. Assumptions and methods</h2>
+            <h2 id="report-assumptions">6. Assumptions and inputs</h2>
             <dl className="ks-report-facts ks-report-assumptions">
               <dt>System base</dt>
               <dd>
@@ -228,6 +229,12 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
                 section's line losses are shown beside this law, drawn through the lowest voltage that carries the load.
               </dd>
             </dl>
+            <h3>Input data</h3>
+            <p>
+              Every element of revision {loaderData.revision.number} as solved, with the network file's defaults filled in; a dash is a value not given or one that
+              does not apply.
+            </p>
+            <InputTables network={solved.network} />
           </section>
         </>
       )}
