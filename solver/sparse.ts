@@ -3,6 +3,8 @@
 // network, then orders what is left (the rings) by minimum degree. The symbolic work is done once;
 // the numeric factorisation and the solves reuse it and allocate nothing.
 
+import { MinHeap } from "./minHeap.ts";
+
 /** A symmetric graph in compressed rows, no self-loops, no repeated neighbours. */
 export interface Graph {
   nodeCount: number;
@@ -144,7 +146,8 @@ function placeCoreByMinimumDegree(
   for (const [i, set] of adjacency) heap.push(set.size, i);
   let placed = firstPosition;
   while (placed < n) {
-    const [deg, k] = heap.pop();
+    const k = heap.pop();
+    const deg = heap.lastKey;
     const set = adjacency.get(k);
     if (!set || set.size !== deg) continue; // stale entry
     position[k] = placed;
@@ -158,56 +161,6 @@ function placeCoreByMinimumDegree(
       for (const j of struct) if (j !== i) si.add(j);
       heap.push(si.size, i);
     }
-  }
-}
-
-class MinHeap {
-  private keys: number[] = [];
-  private values: number[] = [];
-
-  push(key: number, value: number): void {
-    const keys = this.keys;
-    const values = this.values;
-    let i = keys.length;
-    keys.push(key);
-    values.push(value);
-    while (i > 0) {
-      const parent = (i - 1) >> 1;
-      if (keys[parent] < key || (keys[parent] === key && values[parent] <= value)) break;
-      keys[i] = keys[parent];
-      values[i] = values[parent];
-      i = parent;
-    }
-    keys[i] = key;
-    values[i] = value;
-  }
-
-  pop(): [number, number] {
-    const keys = this.keys;
-    const values = this.values;
-    const topKey = keys[0];
-    const topValue = values[0];
-    const lastKey = keys.pop()!;
-    const lastValue = values.pop()!;
-    const size = keys.length;
-    if (size > 0) {
-      let i = 0;
-      for (;;) {
-        const left = 2 * i + 1;
-        if (left >= size) break;
-        const right = left + 1;
-        let child = left;
-        if (right < size && (keys[right] < keys[left] || (keys[right] === keys[left] && values[right] < values[left])))
-          child = right;
-        if (keys[child] > lastKey || (keys[child] === lastKey && values[child] >= lastValue)) break;
-        keys[i] = keys[child];
-        values[i] = values[child];
-        i = child;
-      }
-      keys[i] = lastKey;
-      values[i] = lastValue;
-    }
-    return [topKey, topValue];
   }
 }
 

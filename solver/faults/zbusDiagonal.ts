@@ -7,6 +7,7 @@
 //
 // No pivoting is needed: every admittance here is (r − jx)/(r² + x²) with r, x ≥ 0, so
 // e^{jπ/4}·Y has a positive definite real part and every pivot stays away from zero.
+import { MinHeap } from "../minHeap.ts";
 import type { DrivingPointImpedances, NodalNetwork } from "./nodalNetwork.ts";
 
 class DisjointSets {
@@ -28,56 +29,6 @@ class DisjointSets {
   join(a: number, b: number): void {
     this.parent[this.find(a)] = this.find(b);
   }
-}
-
-/** Min-heap of (degree, node); entries made stale by a later push are skipped by the caller. */
-class DegreeQueue {
-  private readonly keys: number[] = [];
-  private readonly nodes: number[] = [];
-  get size(): number {
-    return this.keys.length;
-  }
-  push(key: number, node: number): void {
-    const { keys, nodes } = this;
-    let i = keys.length;
-    keys.push(key);
-    nodes.push(node);
-    while (i > 0) {
-      const parent = (i - 1) >> 1;
-      if (keys[parent] <= key) break;
-      keys[i] = keys[parent];
-      nodes[i] = nodes[parent];
-      i = parent;
-    }
-    keys[i] = key;
-    nodes[i] = node;
-  }
-  /** Removes the smallest entry and returns its node; its key is left in `lastKey`. */
-  pop(): number {
-    const { keys, nodes } = this;
-    const node = nodes[0];
-    this.lastKey = keys[0];
-    const tailKey = keys.pop()!;
-    const tailNode = nodes.pop()!;
-    const size = keys.length;
-    if (size > 0) {
-      let i = 0;
-      for (;;) {
-        const left = 2 * i + 1;
-        if (left >= size) break;
-        const right = left + 1;
-        const child = right < size && keys[right] < keys[left] ? right : left;
-        if (keys[child] >= tailKey) break;
-        keys[i] = keys[child];
-        nodes[i] = nodes[child];
-        i = child;
-      }
-      keys[i] = tailKey;
-      nodes[i] = tailNode;
-    }
-    return node;
-  }
-  lastKey = 0;
 }
 
 /** An off-diagonal entry of the (partly eliminated) matrix, shared by both of its rows. */
@@ -256,7 +207,7 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
         entry.re += offRe[slotEdge[s]];
         entry.im += offIm[slotEdge[s]];
       }
-    const queue = new DegreeQueue();
+    const queue = new MinHeap();
     for (const [k, row] of rows) queue.push(row.size, k);
     while (queue.size > 0) {
       const v = queue.pop();
