@@ -31,11 +31,16 @@ export function FormField({ label, name, hint, error, className, ...input }: For
           {hint}
         </p>
       ) : null}
-      {error ? (
-        <p id={errorId} className="field-error">
-          {error}
-        </p>
-      ) : null}
+      <FieldError id={errorId} error={error} />
     </div>
   );
+}
+
+/** The error under a field, with the id its input names in aria-describedby; nothing without one. */
+export function FieldError({ id, error }: { id: string; error: string | undefined }) {
+  return error ? (
+    <p id={id} className="field-error">
+      {error}
+    </p>
+  ) : null;
 }

@@ -2,6 +2,7 @@
 // transformers facing it, and its capital cost. An empty field keeps the drawn value or the
 // estimate from unit costs, which is shown in the field as a placeholder.
 import { useId, type ReactNode } from "react";
+import { FieldError } from "#app/components/FormField.tsx";
 import { capitalCost, costAtVoltage, moneyInputSchema, type MoneyInput } from "#solver/economics.ts";
 import type { Section } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
@@ -186,11 +187,7 @@ function NumberInput({
         aria-invalid={error ? true : undefined}
         aria-describedby={error ? errorId : undefined}
       />
-      {error ? (
-        <p id={errorId} className="field-error">
-          {error}
-        </p>
-      ) : null}
+      <FieldError id={errorId} error={error} />
     </div>
   );
 }

@@ -1,6 +1,7 @@
 // Choosing the section to re-rate: click a bus on the drawing or pick it from the list; the
 // buses, lines and windings the section covers are spelled out under it.
 import { useId } from "react";
+import { FieldError } from "#app/components/FormField.tsx";
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
 import type { Section } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
@@ -51,11 +52,7 @@ export function SectionPicker({
               </option>
             ))}
           </select>
-          {error ? (
-            <p id={errorId} className="field-error">
-              {error}
-            </p>
-          ) : null}
+          <FieldError id={errorId} error={error} />
         </div>
         {section ? <SectionSummary network={network} section={section} /> : null}
       </div>

@@ -1,6 +1,7 @@
 // Candidate voltages: the IEC 60038 values offered for the section as toggles, and any other
 // voltage typed in (checked before it joins the ladder).
 import { useId, useState, type FormEvent } from "react";
+import { FieldError } from "#app/components/FormField.tsx";
 import { CANDIDATE_RANGE_FACTOR, standardVoltage } from "#solver/iec60038.ts";
 import { kvText } from "./ladderText.ts";
 import { readCandidateVoltage } from "./studyDraft.ts";
@@ -88,11 +89,7 @@ export function VoltageChips({
             Add voltage
           </button>
         </div>
-        {entryError ? (
-          <p id={entryErrorId} className="field-error">
-            {entryError}
-          </p>
-        ) : null}
+        <FieldError id={entryErrorId} error={entryError} />
       </div>
     </div>
   );
