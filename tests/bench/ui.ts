@@ -11,12 +11,12 @@
 // Figures are printed, never asserted: a slow machine must not fail a build.
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
 import { existsSync, readdirSync, readFileSync, statSync } from "node:fs";
-import { createServer } from "node:net";
 import { availableParallelism, loadavg } from "node:os";
 import { join, resolve } from "node:path";
 import { gzipSync } from "node:zlib";
 import { chromium, type Browser, type Page } from "@playwright/test";
 import { DEMO_ACCOUNTS } from "#db/demo-accounts.ts";
+import { freePort } from "../tools/builtServer.ts";
 import { elementCountOf, sheetFeeder } from "./sheetFeeder.ts";
 
 const ELEMENTS = 300;
@@ -42,17 +42,6 @@ function ensureBuild(): string {
   const built = spawnSync(process.execPath, [resolve("node_modules/@react-router/dev/bin.js"), "build"], { encoding: "utf8" });
   if (built.status !== 0) throw new Error(`the build failed:\n${built.stdout}\n${built.stderr}`);
   return "built ./build";
-}
-
-function freePort(): Promise<number> {
-  return new Promise((done, fail) => {
-    const probe = createServer();
-    probe.once("error", fail);
-    probe.listen(0, "127.0.0.1", () => {
-      const address = probe.address();
-      probe.close(() => (typeof address === "object" && address ? done(address.port) : fail(new Error("no free port"))));
-    });
-  });
 }
 
 /** The browser tests' server, run directly under Node with tsx so that SIGTERM reaches it. */
