@@ -1,6 +1,6 @@
 // The study report's input data: every element of the network file by kind, each quantity with
 // its unit, so a reviewer can check what was solved without opening the file. A dash is a value
-// the file does not give. Seldom-given data (zero-sequence, reactive limits, generator ratings)
+// the file does not give. Seldom-given data (a source's ratings and limits, a line's zero sequence)
 // is written out in a last column, only where the file has it.
 import { DataTable, type DataTableProps } from "#app/components/DataTable.tsx";
 import { voltageClassOf } from "#app/components/sheet/voltageClasses.ts";
@@ -39,7 +39,8 @@ function further(parts: (string | false | undefined)[]): string {
 }
 
 const num = (value: number | null | undefined, digits?: number) => formatNumber(value, digits);
-const signed = (value: number) => `${value > 0 ? "+" : ""}${num(value)}`;
+/** Taps with their sign, a true minus as the ladder writes them. */
+const signed = (value: number) => (value > 0 ? `+${num(value)}` : value < 0 ? `−${num(-value)}` : "0");
 
 function sourceControl(s: Source): string {
   const kind = s.kind === "grid" ? "Grid infeed" : "Generator";
@@ -47,9 +48,14 @@ function sourceControl(s: Source): string {
   return `${kind}, ${control}`;
 }
 
-function tapText(t: Transformer): string {
-  const range = t.tapMinPct !== undefined && t.tapMaxPct !== undefined ? ` (${signed(t.tapMinPct)} to ${signed(t.tapMaxPct)}${t.tapStepPct !== undefined ? ` by ${num(t.tapStepPct)}` : ""})` : "";
-  return `${signed(t.tapPct)}${range}`;
+function Tap({ t }: { t: Transformer }) {
+  const range = t.tapMinPct !== undefined && t.tapMaxPct !== undefined ? `${signed(t.tapMinPct)} to ${signed(t.tapMaxPct)}${t.tapStepPct !== undefined ? ` by ${num(t.tapStepPct)}` : ""}` : null;
+  return (
+    <>
+      {signed(t.tapPct)}
+      {range ? <span className="ks-cell-note">{range}</span> : null}
+    </>
+  );
 }
 
 function powerFactorText(load: Load): string {
@@ -90,9 +96,9 @@ export function InputTables({ network }: { network: Network }) {
       cell: (s) =>
         further([
           s.control === "slack" && s.angleDeg !== 0 && `angle ${num(s.angleDeg)}°`,
-          (s.qMinMvar !== undefined || s.qMaxMvar !== undefined) && `Q from ${num(s.qMinMvar)} to ${num(s.qMaxMvar)} Mvar`,
-          s.ratedKV !== undefined && `U_r ${num(s.ratedKV)} kV`,
-          s.ratedPowerFactor !== undefined && `cos φ_r ${num(s.ratedPowerFactor)}`,
+          (s.qMinMvar !== undefined || s.qMaxMvar !== undefined) && `Q limits ${num(s.qMinMvar)} to ${num(s.qMaxMvar)} Mvar`,
+          s.ratedKV !== undefined && `rated ${num(s.ratedKV)} kV`,
+          s.ratedPowerFactor !== undefined && `rated power factor ${num(s.ratedPowerFactor)}`,
           s.z0OverZ1 !== undefined && `Z0/Z1 ${num(s.z0OverZ1)}`,
         ]),
     },
@@ -105,9 +111,9 @@ export function InputTables({ network }: { network: Network }) {
     { header: "X/R", numeric: true, cell: (t) => num(t.xOverR) },
     { header: <>P<sub>k</sub></>, unit: "kW", numeric: true, cell: (t) => num(t.loadLossKW) },
     { header: <>P<sub>0</sub></>, unit: "kW", numeric: true, cell: (t) => num(t.noLoadLossKW) },
-    { header: "Tap (range)", unit: "%", numeric: true, cell: tapText },
+    { header: "Tap", unit: "%", numeric: true, cell: (t) => <Tap t={t} /> },
     { header: "Vector group", cell: (t) => t.vectorGroup },
-    { header: "Further data", cell: (t) => further([t.z0OverZ1 !== undefined && `Z0/Z1 ${num(t.z0OverZ1)}`]) },
+    { header: "Z0/Z1", numeric: true, cell: (t) => num(t.z0OverZ1) },
   ];
   const lineColumns: DataTableProps<Line>["columns"] = [
     { header: "Line or cable", cell: (l) => <Named name={l.name} note={`${bus(l.fromBus)} → ${bus(l.toBus)}`} /> },
