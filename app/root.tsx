@@ -15,6 +15,15 @@ export const meta: Route.MetaFunction = () => [
   { name: "description", content: "Plan a radial grid connection: draw it, solve it, compare voltages, share it." },
 ];
 
+/**
+ * The page's CSP nonce, for the elements React Router renders here. On the server each component
+ * takes it from ServerRouter (entry.server.tsx), so the prop stays unset. The client bundle never
+ * carries it: the client reads it back from a script the server wrote. Browsers blank the nonce
+ * attribute once the page is parsed but keep the `nonce` property, and the property is what React
+ * compares when it hydrates; rendering no nonce there would be a mismatch on every page.
+ */
+const hydratedNonce = typeof document === "undefined" ? undefined : document.querySelector<HTMLScriptElement>("script[nonce]")?.nonce;
+
 export function Layout({ children }: { children: React.ReactNode }) {
   const data = useRouteLoaderData<typeof loader>("root");
   return (
@@ -24,12 +33,12 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <meta name="viewport" content="width=device-width, initial-scale=1" />
         <link rel="icon" href="/favicon.svg" type="image/svg+xml" />
         <Meta />
-        <Links />
+        <Links nonce={hydratedNonce} />
       </head>
       <body className="font-sans antialiased">
         <AppShell user={data?.user ?? null}>{children}</AppShell>
-        <ScrollRestoration />
-        <Scripts />
+        <ScrollRestoration nonce={hydratedNonce} />
+        <Scripts nonce={hydratedNonce} />
       </body>
     </html>
   );
