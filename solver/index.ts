@@ -34,13 +34,24 @@ export function solveNetwork(document: unknown, options: SolveOptions = {}): Sol
   const validated = validateNetwork(document);
   if (!validated.ok) return validated;
   const network = validated.network;
-  const loadFlow = runLoadFlow(network);
-  const checks: Check[] = loadFlowChecks(network, loadFlow);
-  const result: SolveResult = { loadFlow, checks };
-  if (options.faults ?? true) {
-    const faults = computeFaultLevels(network);
-    result.faults = faults;
-    checks.push(...faultChecks(network, faults));
+  try {
+    const loadFlow = runLoadFlow(network);
+    const checks: Check[] = loadFlowChecks(network, loadFlow);
+    const result: SolveResult = { loadFlow, checks };
+    if (options.faults ?? true) {
+      const faults = computeFaultLevels(network);
+      result.faults = faults;
+      checks.push(...faultChecks(network, faults));
+    }
+    return { ok: true, network, result };
+  } catch (failure) {
+    // The schema bounds every quantity to what equipment can have, so this is a network whose
+    // numbers still defeat the arithmetic (say, impedances apart by fifteen orders of magnitude).
+    // Its author gets a sentence, never a crash.
+    const reason = failure instanceof Error ? failure.message : String(failure);
+    return {
+      ok: false,
+      issues: [{ path: "", message: `The solver could not handle this network's numbers (${reason}); check for impedances or ratings far apart in size.` }],
+    };
   }
-  return { ok: true, network, result };
 }

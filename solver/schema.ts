@@ -4,10 +4,31 @@
 import { z } from "zod";
 
 const finite = z.number().finite();
-const positive = finite.positive();
-const nonNegative = finite.nonnegative();
 const id = z.string().trim().min(1, "must not be empty").max(100);
 const name = z.string().trim().min(1, "must not be empty").max(200);
+
+/**
+ * A number within the range that equipment on a power network can have. The bounds are wide (a
+ * planner never meets them) and exist so that a typing slip such as 1e300 MVA is named at its path
+ * instead of turning the per-unit model into overflow or a singular matrix.
+ */
+function within(min: number, max: number, unit: string, options: { minExclusive?: boolean } = {}) {
+  const label = unit ? ` ${unit}` : "";
+  const base = options.minExclusive
+    ? finite.gt(min, `must be above ${min}${label}`)
+    : finite.gte(min, `must be at least ${min}${label}`);
+  return base.lte(max, `must be at most ${max}${label}`);
+}
+
+const kV = within(0.05, 1500, "kV");
+const MVA = within(1e-4, 1e5, "MVA");
+const signedMW = within(-1e5, 1e5, "MW");
+const signedMvar = within(-1e5, 1e5, "Mvar");
+const voltagePu = within(0.5, 1.5, "pu");
+const ratio = within(1e-3, 1e3, "");
+// X/R may be very large: a textbook check models an ideal reactance that way.
+const xOverR = within(1e-3, 1e12, "");
+const percentTap = within(-50, 50, "%");
 
 /** IEC 60076-1 vector group: HV letters, LV letters, clock number 0–11 (e.g. YNd11, Dyn11, YNyn0). */
 export const vectorGroupPattern = /^(YN|Y|D|ZN|Z)(yn|y|d|zn|z)(\d{1,2})$/;
@@ -15,10 +36,10 @@ export const vectorGroupPattern = /^(YN|Y|D|ZN|Z)(yn|y|d|zn|z)(\d{1,2})$/;
 export const busSchema = z.strictObject({
   id,
   name,
-  nominalKV: positive,
-  vMinPu: positive.default(0.95),
-  vMaxPu: positive.default(1.05),
-  breakingKA: positive.optional(),
+  nominalKV: kV,
+  vMinPu: voltagePu.default(0.95),
+  vMaxPu: voltagePu.default(1.05),
+  breakingKA: within(0, 1000, "kA", { minExclusive: true }).optional(),
   x: finite.optional(),
   y: finite.optional(),
 });
@@ -29,19 +50,19 @@ export const sourceSchema = z.strictObject({
   bus: id,
   kind: z.enum(["grid", "generator"]),
   control: z.enum(["slack", "pv", "pq"]),
-  voltagePu: positive.default(1.0),
-  angleDeg: finite.default(0),
-  pMW: finite.default(0),
-  qMvar: finite.default(0),
-  qMinMvar: finite.optional(),
-  qMaxMvar: finite.optional(),
-  shortCircuitMVA: positive.optional(),
-  xOverR: positive.optional(),
-  z0OverZ1: positive.optional(),
-  ratedMVA: positive.optional(),
-  ratedKV: positive.optional(),
-  xdSubtransientPct: positive.optional(),
-  ratedPowerFactor: positive.max(1).optional(),
+  voltagePu: voltagePu.default(1.0),
+  angleDeg: within(-180, 180, "degrees").default(0),
+  pMW: signedMW.default(0),
+  qMvar: signedMvar.default(0),
+  qMinMvar: signedMvar.optional(),
+  qMaxMvar: signedMvar.optional(),
+  shortCircuitMVA: within(1e-3, 1e7, "MVA").optional(),
+  xOverR: xOverR.optional(),
+  z0OverZ1: ratio.optional(),
+  ratedMVA: MVA.optional(),
+  ratedKV: kV.optional(),
+  xdSubtransientPct: within(1, 1000, "%").optional(),
+  ratedPowerFactor: within(0, 1, "", { minExclusive: true }).optional(),
 });
 
 export const transformerSchema = z.strictObject({
@@ -49,21 +70,21 @@ export const transformerSchema = z.strictObject({
   name,
   hvBus: id,
   lvBus: id,
-  ratedMVA: positive,
-  hvKV: positive,
-  lvKV: positive,
-  impedancePct: positive,
-  xOverR: positive.optional(),
-  loadLossKW: nonNegative.optional(),
-  noLoadLossKW: nonNegative.optional(),
-  tapPct: finite.default(0),
-  tapMinPct: finite.optional(),
-  tapMaxPct: finite.optional(),
-  tapStepPct: positive.optional(),
+  ratedMVA: MVA,
+  hvKV: kV,
+  lvKV: kV,
+  impedancePct: within(0.1, 100, "%"),
+  xOverR: xOverR.optional(),
+  loadLossKW: within(0, 1e6, "kW").optional(),
+  noLoadLossKW: within(0, 1e6, "kW").optional(),
+  tapPct: percentTap.default(0),
+  tapMinPct: percentTap.optional(),
+  tapMaxPct: percentTap.optional(),
+  tapStepPct: within(0, 50, "%", { minExclusive: true }).optional(),
   vectorGroup: z
     .string()
     .regex(vectorGroupPattern, "must be an IEC 60076-1 vector group such as YNd11, Dyn11 or YNyn0"),
-  z0OverZ1: positive.optional(),
+  z0OverZ1: ratio.optional(),
 });
 
 export const lineSchema = z.strictObject({
@@ -72,21 +93,21 @@ export const lineSchema = z.strictObject({
   fromBus: id,
   toBus: id,
   kind: z.enum(["overhead", "cable"]),
-  lengthKm: positive,
-  rOhmPerKm: nonNegative,
-  xOhmPerKm: nonNegative,
-  bMicroSiemensPerKm: nonNegative.optional(),
-  r0OhmPerKm: nonNegative.optional(),
-  x0OhmPerKm: nonNegative.optional(),
-  ampacityA: positive.optional(),
+  lengthKm: within(1e-3, 1e4, "km"),
+  rOhmPerKm: within(0, 1e3, "ohm/km"),
+  xOhmPerKm: within(0, 1e3, "ohm/km"),
+  bMicroSiemensPerKm: within(0, 1e5, "µS/km").optional(),
+  r0OhmPerKm: within(0, 1e4, "ohm/km").optional(),
+  x0OhmPerKm: within(0, 1e4, "ohm/km").optional(),
+  ampacityA: within(0, 1e5, "A", { minExclusive: true }).optional(),
 });
 
 export const loadSchema = z.strictObject({
   id,
   name,
   bus: id,
-  pMW: finite,
-  qMvar: finite.default(0),
+  pMW: signedMW,
+  qMvar: signedMvar.default(0),
   model: z.enum(["constant-power", "constant-current", "constant-impedance"]).default("constant-power"),
 });
 
@@ -94,7 +115,7 @@ export const shuntSchema = z.strictObject({
   id,
   name,
   bus: id,
-  qMvar: finite,
+  qMvar: signedMvar,
 });
 
 const networkShape = z.strictObject({
@@ -102,7 +123,7 @@ const networkShape = z.strictObject({
   version: z.literal(1),
   name,
   frequencyHz: z.union([z.literal(50), z.literal(60)]),
-  baseMVA: positive.default(100),
+  baseMVA: within(1, 1e5, "MVA").default(100),
   buses: z.array(busSchema).min(1, "a network needs at least one bus"),
   sources: z.array(sourceSchema).default([]),
   transformers: z.array(transformerSchema).default([]),
@@ -220,8 +241,8 @@ function networkRules(net: Network, ctx: z.RefinementCtx): void {
         ["lines", i, "toBus"],
         `${who} joins "${from.name}" at ${from.nominalKV} kV to "${to.name}" at ${to.nominalKV} kV: a line must stay within one voltage level`,
       );
-    if (l.rOhmPerKm === 0 && l.xOhmPerKm === 0)
-      add(["lines", i, "xOhmPerKm"], `${who}: rOhmPerKm and xOhmPerKm are both 0; a line needs an impedance`);
+    if (Math.hypot(l.rOhmPerKm, l.xOhmPerKm) * l.lengthKm < 1e-6)
+      add(["lines", i, "xOhmPerKm"], `${who}: its impedance is below a micro-ohm; a line needs an impedance (join the buses instead)`);
   });
 
   net.loads.forEach((ld, i) => busRef(["loads", i, "bus"], ld.bus, label("Load", ld)));

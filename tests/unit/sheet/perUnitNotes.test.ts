@@ -68,7 +68,7 @@ describe("Details field checks use the element schemas", () => {
   it("accepts a valid value and refuses one the schema refuses, in words", () => {
     const ok = checkField("transformer", t, "impedancePct", 10);
     expect(ok.ok && (ok.element as typeof t).impedancePct).toBe(10);
-    expect(checkField("transformer", t, "ratedMVA", 0)).toEqual({ ok: false, message: "must be more than 0" });
+    expect(checkField("transformer", t, "ratedMVA", 0)).toEqual({ ok: false, message: "must be 0.0001 or more" });
     const group = checkField("transformer", t, "vectorGroup", "XY7");
     expect(group.ok).toBe(false);
     if (!group.ok) expect(group.message).toMatch(/vector group/);
