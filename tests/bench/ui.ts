@@ -223,11 +223,15 @@ async function measureDrag(page: Page, busId: string): Promise<DragFrames> {
 interface JavaScriptSize {
   routeModules: number;
   routeGzipBytes: number;
-  fetchedFiles: number;
-  fetchedGzipBytes: number;
+  /** Every script fetched so far, with what the route manifest does not list (loaded on demand). */
+  fetched(): Promise<{ files: number; gzipBytes: number; onDemand: { path: string; gzipBytes: number }[] }>;
 }
 
-/** First visit to the editor in a fresh context (empty cache): the route's modules and every script fetched. */
+/**
+ * First visit to the editor in a fresh context (empty cache): the route's modules from the route
+ * manifest, and every script the page fetches, counted when asked (after the edits, so that what
+ * the editor loads on demand, such as the unit parser, is in).
+ */
 async function measureJavaScript(page: Page, networkId: number): Promise<JavaScriptSize> {
   const bodies = new Map<string, Promise<Buffer>>();
   page.on("response", (response) => {
@@ -246,14 +250,22 @@ async function measureJavaScript(page: Page, networkId: number): Promise<JavaScr
     routeFiles.add(route.module);
     for (const file of route.imports ?? []) routeFiles.add(file);
   }
-  const fetched = new Map<string, Buffer>();
-  for (const [path, body] of bodies) fetched.set(path, await body);
-  const bodyOf = (path: string) => fetched.get(path) ?? readFileSync(join("build/client", path));
+  const bodyOf = async (path: string) => (await bodies.get(path)) ?? readFileSync(join("build/client", path));
+  let routeGzipBytes = 0;
+  for (const path of routeFiles) routeGzipBytes += gzipBytes(await bodyOf(path));
   return {
     routeModules: routeFiles.size,
-    routeGzipBytes: [...routeFiles].reduce((sum, path) => sum + gzipBytes(bodyOf(path)), 0),
-    fetchedFiles: fetched.size,
-    fetchedGzipBytes: [...fetched.values()].reduce((sum, body) => sum + gzipBytes(body), 0),
+    routeGzipBytes,
+    async fetched() {
+      let total = 0;
+      const onDemand: { path: string; gzipBytes: number }[] = [];
+      for (const [path, body] of bodies) {
+        const size = gzipBytes(await body);
+        total += size;
+        if (!routeFiles.has(path)) onDemand.push({ path, gzipBytes: size });
+      }
+      return { files: bodies.size, gzipBytes: total, onDemand };
+    },
   };
 }
 
@@ -307,6 +319,7 @@ async function main() {
     const zoomWhole = await zoomOf(page);
     const wholeNodes = await page.locator(".react-flow__node").count();
     const wholeDrag = await measureDrag(page, trunkBusIds[Math.floor(trunkBusIds.length / 3)]);
+    const fetched = await js.fetched();
 
     console.log(
       `\nsheet: ${elementCountOf(network)}-element radial feeder (${network.buses.length} busbars, ${network.lines.length} lines, ` +
@@ -321,14 +334,15 @@ async function main() {
       [`drag a busbar, zoom ${zoomForEdits.toFixed(2)} (${DRAG_MOVES} moves, ${zoomedDrag.frameMs.length} frames, moved ${zoomedDrag.movedPx.toFixed(0)} px)`, `${median(zoomedDrag.frameMs).toFixed(1)} ms/frame`, worstFrames(zoomedDrag.frameMs), "smooth: ~16.7 ms"],
       [`drag a busbar, whole sheet (zoom ${zoomWhole.toFixed(2)}, ${wholeNodes} nodes, ${wholeDrag.frameMs.length} frames, moved ${wholeDrag.movedPx.toFixed(0)} px)`, `${median(wholeDrag.frameMs).toFixed(1)} ms/frame`, worstFrames(wholeDrag.frameMs), "smooth: ~16.7 ms"],
       [`editor route JS, gzip -9 (${js.routeModules} modules from the route manifest)`, `${kb(js.routeGzipBytes).toFixed(1)} KB`, "", `≤ ${JS_BUDGET_KB} KB`],
-      [`all JS fetched on a first visit, gzip -9 (${js.fetchedFiles} files, lazy chunks included)`, `${kb(js.fetchedGzipBytes).toFixed(1)} KB`, "", `≤ ${JS_BUDGET_KB} KB`],
+      [`all JS the editor fetched in this run, gzip -9 (${fetched.files} files)`, `${kb(fetched.gzipBytes).toFixed(1)} KB`, "", `≤ ${JS_BUDGET_KB} KB`],
     ]);
     const verdict = (ok: boolean) => (ok ? "within" : "OVER");
     console.log(
       `edit → Readings: ${verdict(median(edits.editorMs) <= EDIT_TARGET_MS)} the target (median); ` +
         `editor route JS: ${verdict(kb(js.routeGzipBytes) <= JS_BUDGET_KB)} the budget; ` +
-        `all fetched JS: ${verdict(kb(js.fetchedGzipBytes) <= JS_BUDGET_KB)} the budget`,
+        `all fetched JS: ${verdict(kb(fetched.gzipBytes) <= JS_BUDGET_KB)} the budget`,
     );
+    for (const file of fetched.onDemand) console.log(`loaded on demand, not in the route manifest: ${file.path} ${kb(file.gzipBytes).toFixed(1)} KB gzip`);
   } finally {
     await browser?.close();
     await stopServer(server);
