@@ -2,16 +2,13 @@
 // view link alike: one function, so both give the same file for the same revision.
 import type { Db } from "#db/database.ts";
 import type { NetworkRow } from "#db/schema.ts";
+import { downloadFileStem } from "./downloadName.ts";
 import { currentDocument } from "./networks.server.ts";
 import { branchesCsv, busesCsv } from "#solver/csv.ts";
 import { solveNetwork } from "#solver/index.ts";
 
 function plainText(sentence: string, status: number): Response {
   return new Response(`${sentence}\n`, { status, headers: { "Content-Type": "text/plain; charset=utf-8" } });
-}
-
-function fileStem(name: string): string {
-  return name.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "").slice(0, 60) || "network";
 }
 
 /** `table` is the request's `?table=` value, checked here so that every caller answers alike. */
@@ -25,7 +22,7 @@ export async function resultsCsvResponse(db: Db, network: NetworkRow, table: str
     return plainText(`Revision ${network.current_revision} no longer passes the network file's checks, so it has no results.`, 422);
   }
   const csv = table === "buses" ? busesCsv(solved.network, solved.result) : branchesCsv(solved.network, solved.result);
-  const filename = `${fileStem(network.name)}-r${network.current_revision}-${table}.csv`;
+  const filename = `${downloadFileStem(network.name)}-r${network.current_revision}-${table}.csv`;
   return new Response(csv, {
     headers: {
       "Content-Type": "text/csv; charset=utf-8; header=present",

@@ -4,18 +4,12 @@ import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
 import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
+import { downloadFileStem } from "#app/lib/downloadName.ts";
 import { readRevision } from "#db/networks.ts";
 
-/** A file name from the network's name: letters, digits and hyphens, never empty. */
+/** The network file's download name, e.g. `tarn-head-to-calder-flats-fictional-r3.json`. */
 export function exportFileName(name: string, revision: number): string {
-  const base = name
-    .normalize("NFKD")
-    .replace(/[^\w\s-]/g, "")
-    .trim()
-    .replace(/[\s_]+/g, "-")
-    .slice(0, 80)
-    .toLowerCase();
-  return `${base || "network"}-r${revision}.json`;
+  return `${downloadFileStem(name)}-r${revision}.json`;
 }
 
 /**

@@ -2,6 +2,7 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/list";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
+import { TeamSelect } from "#app/components/TeamSelect.tsx";
 import { NetworkRows, RecentlyDeleted } from "#app/components/NetworkList.tsx";
 import { SharedWithYou } from "#app/components/review/SharedWithYou.tsx";
 import { parseId } from "#app/lib/api.server.ts";
@@ -141,18 +142,7 @@ export default function Networks({ loaderData, actionData }: Route.ComponentProp
                   Leave empty to use the starting point's name.
                 </p>
               </div>
-              <div>
-                <label htmlFor="new-network-team" className="field-label">
-                  Team
-                </label>
-                <select id="new-network-team" name="teamId" className="input" defaultValue={createTeams[0].id}>
-                  {createTeams.map((team) => (
-                    <option key={team.id} value={team.id}>
-                      {team.name}
-                    </option>
-                  ))}
-                </select>
-              </div>
+              <TeamSelect id="new-network-team" teams={createTeams} />
               <fieldset>
                 <legend className="field-label">Start from</legend>
                 <div className="space-y-2">

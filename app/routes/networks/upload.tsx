@@ -6,6 +6,7 @@ import { PathProblems } from "#app/components/ImportProblems.tsx";
 import { NetworkFileSummary } from "#app/components/NetworkFileSummary.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
+import { TeamSelect } from "#app/components/TeamSelect.tsx";
 import { parseId } from "#app/lib/api.server.ts";
 import { requireUser, userActor } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
@@ -159,18 +160,7 @@ export default function UploadNetwork({ loaderData, actionData }: Route.Componen
             onChange={(event) => void preview(event.currentTarget.files?.[0])}
           />
         </div>
-        <div>
-          <label htmlFor="upload-team" className="field-label">
-            Team
-          </label>
-          <select id="upload-team" name="teamId" className="input" defaultValue={teams[0].id}>
-            {teams.map((team) => (
-              <option key={team.id} value={team.id}>
-                {team.name}
-              </option>
-            ))}
-          </select>
-        </div>
+        <TeamSelect id="upload-team" teams={teams} />
         <div className="flex flex-wrap gap-2">
           <button type="submit" name="intent" value="preview" className="btn" disabled={busy}>
             Check the file
