@@ -118,9 +118,37 @@ export const shuntSchema = z.strictObject({
   qMvar: signedMvar,
 });
 
+/** A source's dispatch in one operating case; what is not given stays as drawn. */
+export const caseSourceSchema = z.strictObject({
+  pMW: signedMW.optional(),
+  qMvar: signedMvar.optional(),
+  voltagePu: voltagePu.optional(),
+  inService: z.boolean().optional(),
+});
+
+const loadFactor = within(0, 100, "");
+
+/** One operating case (version 2): load scales, dispatch and outages, and the hours it stands for. */
+export const operatingCaseSchema = z.strictObject({
+  id,
+  name,
+  // 8784 h is a leap year; a case's hours are the part of the year the network spends there.
+  hoursPerYear: within(0, 8784, "h").optional(),
+  loadScale: loadFactor.default(1),
+  loads: z.record(z.string(), loadFactor).optional(),
+  sources: z.record(z.string(), caseSourceSchema).optional(),
+  outOfService: z.array(id).optional(),
+});
+
+/** Load growth for the years study (version 2). */
+export const growthSchema = z.strictObject({
+  ratePctPerYear: within(-50, 100, "%"),
+  years: z.number().int("must be a whole number of years").min(1, "must be at least 1 year").max(100, "must be at most 100 years"),
+});
+
 const networkShape = z.strictObject({
   format: z.literal("kilostep.network"),
-  version: z.literal(1),
+  version: z.union([z.literal(1), z.literal(2)]),
   name,
   frequencyHz: z.union([z.literal(50), z.literal(60)]),
   baseMVA: within(1, 1e5, "MVA").default(100),
@@ -130,6 +158,8 @@ const networkShape = z.strictObject({
   lines: z.array(lineSchema).default([]),
   loads: z.array(loadSchema).default([]),
   shunts: z.array(shuntSchema).default([]),
+  cases: z.array(operatingCaseSchema).max(100, "at most 100 operating cases").optional(),
+  growth: growthSchema.optional(),
 });
 
 export type Network = z.output<typeof networkShape>;
@@ -140,6 +170,9 @@ export type Transformer = Network["transformers"][number];
 export type Line = Network["lines"][number];
 export type Load = Network["loads"][number];
 export type Shunt = Network["shunts"][number];
+export type OperatingCase = NonNullable<Network["cases"]>[number];
+export type CaseSource = z.output<typeof caseSourceSchema>;
+export type Growth = NonNullable<Network["growth"]>;
 
 export interface ValidationIssue {
   /** Where the problem is, e.g. `transformers[0].hvKV`; empty for the document itself. */
@@ -248,6 +281,8 @@ function networkRules(net: Network, ctx: z.RefinementCtx): void {
   net.loads.forEach((ld, i) => busRef(["loads", i, "bus"], ld.bus, label("Load", ld)));
   net.shunts.forEach((sh, i) => busRef(["shunts", i, "bus"], sh.bus, label("Shunt", sh)));
 
+  operatingCaseRules(net, add);
+
   // One slack per connected group: union-find over branches whose ends both exist, with full path
   // compression and union by size so that a 100,000-bus chain stays linear.
   const parent = new Map(net.buses.map((b) => [b.id, b.id]));
@@ -290,6 +325,40 @@ function networkRules(net: Network, ctx: z.RefinementCtx): void {
     for (const extra of found.slice(1))
       add(["sources", extra, "control"], `${label("Source", net.sources[extra])} is a second slack in the group of bus "${b.name}"; each connected group needs exactly one`);
   });
+}
+
+/** Hours in a leap year: the most the cases together may stand for. */
+export const HOURS_PER_LEAP_YEAR = 8784;
+
+/** Operating cases name loads, sources and elements that exist, each once; only version 2 has them. */
+function operatingCaseRules(net: Network, add: (path: (string | number)[], message: string) => void): void {
+  if (net.version < 2) {
+    if (net.cases) add(["cases"], `operating cases need "version": 2`);
+    if (net.growth) add(["growth"], `load growth needs "version": 2`);
+  }
+  const cases = net.cases ?? [];
+  const loadIds = new Set(net.loads.map((l) => l.id));
+  const sourceIds = new Set(net.sources.map((s) => s.id));
+  const switchable = new Set([...net.lines, ...net.transformers, ...net.loads, ...net.shunts, ...net.sources].map((e) => e.id));
+  const caseIds = new Map<string, number>();
+  let hours = 0;
+  cases.forEach((c, i) => {
+    const who = `Case "${c.name}" (${c.id})`;
+    const first = caseIds.get(c.id);
+    if (first !== undefined) add(["cases", i, "id"], `case id "${c.id}" is already used by cases[${first}]`);
+    else caseIds.set(c.id, i);
+    hours += c.hoursPerYear ?? 0;
+    for (const loadId of Object.keys(c.loads ?? {}))
+      if (!loadIds.has(loadId)) add(["cases", i, "loads", loadId], `${who} scales load "${loadId}", which does not exist`);
+    for (const sourceId of Object.keys(c.sources ?? {}))
+      if (!sourceIds.has(sourceId)) add(["cases", i, "sources", sourceId], `${who} sets source "${sourceId}", which does not exist`);
+    (c.outOfService ?? []).forEach((elementId, j) => {
+      if (!switchable.has(elementId))
+        add(["cases", i, "outOfService", j], `${who} takes "${elementId}" out of service, but no line, transformer, load, shunt or source has that id`);
+    });
+  });
+  if (hours > HOURS_PER_LEAP_YEAR)
+    add(["cases"], `the cases stand for ${hours} hours together, more than the ${HOURS_PER_LEAP_YEAR} hours of a year`);
 }
 
 export const networkSchema = networkShape.superRefine(networkRules);
