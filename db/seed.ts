@@ -5,9 +5,9 @@ import { pathToFileURL } from "node:url";
 import { env } from "#app/lib/env.server.ts";
 import { hashPassword } from "#app/lib/password.server.ts";
 import { createNetwork } from "#app/lib/networks.server.ts";
-import { DEMO_DOCUMENTS } from "#app/lib/network-templates.server.ts";
+import { DEMO_DOCUMENTS } from "#app/lib/networkTemplates.server.ts";
 import { openMigratedDatabase, type Db } from "./database.ts";
-import { DEMO_ACCOUNTS, DEMO_TEAM_NAME } from "./demo-accounts.ts";
+import { DEMO_ACCOUNTS, DEMO_TEAM_NAME } from "./demoAccounts.ts";
 import { findUserByEmail, insertUser } from "./users.ts";
 import { findRole, insertMembership, insertTeamWithOwner } from "./teams.ts";
 

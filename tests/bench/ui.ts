@@ -15,7 +15,7 @@ import { availableParallelism, loadavg } from "node:os";
 import { join, resolve } from "node:path";
 import { gzipSync } from "node:zlib";
 import { chromium, type Browser, type Page } from "@playwright/test";
-import { DEMO_ACCOUNTS } from "#db/demo-accounts.ts";
+import { DEMO_ACCOUNTS } from "#db/demoAccounts.ts";
 import { freePort } from "../tools/builtServer.ts";
 import { elementCountOf, sheetFeeder } from "./sheetFeeder.ts";
 

@@ -3,7 +3,7 @@
 // every save the server acknowledged (answered 200) must be there with its content. Three rounds.
 // Run: `npm run build && npx tsx tests/crash/crashRecovery.ts` (the browser tests run it too).
 import SQLite from "better-sqlite3";
-import { DEMO_ACCOUNTS } from "#db/demo-accounts.ts";
+import { DEMO_ACCOUNTS } from "#db/demoAccounts.ts";
 import { copyBuild, freePort, seededDatabase, signInCookie, startServer, type RunningServer } from "../tools/builtServer.ts";
 
 const ROUNDS = 3;

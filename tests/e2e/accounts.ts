@@ -1,5 +1,5 @@
 import type { Page } from "@playwright/test";
-import { DEMO_ACCOUNTS } from "../../db/demo-accounts.ts";
+import { DEMO_ACCOUNTS } from "../../db/demoAccounts.ts";
 
 export function demoAccount(role: "owner" | "editor" | "viewer") {
   return DEMO_ACCOUNTS.find((a) => a.role === role)!;

@@ -4,7 +4,7 @@
 import { readFileSync } from "node:fs";
 import { availableParallelism, loadavg } from "node:os";
 import autocannon, { type Result } from "autocannon";
-import { DEMO_ACCOUNTS } from "#db/demo-accounts.ts";
+import { DEMO_ACCOUNTS } from "#db/demoAccounts.ts";
 import { copyBuild, freePort, seededDatabase, signInCookie, startServer } from "../tools/builtServer.ts";
 
 const CONNECTIONS = 50;

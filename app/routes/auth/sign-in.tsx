@@ -14,7 +14,7 @@ import {
   noteSignInFailure,
   noteSignInSuccess,
   THROTTLED_MESSAGE,
-} from "#app/lib/sign-in-throttle.server.ts";
+} from "#app/lib/signInThrottle.server.ts";
 import { normalizeEmail } from "#db/users.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Kilostep" }];

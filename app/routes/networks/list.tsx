@@ -9,7 +9,7 @@ import { parseId } from "#app/lib/api.server.ts";
 import { requireUser, userActor } from "#app/lib/auth.server.ts";
 import { auditNetworkDeletion } from "#app/lib/audit.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
-import { documentFromTemplate, TEMPLATE_IDS, TEMPLATES, type TemplateId } from "#app/lib/network-templates.server.ts";
+import { documentFromTemplate, TEMPLATE_IDS, TEMPLATES, type TemplateId } from "#app/lib/networkTemplates.server.ts";
 import { NETWORK_NAME_MAX } from "#app/lib/forms.ts";
 import { createNetwork, renameNetwork } from "#app/lib/networks.server.ts";
 import { abilitiesOf, grantedOrPageError, networkAccess, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";

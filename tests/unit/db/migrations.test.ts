@@ -1,7 +1,7 @@
 import { Migrator, sql } from "kysely";
 import { describe, expect, it } from "vitest";
 import { migrateToLatest, openDatabase, openMigratedDatabase } from "#db/database.ts";
-import { DEMO_ACCOUNTS, DEMO_TEAM_NAME } from "#db/demo-accounts.ts";
+import { DEMO_ACCOUNTS, DEMO_TEAM_NAME } from "#db/demoAccounts.ts";
 import { migrationProvider, migrations } from "#db/migrations/index.ts";
 import { seedDemo } from "#db/seed.ts";
 import { validateNetwork } from "#solver/schema.ts";

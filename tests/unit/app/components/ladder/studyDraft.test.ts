@@ -1,0 +1,138 @@
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import {
+  canonicalRequest,
+  conductorOptions,
+  draftForSection,
+  draftFromRequest,
+  moveToSection,
+  readCandidateVoltage,
+  readNumber,
+  requestFromDraft,
+  toggleVoltage,
+  voltageKey,
+  type StudyDraft,
+} from "#app/components/ladder/studyDraft.ts";
+import { moneyInputSchema } from "#solver/economics.ts";
+import { validateNetwork, type Network } from "#solver/schema.ts";
+
+function tarnHead(): Network {
+  const checked = validateNetwork(JSON.parse(readFileSync(new URL("../../../../fixtures/tarn-head-calder-flats.json", import.meta.url), "utf8")));
+  if (!checked.ok) throw new Error("fixture invalid");
+  return checked.network;
+}
+
+const network = tarnHead();
+
+function withAlternative(draft: StudyDraft, voltageKV: number, patch: Partial<StudyDraft["alternatives"][string]>): StudyDraft {
+  const key = voltageKey(voltageKV);
+  return { ...draft, alternatives: { ...draft.alternatives, [key]: { ...draft.alternatives[key], ...patch } } };
+}
+
+describe("a new study on the 66 kV link", () => {
+  const draft = draftForSection(network, "b-calder-66");
+
+  // IEC 60038 series I preferred values next to 66 kV are 33 and 110 kV (methods, check values).
+  it("starts with the present voltage and its IEC 60038 neighbours", () => {
+    expect(draft.voltagesKV).toEqual([33, 66, 110]);
+    expect(Object.keys(draft.alternatives)).toEqual(["33", "66", "110"]);
+  });
+
+  it("asks for the money defaults a planner recognises and nothing else", () => {
+    const { request, errors } = requestFromDraft(draft, network);
+    expect(errors).toEqual({});
+    expect(request).toEqual({ sectionBus: "b-calder-66", voltagesKV: [33, 66, 110], money: moneyInputSchema.parse({}) });
+  });
+
+  it("keeps its voltages when another bus of the same section is picked, and starts afresh on another section", () => {
+    expect(moveToSection(draft, network, "b-tarn-66")).toMatchObject({ sectionBus: "b-tarn-66", voltagesKV: [33, 66, 110] });
+    // The 11 kV section at Calder Flats: 6.6, 11 and 22 kV are its series I neighbours.
+    expect(moveToSection(draft, network, "b-town")).toMatchObject({ sectionBus: "b-town", voltagesKV: [6.6, 11, 22] });
+  });
+
+  it("adds and removes voltages in ascending order", () => {
+    const ladder = toggleVoltage(toggleVoltage(draft, 110), 132);
+    expect(ladder.voltagesKV).toEqual([33, 66, 132]);
+    expect(Object.keys(ladder.alternatives).sort()).toEqual(["132", "33", "66"]);
+  });
+});
+
+describe("per-alternative inputs in the request", () => {
+  const base = toggleVoltage(toggleVoltage(draftForSection(network, "b-calder-66"), 110), 132);
+
+  it("reads taps, line cost and capital as planners type them, in the order of the voltages", () => {
+    const draft = withAlternative(base, 132, { taps: { "t-calder": "+2.5 %" }, lineCostPerKm: "240,000", capitalCost: "9 000 000" });
+    const { request, errors } = requestFromDraft(draft, network);
+    expect(errors).toEqual({});
+    expect(request.overrides).toEqual([null, null, { transformers: { "t-calder": { tapPct: 2.5 } }, capital: { lineCostPerKm: 240000, capitalCost: 9000000 } }]);
+  });
+
+  // Methods, ACSR check values: Dove is 0.351 Ω/km at 60 Hz; at 50 Hz X scales by 5/6 to 0.2925 Ω/km, R is kept.
+  it("puts the chosen library conductor on the section at the network's frequency", () => {
+    const dove = conductorOptions(50).find((o) => o.id === "acsr-dove")!;
+    expect(dove.conductor.xOhmPerKm).toBeCloseTo(0.2925, 6);
+    const { request } = requestFromDraft(withAlternative(base, 33, { conductorId: "acsr-dove" }), network);
+    expect(request.overrides?.[0]).toEqual({ conductor: { name: "ACSR Dove 556.5 kcmil 26/7", rOhmPerKm: 0.1156, xOhmPerKm: 0.2925, ampacityA: 730 } });
+  });
+
+  it("names the field of every number it cannot read or the schema refuses", () => {
+    let draft = withAlternative(base, 66, { taps: { "t-tarn": "two" }, capitalCost: "-5" });
+    draft = { ...draft, money: { ...draft.money, text: { ...draft.money.text, loadFactor: "0,6", studyYears: "2.5", energyPricePerMWh: "" } } };
+    const { errors } = requestFromDraft(draft, network);
+    expect(errors).toEqual({
+      "overrides[1].transformers.t-tarn.tapPct": '"two" is not a number',
+      "overrides[1].capital.capitalCost": "must be 0 or more",
+      "money.loadFactor": "use a point for decimals, e.g. 0.6",
+      "money.studyYears": "must be a whole number of years",
+      "money.energyPricePerMWh": "is required",
+    });
+  });
+
+  it("shows a saved request again as it was asked, whatever order its voltages were in", () => {
+    const draft = withAlternative(withAlternative(base, 132, { taps: { "t-calder": "2.5" }, capitalCost: "9000000" }), 33, { conductorId: "acsr-falcon" });
+    const { request } = requestFromDraft(draft, network);
+    const again = draftFromRequest(network, request);
+    expect(canonicalRequest(requestFromDraft(again, network).request)).toBe(canonicalRequest(request));
+    // Asked in another order, the form shows the voltages ascending with their own inputs.
+    const reversed = draftFromRequest(network, { ...request, voltagesKV: [132, 66, 33], overrides: [...request.overrides!].reverse() });
+    expect(reversed.voltagesKV).toEqual([33, 66, 132]);
+    expect(reversed.alternatives["132"].capitalCost).toBe("9000000");
+    expect(reversed.alternatives["33"].conductorId).toBe("acsr-falcon");
+  });
+
+  it("keeps overrides the form does not show when a saved request comes back", () => {
+    const request = { sectionBus: "b-calder-66", voltagesKV: [66], overrides: [{ loads: { "ld-mine": { pMW: 10 } }, transformers: { "t-calder": { tapPct: 1.25, impedancePct: 9 } } }] };
+    const { request: again } = requestFromDraft(draftFromRequest(network, request), network);
+    expect(again.overrides).toEqual([{ loads: { "ld-mine": { pMW: 10 } }, transformers: { "t-calder": { impedancePct: 9, tapPct: 1.25 } } }]);
+  });
+});
+
+describe("typed values", () => {
+  it("reads a free candidate voltage in kV or volts, and says why one cannot join", () => {
+    expect(readCandidateVoltage("88", [33, 66])).toEqual({ ok: true, voltageKV: 88 });
+    expect(readCandidateVoltage("88 kV", [33, 66])).toEqual({ ok: true, voltageKV: 88 });
+    expect(readCandidateVoltage("88000 V", [33, 66])).toEqual({ ok: true, voltageKV: 88 });
+    expect(readCandidateVoltage("66", [33, 66])).toEqual({ ok: false, error: "66 kV is already in the ladder." });
+    expect(readCandidateVoltage("33000", [])).toEqual({ ok: false, error: "33000 kV is above 1200 kV; enter kilovolts (33, not 33000)." });
+    expect(readCandidateVoltage("0", [])).toEqual({ ok: false, error: "The voltage must be above 0 kV." });
+    expect(readCandidateVoltage("", []).ok).toBe(false);
+    expect(readCandidateVoltage("20 MW", [])).toMatchObject({ ok: false, error: expect.stringMatching(/voltage/) });
+    expect(readCandidateVoltage("400", Array.from({ length: 12 }, (_, i) => i + 1))).toMatchObject({ ok: false, error: expect.stringMatching(/at most 12/) });
+  });
+
+  it("reads numbers with thousands separators, a minus sign or a percent sign where one fits", () => {
+    expect(readNumber("7,540,000")).toEqual({ ok: true, value: 7540000 });
+    expect(readNumber("−7.5", true)).toEqual({ ok: true, value: -7.5 });
+    expect(readNumber("8 %", true)).toEqual({ ok: true, value: 8 });
+    expect(readNumber("8 %").ok).toBe(false);
+    expect(readNumber("1e3")).toEqual({ ok: true, value: 1000 });
+  });
+
+  it("compares requests by what they ask, not by how their keys are ordered", () => {
+    const a = { sectionBus: "b-tarn-66", voltagesKV: [66], money: { currency: "GBP", loadFactor: 0.5 } };
+    const b = { money: { loadFactor: 0.5, currency: "GBP" }, voltagesKV: [66], sectionBus: "b-tarn-66" };
+    expect(canonicalRequest(a)).toBe(canonicalRequest(b));
+    expect(canonicalRequest({ ...a, voltagesKV: [66, 132] })).not.toBe(canonicalRequest(a));
+    expect(canonicalRequest({ sectionBus: "" })).toBeUndefined();
+  });
+});

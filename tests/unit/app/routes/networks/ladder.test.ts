@@ -1,0 +1,111 @@
+import { beforeAll, describe, expect, it } from "vitest";
+import tarnHead from "../../../../fixtures/tarn-head-calder-flats.json";
+import { getDb } from "#app/lib/db.server.ts";
+import { action as ladderApi } from "#app/routes/api/ladder.ts";
+import { action as createNetworkApi } from "#app/routes/api/networks.ts";
+import { action as ladderAction, loader as ladderLoader } from "#app/routes/networks/ladder.tsx";
+import { loader as reportLoader } from "#app/routes/networks/report.tsx";
+import { insertMembership, insertTeamWithOwner } from "#db/teams.ts";
+import { call, cookieFor, getRequest, jsonRequest, makeUser } from "../harness.ts";
+
+const cookies = {} as Record<"owner" | "editor" | "viewer" | "outsider", string>;
+let networkId: number;
+let editorName: string;
+const study = { sectionBus: "b-calder-66", voltagesKV: [33, 66, 132], money: { energyPricePerMWh: 95, currency: "GBP" } };
+
+const pagePost = (body: unknown, cookie: string, id = networkId) =>
+  call(ladderAction, jsonRequest("POST", `/networks/${id}/ladder`, { cookie, body }), { networkId: String(id) });
+const pageGet = (cookie: string, id = networkId) => call(ladderLoader, getRequest(`/networks/${id}/ladder`, cookie), { networkId: String(id) });
+const reportGet = (cookie: string, id = networkId) => call(reportLoader, getRequest(`/networks/${id}/report`, cookie), { networkId: String(id) });
+
+beforeAll(async () => {
+  const db = await getDb();
+  const owner = await makeUser("Page Owner", { ownTeam: true });
+  const editor = await makeUser("Page Editor");
+  const viewer = await makeUser("Page Viewer");
+  const outsider = await makeUser("Page Outsider", { ownTeam: true });
+  editorName = editor.name;
+  const teamId = (await db.transaction().execute((trx) => insertTeamWithOwner(trx, "Ladder page team", owner.id))).id;
+  await insertMembership(db, teamId, editor.id, "editor");
+  await insertMembership(db, teamId, viewer.id, "viewer");
+  cookies.owner = await cookieFor(owner);
+  cookies.editor = await cookieFor(editor);
+  cookies.viewer = await cookieFor(viewer);
+  cookies.outsider = await cookieFor(outsider);
+  const created = await call(createNetworkApi, jsonRequest("POST", `/api/networks?team=${teamId}`, { cookie: cookies.owner, body: tarnHead }));
+  networkId = created.body.id;
+});
+
+describe("the ladder page", () => {
+  it("opens for a viewer with no study saved, and says a viewer may not save", async () => {
+    const page = await pageGet(cookies.viewer);
+    expect(page.status).toBe(200);
+    expect(page.body).toMatchObject({ role: "viewer", canSave: false, saved: null, savedLadder: null, revision: 1 });
+  });
+
+  it("is not found for someone outside the team", async () => {
+    expect((await pageGet(cookies.outsider)).status).toBe(404);
+    expect((await pagePost({ intent: "run", request: study }, cookies.outsider)).status).toBe(404);
+  });
+
+  it("runs for a viewer and answers exactly what the API answers for the same request", async () => {
+    const page = await pagePost({ intent: "run", request: study }, cookies.viewer);
+    expect(page.status).toBe(200);
+    const api = await call(ladderApi, jsonRequest("POST", `/api/networks/${networkId}/ladder`, { cookie: cookies.viewer, body: study }), {
+      networkId: String(networkId),
+    });
+    expect(page.body.ladder.alternatives.map((a: { voltageKV: number }) => a.voltageKV)).toEqual([33, 66, 132]);
+    expect(JSON.parse(JSON.stringify(page.body.ladder.alternatives))).toEqual(api.body.alternatives);
+    expect(page.body.ladder.cheapest).toEqual(api.body.cheapest);
+  });
+
+  it("refuses to save for a viewer (403, naming the role) and stores nothing", async () => {
+    const outcome = await pagePost({ intent: "save", request: study }, cookies.viewer);
+    expect(outcome.status).toBe(403);
+    expect(outcome.body.error).toMatch(/viewer/);
+    const db = await getDb();
+    expect(await db.selectFrom("ladder_studies").selectAll().where("network_id", "=", networkId).execute()).toEqual([]);
+  });
+
+  it("names the fields of a bad request with 400", async () => {
+    const outcome = await pagePost({ intent: "run", request: { sectionBus: "b-calder-66", voltagesKV: [], money: { loadFactor: 2 } } }, cookies.viewer);
+    expect(outcome.status).toBe(400);
+    expect(outcome.body.issues.map((i: { path: string }) => i.path).sort()).toEqual(["money.loadFactor", "voltagesKV"]);
+  });
+
+  it("saves an editor's study with the network and shows it again on the next visit, for everyone in the team", async () => {
+    const saved = await pagePost({ intent: "save", request: study }, cookies.editor);
+    expect(saved.status).toBe(200);
+    expect(saved.body.ladder.cheapest).toMatchObject({ voltageKV: 66 });
+    const again = await pageGet(cookies.viewer);
+    expect(again.body.saved).toMatchObject({ networkRevision: 1, updatedByName: editorName });
+    expect(again.body.saved.request).toMatchObject({ sectionBus: "b-calder-66", voltagesKV: [33, 66, 132] });
+    expect(again.body.saved.request.money).toMatchObject({ energyPricePerMWh: 95, currency: "GBP", loadFactor: 0.6, discountRatePct: 8 });
+    expect(again.body.savedLadder.alternatives.map((a: { converged: boolean }) => a.converged)).toEqual([false, true, true]);
+  });
+
+  it("replaces the saved study on the next save instead of adding another", async () => {
+    await pagePost({ intent: "save", request: { ...study, voltagesKV: [66, 132] } }, cookies.editor);
+    const db = await getDb();
+    const rows = await db.selectFrom("ladder_studies").select(["voltages_kv"]).where("network_id", "=", networkId).execute();
+    expect(rows).toEqual([{ voltages_kv: "[66,132]" }]);
+    await pagePost({ intent: "save", request: study }, cookies.editor);
+  });
+});
+
+describe("the study report", () => {
+  it("opens for a viewer with the solved network, the saved ladder and who wrote the revision", async () => {
+    const report = await reportGet(cookies.viewer);
+    expect(report.status).toBe(200);
+    expect(report.body.revision).toMatchObject({ number: 1, by: "Page Owner" });
+    expect(report.body.solved.result.loadFlow.converged).toBe(true);
+    expect(report.body.ladder.alternatives.map((a: { voltageKV: number }) => a.voltageKV)).toEqual([33, 66, 132]);
+    expect(report.body.ladder.money.currency).toBe("GBP");
+  });
+
+  it("is not found for someone outside the team or a network that is not a number", async () => {
+    expect((await reportGet(cookies.outsider)).status).toBe(404);
+    const malformed = await call(reportLoader, getRequest("/networks/x/report", cookies.viewer), { networkId: "x" });
+    expect(malformed.status).toBe(404);
+  });
+});
