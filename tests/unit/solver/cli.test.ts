@@ -1,17 +1,25 @@
 // The command line as a planner runs it: exit status, standard output only for results.
+// The logic runs in-process with the real file reader; one spawn proves the wiring of `npm run solve`.
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
+import { runCommandLine } from "#solver/commandLine.ts";
 import { FIXTURE_DIR } from "./fixtures.ts";
 
 const ROOT = join(FIXTURE_DIR, "..", "..");
 const scratch = mkdtempSync(join(tmpdir(), "kilostep-cli-"));
 
-function run(args: string[], command = "npx", prefix = ["tsx", "solver/cli.ts"]) {
-  const out = spawnSync(command, [...prefix, ...args], { cwd: ROOT, encoding: "utf8", timeout: 60_000 });
-  return { status: out.status, stdout: out.stdout, stderr: out.stderr };
+function run(args: string[]) {
+  let stdout = "";
+  let stderr = "";
+  const status = runCommandLine(args, {
+    readFile: (path) => readFileSync(path, "utf8"),
+    stdout: (text) => void (stdout += text),
+    stderr: (text) => void (stderr += text),
+  });
+  return { status, stdout, stderr };
 }
 
 function scratchFile(name: string, text: string): string {
@@ -20,7 +28,7 @@ function scratchFile(name: string, text: string): string {
   return path;
 }
 
-describe("npm run solve", { timeout: 120_000 }, () => {
+describe("npm run solve", () => {
   it("exit 0 on a solved network, with only the results JSON on standard output", () => {
     const { status, stdout, stderr } = run([join(FIXTURE_DIR, "ring-brackenwold.json")]);
     expect(status).toBe(0);
@@ -82,10 +90,20 @@ describe("npm run solve", { timeout: 120_000 }, () => {
     expect(wrong.stdout).toBe("");
   });
 
-  it("npm run -s solve prints only the JSON", () => {
-    const { status, stdout } = run(["run", "-s", "solve", "--", join(FIXTURE_DIR, "hollin-moor-solar.json")], "npm", []);
-    expect(status).toBe(0);
-    expect(() => JSON.parse(stdout)).not.toThrow();
-    expect(stdout.trimStart().startsWith("{")).toBe(true);
+  it("exit 2 with the usage line on a bad command line", () => {
+    for (const args of [[], ["a.json", "b.json"], ["--colour"], [join(FIXTURE_DIR, "zip-mirewater.json"), "--csv"]]) {
+      const { status, stdout, stderr } = run(args);
+      expect(status).toBe(2);
+      expect(stdout).toBe("");
+      expect(stderr).toContain("usage: npm run solve -- FILE.json");
+    }
+  });
+
+  it("npm run -s solve, as a process, prints only the JSON and exits 0", { timeout: 120_000 }, () => {
+    const out = spawnSync("npm", ["run", "-s", "solve", "--", join(FIXTURE_DIR, "hollin-moor-solar.json")], { cwd: ROOT, encoding: "utf8", timeout: 60_000 });
+    expect(out.status).toBe(0);
+    expect(out.stderr).toBe("");
+    expect(out.stdout.trimStart().startsWith("{")).toBe(true);
+    expect(JSON.parse(out.stdout).loadFlow.converged).toBe(true);
   });
 });

@@ -1,0 +1,78 @@
+// The command line's logic, free of the process: the arguments, a file reader and the two output
+// streams in, the exit status out. `cli.ts` wires it to Node; tests call it directly.
+// Results go to standard output and nothing else does; every complaint goes to standard error.
+// Exit status: 0 solved (also with check violations), 1 load flow not converged, 2 unusable input.
+import { branchesCsv, busesCsv, solveNetwork } from "#solver/index.ts";
+
+export const USAGE = "usage: npm run solve -- FILE.json [--csv buses|branches] [--no-faults]";
+
+export type ExitStatus = 0 | 1 | 2;
+
+export interface CommandLineIo {
+  /** The file's text; throws (with a `code` such as ENOENT where there is one) if it cannot be read. */
+  readFile(path: string): string;
+  stdout(text: string): void;
+  stderr(text: string): void;
+}
+
+interface Arguments {
+  file: string;
+  csv?: "buses" | "branches";
+  faults: boolean;
+}
+
+function parseArguments(argv: readonly string[]): Arguments | string {
+  let file: string | undefined;
+  let csv: Arguments["csv"];
+  let faults = true;
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i];
+    if (arg === "--csv") {
+      const what = argv[++i];
+      if (what !== "buses" && what !== "branches") return `--csv needs "buses" or "branches", not ${what === undefined ? "nothing" : `"${what}"`}`;
+      csv = what;
+    } else if (arg === "--no-faults") faults = false;
+    else if (arg.startsWith("-")) return `unknown option ${arg}`;
+    else if (file === undefined) file = arg;
+    else return `only one file at a time (got "${file}" and "${arg}")`;
+  }
+  if (file === undefined) return "no network file given";
+  return { file, csv, faults };
+}
+
+export function runCommandLine(argv: readonly string[], io: CommandLineIo): ExitStatus {
+  const fail = (message: string): ExitStatus => {
+    io.stderr(`${message}\n`);
+    return 2;
+  };
+  const args = parseArguments(argv);
+  if (typeof args === "string") return fail(`${args}\n${USAGE}`);
+
+  let text: string;
+  try {
+    text = io.readFile(args.file);
+  } catch (error) {
+    return fail(`${args.file}: cannot be read (${(error as { code?: string }).code ?? (error as Error).message})`);
+  }
+  let document: unknown;
+  try {
+    document = JSON.parse(text);
+  } catch (error) {
+    return fail(`${args.file}: not valid JSON (${(error as Error).message})`);
+  }
+
+  const outcome = solveNetwork(document, { faults: args.faults });
+  if (!outcome.ok) {
+    const lines = outcome.issues.map((issue) => `${args.file}: ${issue.path || "(document)"}: ${issue.message}`);
+    return fail(`${lines.join("\n")}\n${outcome.issues.length} problem${outcome.issues.length > 1 ? "s" : ""}; nothing was solved.`);
+  }
+
+  const { network, result } = outcome;
+  if (args.csv === "buses") io.stdout(busesCsv(network, result));
+  else if (args.csv === "branches") io.stdout(branchesCsv(network, result));
+  else io.stdout(`${JSON.stringify(result, null, 2)}\n`);
+
+  if (result.loadFlow.converged) return 0;
+  if (args.csv) io.stderr(`${result.loadFlow.message ?? "The load flow did not converge."}\n`);
+  return 1;
+}
