@@ -1,6 +1,6 @@
 import { Form, Link } from "react-router";
 import { formatDate, formatDateTime } from "#app/lib/format.ts";
-import { NETWORK_NAME_MAX } from "#app/lib/forms.ts";
+import { NETWORK_NAME_MAX } from "#app/lib/fieldSchemas.ts";
 
 export interface NetworkRow {
   id: number;

@@ -5,6 +5,8 @@ import { purgeExpiredDeletions } from "#db/networks.ts";
 import { deleteExpiredSessions } from "#db/sessions.ts";
 import { env } from "./env.server.ts";
 
+export type { Db };
+
 let opening: Promise<Db> | undefined;
 
 export function getDb(): Promise<Db> {

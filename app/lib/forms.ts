@@ -2,8 +2,6 @@
 import { z } from "zod";
 
 export const MIN_PASSWORD_LENGTH = 10;
-export const TEAM_NAME_MAX = 100;
-export const NETWORK_NAME_MAX = 200;
 
 const email = z.string().trim().min(1, "Enter your e-mail address.").pipe(z.email("Enter an e-mail address such as ada@example.org."));
 

@@ -4,7 +4,7 @@
 import { z } from "zod";
 import type { Db } from "#db/database.ts";
 import { insertAuditEvent } from "#db/auditEvents.ts";
-import { deleteInvitation, findInvitationByHash, insertInvitation, takeInvitation } from "#db/invitations.ts";
+import { deleteInvitation, findInvitationByHash, insertInvitation, revokeInvitation, takeInvitation } from "#db/invitations.ts";
 import type { Team, TeamInvitationRow, TeamRole, User } from "#db/schema.ts";
 import { findRole, findTeam, insertMembership } from "#db/teams.ts";
 import { normalizeEmail } from "#db/users.ts";
@@ -121,4 +121,9 @@ export async function acceptInvitation(
     return { ok: true, message: `You joined ${input.team.name} as ${input.invitation.role}.` };
   });
   return outcome;
+}
+
+/** Withdraw a pending invitation of the team; false when it is no longer pending. */
+export async function withdrawInvitation(db: Db, teamId: number, invitationId: number, now = new Date()): Promise<boolean> {
+  return revokeInvitation(db, teamId, invitationId, now);
 }

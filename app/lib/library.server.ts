@@ -1,7 +1,7 @@
 // A team's equipment library: reading it for the library page and for the sheet, and checking
 // every write against the type schemas before it reaches the table.
 import type { Db } from "#db/database.ts";
-import { listLibraryTypes, type LibraryTypeListing } from "#db/libraryTypes.ts";
+import { deleteLibraryType, findLibraryType, listLibraryTypes, writeLibraryTypes, type LibraryTypeListing, type LibraryTypeWrite } from "#db/libraryTypes.ts";
 import {
   conductorTypeDataSchema,
   toConductorType,
@@ -46,4 +46,19 @@ export async function teamEquipmentTypes(
     transformers: entries.flatMap((e) => (e.kind === "transformer" ? [toTransformerType(e.id, e.name, e.data, team.name)] : [])),
     conductors: entries.flatMap((e) => (e.kind === "conductor" ? [toConductorType(e.id, e.name, e.data, team.name)] : [])),
   };
+}
+
+/** Whether a type of that number is in this team's library. */
+export async function teamHasLibraryType(db: Db, teamId: number, typeId: number): Promise<boolean> {
+  return (await findLibraryType(db, typeId))?.team_id === teamId;
+}
+
+/** Add or update types in one transaction: all are written or none (a name taken is refused). */
+export async function saveLibraryTypes(db: Db, input: { teamId: number; userId: number; types: LibraryTypeWrite[] }) {
+  return writeLibraryTypes(db, input);
+}
+
+/** Remove a type from the team's library; false when it is not there. */
+export async function removeLibraryType(db: Db, teamId: number, typeId: number): Promise<boolean> {
+  return deleteLibraryType(db, teamId, typeId);
 }

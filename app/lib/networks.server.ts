@@ -1,14 +1,16 @@
 // Network writes shared by the pages and the API: every document is validated by the network
 // file's schema before anything is stored, and every change is a new numbered revision.
 import type { Db } from "#db/database.ts";
-import { appendRevision, insertNetwork, readRevision } from "#db/networks.ts";
-import type { NetworkRow } from "#db/schema.ts";
-import { NETWORK_NAME_MAX } from "./forms.ts";
+import { appendRevision, insertNetwork, markNetworkDeleted, readRevision, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
+import type { NetworkRow, User } from "#db/schema.ts";
+import { findTeam } from "#db/teams.ts";
+import { auditNetworkDeletion } from "./audit.server.ts";
+import { networkNameSchema } from "./fieldSchemas.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 
 export type CreateResult = { ok: true; network: NetworkRow; document: Network } | { ok: false; issues: ValidationIssue[] };
 export type SaveResult =
-  | { ok: true; revision: number }
+  | { ok: true; revision: number; document: Network }
   | { ok: false; reason: "invalid"; issues: ValidationIssue[] }
   | { ok: false; reason: "stale"; currentRevision: number | null };
 
@@ -41,7 +43,7 @@ export async function saveNetworkDocument(
     authorId: input.authorId,
     message: input.message,
   });
-  return result.ok ? result : { ok: false, reason: "stale", currentRevision: result.currentRevision };
+  return result.ok ? { ok: true, revision: result.revision, document: checked.network } : { ok: false, reason: "stale", currentRevision: result.currentRevision };
 }
 
 /** The current revision's document of a network, as stored (already validated when saved). */
@@ -60,9 +62,9 @@ export async function renameNetwork(
   db: Db,
   input: { networkId: number; name: string; authorId: number },
 ): Promise<{ ok: true; revision: number } | { ok: false; error: string }> {
-  const name = input.name.trim();
-  if (name.length === 0) return { ok: false, error: "Give the network a name." };
-  if (name.length > NETWORK_NAME_MAX) return { ok: false, error: `A name may have at most ${NETWORK_NAME_MAX} characters.` };
+  const checked = networkNameSchema.safeParse(input.name);
+  if (!checked.success) return { ok: false, error: checked.error.issues[0].message };
+  const name = checked.data;
   for (let attempt = 0; attempt < 3; attempt++) {
     const row = await db
       .selectFrom("networks")
@@ -80,9 +82,37 @@ export async function renameNetwork(
       authorId: input.authorId,
       message: `Renamed to "${name}"`,
     });
-    if (saved.ok) return saved;
+    if (saved.ok) return { ok: true, revision: saved.revision };
     if (saved.reason === "invalid")
       return { ok: false, error: `The stored document no longer validates: ${saved.issues[0]?.message ?? "unknown problem"}` };
   }
   return { ok: false, error: "The network kept changing while it was being renamed; try again." };
+}
+
+/** A stored revision (any number) of the network, or undefined when it has none by that number. */
+export async function storedRevision(db: Db, network: NetworkRow, number: number) {
+  return readRevision(db, network.id, number);
+}
+
+/** The name of the team a network belongs to ("" if the team is gone), for page headings. */
+export async function teamNameOf(db: Db, network: NetworkRow): Promise<string> {
+  return (await findTeam(db, network.team_id))?.name ?? "";
+}
+
+/**
+ * Delete a network (restorable for RESTORE_WINDOW_DAYS) and write the line in its team's audit
+ * log; the page and the API both delete through here. Answers until when it can be restored.
+ */
+export async function deleteNetwork(db: Db, input: { network: NetworkRow; by: User; now?: Date }): Promise<{ restorableUntil: string }> {
+  const deletedAt = input.now ?? new Date();
+  await markNetworkDeleted(db, input.network.id, input.by.id, deletedAt);
+  await auditNetworkDeletion(db, { network: input.network, by: input.by, restored: false });
+  return { restorableUntil: new Date(deletedAt.getTime() + RESTORE_WINDOW_DAYS * 86_400_000).toISOString() };
+}
+
+/** Undo a deletion within its window, with its audit line; false when it is not deleted or too late. */
+export async function restoreDeletedNetwork(db: Db, input: { network: NetworkRow; by: User }): Promise<boolean> {
+  if (!(await restoreNetwork(db, input.network.id))) return false;
+  await auditNetworkDeletion(db, { network: input.network, by: input.by, restored: true });
+  return true;
 }

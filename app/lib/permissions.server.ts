@@ -14,6 +14,8 @@ import { findRole, findTeam } from "#db/teams.ts";
  * network, nothing on any team or any other network. `roleOnTeam` / `roleOnNetwork` are the
  * two places that know about each kind.
  */
+export type { TeamRole };
+
 export type Actor =
   | { kind: "user"; userId: number }
   | { kind: "share-link"; linkId: number; networkId: number; role: ShareRole };

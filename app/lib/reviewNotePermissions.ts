@@ -4,6 +4,7 @@
 //  - writing a note or a reply needs an account as well: every note has a named author;
 //  - resolving or reopening a thread needs an account and either edit access or the thread's
 //    first note being one's own (a reviewer closes what they raised).
+import { firstIssue, noteBodySchema } from "./fieldSchemas.ts";
 
 export interface NoteReader {
   /** The signed-in user's id; null for someone holding a view link without an account. */
@@ -25,14 +26,10 @@ export function mayResolveThread(reader: NoteReader, thread: { createdBy: number
   return reader.canEdit || (thread.createdBy !== null && thread.createdBy === reader.userId);
 }
 
-export const NOTE_BODY_MAX = 4000;
-
 /** The note's text trimmed, or the sentence that says why it cannot be stored. */
 export function checkNoteBody(raw: unknown): { ok: true; body: string } | { ok: false; error: string } {
-  const body = typeof raw === "string" ? raw.trim() : "";
-  if (!body) return { ok: false, error: "Write something in the note first." };
-  if (body.length > NOTE_BODY_MAX) return { ok: false, error: `A note may have at most ${NOTE_BODY_MAX} characters; this one has ${body.length}.` };
-  return { ok: true, body };
+  const checked = noteBodySchema.safeParse(raw);
+  return checked.success ? { ok: true, body: checked.data } : { ok: false, error: firstIssue(checked.error) };
 }
 
 /** Open threads per element id ("" for the sheet as a whole), for badges and the panel's count. */

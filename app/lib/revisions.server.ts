@@ -4,6 +4,7 @@ import type { Db } from "#db/database.ts";
 import { insertAuditEvent } from "#db/auditEvents.ts";
 import { readRevision } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";
+import { listRevisions } from "#db/revisions.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { saveNetworkDocument } from "./networks.server.ts";
 import { diffRevisions, type RevisionDiff } from "./revisionDiff.ts";
@@ -62,4 +63,9 @@ export async function restoreRevision(db: Db, input: { network: NetworkRow; numb
     summary: `${input.by.name} restored revision ${input.number} of "${input.network.name}" as revision ${saved.revision}.`,
   });
   return { ok: true, revision: saved.revision };
+}
+
+/** Every saved revision of a network, newest first: number, time, author and message. */
+export async function revisionHistory(db: Db, networkId: number) {
+  return listRevisions(db, networkId);
 }

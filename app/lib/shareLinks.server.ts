@@ -7,9 +7,11 @@ import { insertAuditEvent } from "#db/auditEvents.ts";
 import { findNetwork } from "#db/networks.ts";
 import type { NetworkRow, ShareLinkRow, ShareRole, User } from "#db/schema.ts";
 import {
+  findShareLink,
   findShareLinkByHash,
   insertGrant,
   insertShareLink,
+  listShareLinks,
   markShareLinkRevoked,
   recordShareLinkUse,
 } from "#db/shareLinks.ts";
@@ -107,4 +109,19 @@ export async function noteShareLinkUse(db: Db, link: ShareLinkRow, network: Netw
 /** A signed-in person opened a live link: they hold its role on its network while it lives. */
 export async function grantFromLink(db: Db, link: ShareLinkRow, user: User, now = new Date()): Promise<void> {
   await insertGrant(db, link, user.id, now);
+}
+
+/** A network's links (never their tokens) with whether each still opens anything, for the Share page and the API. */
+export async function shareLinksOf(db: Db, networkId: number, now = new Date()) {
+  const links = await listShareLinks(db, networkId);
+  return links.map((link) => ({
+    ...link,
+    state: secretState({ expires_at: link.expiresAt, revoked_at: link.revokedAt }, now) as "live" | "expired" | "revoked",
+  }));
+}
+
+/** A link by its number, or undefined; `networkId` narrows it to one network's links. */
+export async function shareLinkById(db: Db, linkId: number, networkId?: number): Promise<ShareLinkRow | undefined> {
+  const link = await findShareLink(db, linkId);
+  return link && (networkId === undefined || link.network_id === networkId) ? link : undefined;
 }

@@ -2,17 +2,15 @@
 // owner can neither leave, be removed, nor be made editor or viewer.
 import type { Db } from "#db/database.ts";
 import type { Team, TeamRole } from "#db/schema.ts";
-import { countOwners, deleteMembership, findRole, insertMembership, insertTeamWithOwner, updateRole } from "#db/teams.ts";
+import { countOwners, deleteMembership, findRole, insertMembership, insertTeamWithOwner, membersOf, teamsOfUser, updateRole } from "#db/teams.ts";
 import { findUserByEmail } from "#db/users.ts";
-import { TEAM_NAME_MAX } from "./forms.ts";
+import { firstIssue, teamNameSchema } from "./fieldSchemas.ts";
 
 export type Outcome = { ok: true; message: string } | { ok: false; error: string };
 
 export function checkTeamName(raw: unknown): { ok: true; name: string } | { ok: false; error: string } {
-  const name = typeof raw === "string" ? raw.trim() : "";
-  if (!name) return { ok: false, error: "Give the team a name." };
-  if (name.length > TEAM_NAME_MAX) return { ok: false, error: `A team name may have at most ${TEAM_NAME_MAX} characters.` };
-  return { ok: true, name };
+  const checked = teamNameSchema.safeParse(raw);
+  return checked.success ? { ok: true, name: checked.data } : { ok: false, error: firstIssue(checked.error) };
 }
 
 export async function createTeam(db: Db, name: string, ownerId: number): Promise<Team> {
@@ -55,4 +53,15 @@ export async function removeMember(db: Db, teamId: number, userId: number): Prom
     await deleteMembership(trx, teamId, userId);
     return { ok: true, message: "Removed from the team." };
   });
+}
+
+/** The teams a person belongs to, with their role in each. */
+export async function teamsOf(db: Db, userId: number) {
+  return teamsOfUser(db, userId);
+}
+
+/** A team's members with their roles, and how many owners it has (the last one cannot leave). */
+export async function teamMembers(db: Db, teamId: number) {
+  const members = await membersOf(db, teamId);
+  return { members, ownerCount: members.filter((m) => m.role === "owner").length };
 }

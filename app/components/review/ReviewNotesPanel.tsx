@@ -9,7 +9,8 @@ import { useNodes, ViewportPortal } from "@xyflow/react";
 import { useSheet, useSheetActions } from "#app/components/sheet/sheetStore.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { elementsOf } from "#app/lib/networkElements.ts";
-import { NOTE_BODY_MAX, openCountsByElement } from "#app/lib/reviewNotePermissions.ts";
+import { NOTE_BODY_MAX } from "#app/lib/fieldSchemas.ts";
+import { openCountsByElement } from "#app/lib/reviewNotePermissions.ts";
 import "./review.css";
 
 export interface ReviewNote {

@@ -1,9 +1,7 @@
 import type { Route } from "./+types/ladder";
-import { apiError, parseId, readJsonBody } from "#app/lib/api.server.ts";
-import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
+import { apiError, readJsonBody } from "#app/lib/api.server.ts";
+import { requireApiNetwork } from "#app/lib/access.server.ts";
 import { runLadderOnNetwork } from "#app/lib/ladder.server.ts";
-import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
 
 /**
  * POST /api/networks/:id/ladder with { sectionBus, voltagesKV, money?, overrides? }: the voltage
@@ -14,11 +12,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") {
     return Response.json({ error: "Use POST to run the voltage ladder." }, { status: 405, headers: { Allow: "POST" } });
   }
-  const user = await requireApiUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) return apiError(404, `"${params.networkId}" is not a network number.`);
-  const db = await getDb();
-  const { network } = grantedOrApiError(await networkAccess(db, userActor(user), networkId, "view"));
+  const { db, network } = await requireApiNetwork(request, params, "view");
   const body = await readJsonBody(request);
   const run = await runLadderOnNetwork(db, network, body);
   if (!run.ok) return apiError(run.status, run.error, run.issues);

@@ -2,29 +2,15 @@
 // label? } → 201 { id, url, role, expiresAt }: the url carries the token and is shown only here.
 // GET lists the links with their state and uses (never a token).
 import type { Route } from "./+types/network-shares";
-import { apiError, parseId, readJsonBody } from "#app/lib/api.server.ts";
-import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
-import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
-import { secretState } from "#app/lib/secretTokens.server.ts";
-import { createShareLink } from "#app/lib/shareLinks.server.ts";
+import { requireApiNetwork } from "#app/lib/access.server.ts";
+import { apiError, readJsonBody } from "#app/lib/api.server.ts";
+import { createShareLink, shareLinksOf } from "#app/lib/shareLinks.server.ts";
 import { shareRequestSchema } from "#app/lib/shareRequest.ts";
-import { listShareLinks } from "#db/shareLinks.ts";
 import { formatPath } from "#solver/schema.ts";
 
-async function ownerOf(request: Request, params: { networkId: string }) {
-  const user = await requireApiUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) throw apiError(404, `"${params.networkId}" is not a network number.`);
-  const db = await getDb();
-  const { network } = grantedOrApiError(await networkAccess(db, userActor(user), networkId, "share"));
-  return { db, user, network };
-}
-
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { db, network } = await ownerOf(request, params);
-  const now = new Date();
-  const links = await listShareLinks(db, network.id);
+  const { db, network } = await requireApiNetwork(request, params, "share");
+  const links = await shareLinksOf(db, network.id);
   return Response.json({
     networkId: network.id,
     shares: links.map((l) => ({
@@ -35,7 +21,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       createdBy: l.createdByName,
       expiresAt: l.expiresAt,
       revokedAt: l.revokedAt,
-      state: secretState({ expires_at: l.expiresAt, revoked_at: l.revokedAt }, now),
+      state: l.state,
       uses: l.uses.map((u) => ({ user: u.userEmail, usedAt: u.usedAt })),
     })),
   });
@@ -45,7 +31,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") {
     return Response.json({ error: `${request.method} is not supported here: GET lists links, POST makes one.` }, { status: 405, headers: { Allow: "GET, POST" } });
   }
-  const { db, user, network } = await ownerOf(request, params);
+  const { db, user, network } = await requireApiNetwork(request, params, "share");
   const parsed = shareRequestSchema.safeParse(await readJsonBody(request));
   if (!parsed.success) {
     return apiError(

@@ -1,9 +1,7 @@
 import type { Route } from "./+types/network-solve";
-import { apiError, parseId } from "#app/lib/api.server.ts";
-import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
+import { apiError } from "#app/lib/api.server.ts";
+import { requireApiNetwork } from "#app/lib/access.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
-import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
 import { solveNetwork } from "#solver/index.ts";
 
 /** POST /api/networks/:id/solve: load flow, fault levels and checks for the saved revision. */
@@ -11,11 +9,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") {
     return Response.json({ error: "Use POST to solve the saved network." }, { status: 405, headers: { Allow: "POST" } });
   }
-  const user = await requireApiUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) return apiError(404, `"${params.networkId}" is not a network number.`);
-  const db = await getDb();
-  const { network } = grantedOrApiError(await networkAccess(db, userActor(user), networkId, "view"));
+  const { db, network } = await requireApiNetwork(request, params, "view");
   const { document } = await currentDocument(db, network);
   const outcome = solveNetwork(document);
   if (!outcome.ok) {

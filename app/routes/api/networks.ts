@@ -1,18 +1,16 @@
 import type { Route } from "./+types/networks";
+import { teamOfUser } from "#app/lib/access.server.ts";
 import { apiError, parseId, readJsonBody } from "#app/lib/api.server.ts";
-import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
+import { requireApiUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
+import { networksOfUser, teamsToCreateIn } from "#app/lib/networkLists.server.ts";
 import { createNetwork } from "#app/lib/networks.server.ts";
-import { grantedOrApiError, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";
-import { listNetworksForUser } from "#db/networks.ts";
-import { listGrantedNetworks } from "#db/shareLinks.ts";
-import { teamsOfUser } from "#db/teams.ts";
 
 /** GET /api/networks: every live network of the caller's teams, then those shared with them by a live link. */
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireApiUser(request);
   const db = await getDb();
-  const [own, shared] = await Promise.all([listNetworksForUser(db, user.id), listGrantedNetworks(db, user.id)]);
+  const { own, shared } = await networksOfUser(db, user.id);
   return Response.json({
     networks: [...own, ...shared].map((n) => ({
       id: n.id,
@@ -35,9 +33,6 @@ export async function action({ request }: Route.ActionArgs) {
     );
   }
   const user = await requireApiUser(request);
-  const actor = userActor(user);
-  const db = await getDb();
-
   const teamParam = new URL(request.url).searchParams.get("team");
   let teamId: number;
   if (teamParam !== null) {
@@ -45,7 +40,7 @@ export async function action({ request }: Route.ActionArgs) {
     if (parsed === null) return apiError(400, `"team" must be a team number, such as ?team=3; "${teamParam}" is not one.`);
     teamId = parsed;
   } else {
-    const creatable = (await teamsOfUser(db, user.id)).filter((t) => roleAllows(t.role, "create-in-team"));
+    const creatable = await teamsToCreateIn(await getDb(), user.id);
     if (creatable.length !== 1) {
       return apiError(
         400,
@@ -56,7 +51,7 @@ export async function action({ request }: Route.ActionArgs) {
     }
     teamId = creatable[0].id;
   }
-  const { role } = grantedOrApiError(await teamAccess(db, actor, teamId, "create-in-team"));
+  const { db, role } = await teamOfUser("api", user, teamId, "create-in-team");
 
   const document = await readJsonBody(request);
   const created = await createNetwork(db, { teamId, document, authorId: user.id, message: "Created through the API" });

@@ -5,8 +5,7 @@ import { apiError, parseId } from "#app/lib/api.server.ts";
 import { requireApiUser, userActor } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { grantedOrApiError, networkAccess } from "#app/lib/permissions.server.ts";
-import { revokeShareLink } from "#app/lib/shareLinks.server.ts";
-import { findShareLink } from "#db/shareLinks.ts";
+import { revokeShareLink, shareLinkById } from "#app/lib/shareLinks.server.ts";
 
 export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "DELETE") {
@@ -17,7 +16,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const shareId = parseId(params.shareId);
   if (shareId === null) return missing;
   const db = await getDb();
-  const link = await findShareLink(db, shareId);
+  const link = await shareLinkById(db, shareId);
   if (!link) return missing;
   // Someone who cannot see the network learns nothing about its links, not even that one exists.
   const access = await networkAccess(db, userActor(user), link.network_id, "share");

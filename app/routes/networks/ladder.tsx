@@ -28,13 +28,11 @@ import { VoltageChips } from "#app/components/ladder/VoltageChips.tsx";
 import { chainEndBuses } from "#app/components/report/singleLineLayout.ts";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
-import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
+import { requireNetwork } from "#app/lib/access.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { runLadderOnNetwork, saveLadderStudy, savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
-import { grantedOrPageError, networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
+import { networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
 import { candidateVoltagesKV } from "#solver/iec60038.ts";
 import { findSection, runLadder, type Ladder } from "#solver/ladder.ts";
 import { validateNetwork } from "#solver/schema.ts";
@@ -43,16 +41,8 @@ import "#app/components/ladder/ladder.css";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Voltage ladder · ${data?.name ?? "Network"} · Kilostep` }];
 
-function networkIdOf(params: { networkId: string }): number {
-  const id = parseId(params.networkId);
-  if (id === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
-  return id;
-}
-
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
-  const db = await getDb();
-  const { network, role } = grantedOrPageError(await networkAccess(db, userActor(user), networkIdOf(params), "view"));
+  const { db, network, role } = await requireNetwork(request, params, "view");
   const [revision, saved] = await Promise.all([currentDocument(db, network), savedLadderStudy(db, network.id)]);
   const checked = validateNetwork(revision.document);
   // The saved study is run again on the current revision, so what the page shows is never stale.
@@ -78,9 +68,7 @@ type ActionAnswer =
 
 /** JSON `{ intent: "run" | "save", request }`: run the ladder (anyone who may view), or run and save it (editors). */
 export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireUser(request);
-  const db = await getDb();
-  const networkId = networkIdOf(params);
+  const { db, user, actor, network } = await requireNetwork(request, params, "view");
   const answer = (body: ActionAnswer, status = 200) => data(body, { status });
   let body: { intent?: unknown; request?: unknown };
   try {
@@ -89,13 +77,13 @@ export async function action({ request, params }: Route.ActionArgs) {
     return answer({ ok: false, intent: "run", error: "The page sent something that is not JSON; reload it and try again.", issues: [] }, 400);
   }
   const intent = body.intent === "save" ? "save" : "run";
-  const access = await networkAccess(db, userActor(user), networkId, intent === "save" ? "edit" : "view");
-  if (!access.ok) {
-    if (access.status === 404) throw data(access.error, { status: 404 });
-    return answer({ ok: false, intent, error: access.error, issues: [] }, access.status);
+  // Anyone who may view may run the ladder; saving it as the network's study also needs edit,
+  // refused in the page's own answer so the form can say why.
+  if (intent === "save") {
+    const editing = await networkAccess(db, actor, network.id, "edit");
+    if (!editing.ok) return answer({ ok: false, intent, error: editing.error, issues: [] }, editing.status);
   }
-  const run =
-    intent === "save" ? await saveLadderStudy(db, access.network, user.id, body.request) : await runLadderOnNetwork(db, access.network, body.request);
+  const run = intent === "save" ? await saveLadderStudy(db, network, user.id, body.request) : await runLadderOnNetwork(db, network, body.request);
   if (!run.ok) return answer({ ok: false, intent, error: run.error, issues: run.issues }, run.status);
   return answer({ ok: true, intent, ladder: run.ladder, request: body.request });
 }

@@ -5,34 +5,31 @@ import { PageTitle } from "#app/components/PageTitle.tsx";
 import { TeamSelect } from "#app/components/TeamSelect.tsx";
 import { NetworkRows, RecentlyDeleted } from "#app/components/NetworkList.tsx";
 import { SharedWithYou } from "#app/components/review/SharedWithYou.tsx";
+import { networkOfUser, teamOfUser } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { auditNetworkDeletion } from "#app/lib/audit.server.ts";
+import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
+import { firstIssue, NETWORK_NAME_MAX, optionalNetworkNameSchema } from "#app/lib/fieldSchemas.ts";
 import { documentFromTemplate, TEMPLATE_IDS, TEMPLATES, type TemplateId } from "#app/lib/networkTemplates.server.ts";
-import { NETWORK_NAME_MAX } from "#app/lib/forms.ts";
-import { createNetwork, renameNetwork } from "#app/lib/networks.server.ts";
-import { abilitiesOf, grantedOrPageError, networkAccess, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";
-import { listDeletedNetworksForUser, listNetworksForUser, markNetworkDeleted, restoreNetwork } from "#db/networks.ts";
-import { listGrantedNetworks } from "#db/shareLinks.ts";
-import { teamsOfUser } from "#db/teams.ts";
+import { networksOfUser, restorableNetworksOfUser, teamsToCreateIn } from "#app/lib/networkLists.server.ts";
+import { createNetwork, deleteNetwork, renameNetwork, restoreDeletedNetwork } from "#app/lib/networks.server.ts";
+import { abilitiesOf } from "#app/lib/permissions.server.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Networks · Kilostep" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const db = await getDb();
-  const [networks, deleted, teams, shared] = await Promise.all([
-    listNetworksForUser(db, user.id),
-    listDeletedNetworksForUser(db, user.id),
-    teamsOfUser(db, user.id),
-    listGrantedNetworks(db, user.id),
+  const [{ own, shared }, deleted, createTeams] = await Promise.all([
+    networksOfUser(db, user.id),
+    restorableNetworksOfUser(db, user.id),
+    teamsToCreateIn(db, user.id),
   ]);
   return {
-    networks: networks.map((n) => ({ ...n, may: abilitiesOf(n.role) })),
+    networks: own.map((n) => ({ ...n, may: abilitiesOf(n.role) })),
     shared,
-    deleted: deleted.filter((n) => roleAllows(n.role, "restore")),
-    createTeams: teams.filter((t) => roleAllows(t.role, "create-in-team")).map((t) => ({ id: t.id, name: t.name })),
+    deleted,
+    createTeams,
     templates: TEMPLATES.map(({ id, label, hint }) => ({ id, label, hint })),
   };
 }
@@ -45,22 +42,20 @@ function fail(message: string, status = 400) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request);
-  const actor = userActor(user);
-  const db = await getDb();
   const form = await request.formData();
   const intent = form.get("intent");
 
   if (intent === "create") {
     const teamId = parseId(String(form.get("teamId") ?? ""));
     if (teamId === null) return fail("Choose the team the network belongs to.");
-    grantedOrPageError(await teamAccess(db, actor, teamId, "create-in-team"));
+    const { db } = await teamOfUser("page", user, teamId, "create-in-team");
     const template = String(form.get("template") ?? "blank");
     if (!TEMPLATE_IDS.includes(template as TemplateId)) return fail(`There is no starting point called "${template}".`);
-    const name = String(form.get("name") ?? "").trim();
-    if (name.length > NETWORK_NAME_MAX) return fail(`A name may have at most ${NETWORK_NAME_MAX} characters.`);
+    const name = optionalNetworkNameSchema.safeParse(String(form.get("name") ?? ""));
+    if (!name.success) return fail(firstIssue(name.error));
     const created = await createNetwork(db, {
       teamId,
-      document: documentFromTemplate(template as TemplateId, name),
+      document: documentFromTemplate(template as TemplateId, name.data),
       authorId: user.id,
       message: template === "blank" ? "Created blank" : `Created from the ${template} demo`,
     });
@@ -72,21 +67,19 @@ export async function action({ request }: Route.ActionArgs) {
   if (networkId === null) return fail("Which network? The request names none.");
 
   if (intent === "rename") {
-    const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "rename"));
+    const { db, network } = await networkOfUser(user, networkId, "rename");
     const renamed = await renameNetwork(db, { networkId, name: String(form.get("name") ?? ""), authorId: user.id });
     if (!renamed.ok) return data<ActionResult>({ ok: false, message: renamed.error, networkId }, { status: 400 });
     return data<ActionResult>({ ok: true, message: `Renamed "${network.name}" to "${String(form.get("name")).trim()}".`, networkId });
   }
   if (intent === "delete") {
-    const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "delete"));
-    await markNetworkDeleted(db, networkId, user.id);
-    await auditNetworkDeletion(db, { network, by: user, restored: false });
+    const { db, network } = await networkOfUser(user, networkId, "delete");
+    await deleteNetwork(db, { network, by: user });
     return data<ActionResult>({ ok: true, message: `Deleted "${network.name}". You can restore it from "Recently deleted" for 30 days.` });
   }
   if (intent === "restore") {
-    const { network } = grantedOrPageError(await networkAccess(db, actor, networkId, "restore"));
-    if (!(await restoreNetwork(db, networkId))) return fail(`"${network.name}" is not deleted, or its 30 days have passed.`, 409);
-    await auditNetworkDeletion(db, { network, by: user, restored: true });
+    const { db, network } = await networkOfUser(user, networkId, "restore");
+    if (!(await restoreDeletedNetwork(db, { network, by: user }))) return fail(`"${network.name}" is not deleted, or its 30 days have passed.`, 409);
     return data<ActionResult>({ ok: true, message: `Restored "${network.name}".`, networkId });
   }
   return fail("Unknown request: the form named no known action.");

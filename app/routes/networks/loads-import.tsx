@@ -3,32 +3,26 @@ import type { Route } from "./+types/loads-import";
 import { RowProblems } from "#app/components/ImportProblems.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
+import { requireNetwork } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
 import { formatNumber } from "#app/lib/format.ts";
 import { delimiterName, type RowError } from "#app/lib/imports/csvTable.ts";
 import { previewLoadsCsv, type LoadChange } from "#app/lib/imports/loadsCsv.ts";
 import { currentDocument, saveNetworkDocument } from "#app/lib/networks.server.ts";
-import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
 import { readUploadedFile } from "#app/lib/uploadForm.server.ts";
 import { validateNetwork, type Network } from "#solver/schema.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Import loads · ${data?.name ?? "Network"} · Kilostep` }];
 
-async function editableNetwork(request: Request, param: string) {
-  const user = await requireUser(request);
-  const networkId = parseId(param);
-  if (networkId === null) throw data(`"${param}" is not a network number.`, { status: 404 });
-  const db = await getDb();
-  const { network } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "edit"));
+async function editableNetwork(request: Request, params: { networkId: string }) {
+  const { db, user, network } = await requireNetwork(request, params, "edit");
   const checked = validateNetwork((await currentDocument(db, network)).document);
   if (!checked.ok) throw data(`Revision ${network.current_revision} no longer passes the network file's checks; fix it on the sheet first.`, { status: 409 });
   return { user, db, network, document: checked.network };
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { network, document } = await editableNetwork(request, params.networkId);
+  const { network, document } = await editableNetwork(request, params);
   return {
     id: network.id,
     name: network.name,
@@ -62,7 +56,7 @@ function refused(message: string, revision: number, status = 400, fileName: stri
 
 /** "preview" reads the file against the current revision; "apply" saves it as the next revision, all rows or none. */
 export async function action({ request, params }: Route.ActionArgs) {
-  const { user, db, network, document } = await editableNetwork(request, params.networkId);
+  const { user, db, network, document } = await editableNetwork(request, params);
   const upload = await readUploadedFile(request, "A loads file");
   if (!upload.ok) return refused(upload.error, network.current_revision);
   const preview = previewLoadsCsv(upload.text, document, upload.byteLength);

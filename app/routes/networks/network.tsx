@@ -1,39 +1,32 @@
-import { data, Link } from "react-router";
+import { Link } from "react-router";
 import type { Route } from "./+types/network";
 import { ReviewNotesPanel } from "#app/components/review/ReviewNotesPanel.tsx";
 import { SheetEditor } from "#app/components/sheet/SheetEditor.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
-import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
+import { requireNetwork } from "#app/lib/access.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { teamEquipmentTypes } from "#app/lib/library.server.ts";
-import { currentDocument } from "#app/lib/networks.server.ts";
-import { grantedOrPageError, networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
+import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
+import { roleAllows } from "#app/lib/permissions.server.ts";
 import { reviewNotesFor } from "#app/lib/reviewNotes.server.ts";
-import { findTeam } from "#db/teams.ts";
 import { validateNetwork } from "#solver/schema.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.name ?? "Network"} · Kilostep` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
-  const db = await getDb();
-  const { network, role } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "view"));
-  const [revision, team, notes] = await Promise.all([
+  const { db, user, network, role } = await requireNetwork(request, params, "view");
+  const [revision, teamName, notes] = await Promise.all([
     currentDocument(db, network),
-    findTeam(db, network.team_id),
+    teamNameOf(db, network),
     reviewNotesFor(db, network.id, { userId: user.id, canView: true, canEdit: roleAllows(role, "edit") }),
   ]);
-  const library = await teamEquipmentTypes(db, { id: network.team_id, name: team?.name ?? "" });
+  const library = await teamEquipmentTypes(db, { id: network.team_id, name: teamName });
   const checked = validateNetwork(revision.document);
   return {
     id: network.id,
     name: network.name,
-    team: { id: network.team_id, name: team?.name ?? "" },
+    team: { id: network.team_id, name: teamName },
     role,
     mayShare: roleAllows(role, "share"),
     notes,

@@ -3,20 +3,15 @@
 // "resolve" and "reopen". Writing needs an account; the rules are in reviewNotePermissions.ts.
 import { data } from "react-router";
 import type { Route } from "./+types/notes";
+import { requireNetwork } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
-import { grantedOrPageError, networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
+import { roleAllows } from "#app/lib/permissions.server.ts";
 import { replyToThread, reviewNotesFor, setResolved, startThread, type NoteOutcome } from "#app/lib/reviewNotes.server.ts";
 import { validateNetwork } from "#solver/schema.ts";
 
 async function readerOf(request: Request, params: { networkId: string }) {
-  const user = await requireUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) throw data({ ok: false, message: `"${params.networkId}" is not a network number.` }, { status: 404 });
-  const db = await getDb();
-  const { network, role } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "view"));
+  const { db, user, network, role } = await requireNetwork(request, params, "view");
   return { db, user, network, reader: { userId: user.id, canView: true, canEdit: roleAllows(role, "edit") } };
 }
 

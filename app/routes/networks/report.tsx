@@ -15,8 +15,7 @@ import { getDb } from "#app/lib/db.server.ts";
 import { formatDate, formatDateTime } from "#app/lib/format.ts";
 import { savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { networkReader } from "#app/lib/networkReader.server.ts";
-import { currentDocument } from "#app/lib/networks.server.ts";
-import { findTeam } from "#db/teams.ts";
+import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
 import { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU, solveNetwork } from "#solver/index.ts";
 import { ladderRequestSchema, runLadder, type AlternativeOverrides } from "#solver/ladder.ts";
 import "#app/components/report/drawing.css";
@@ -32,14 +31,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const db = await getDb();
   // Also mapped at /s/:token/report: a view-link holder reads the same report without an account.
   const { network, user, home, viaLink } = await networkReader(db, request, params);
-  const [revision, team, saved] = await Promise.all([currentDocument(db, network), findTeam(db, network.team_id), savedLadderStudy(db, network.id)]);
+  const [revision, team, saved] = await Promise.all([currentDocument(db, network), teamNameOf(db, network), savedLadderStudy(db, network.id)]);
   const solved = solveNetwork(revision.document);
   const ladderRun = saved.study && solved.ok ? runLadder(solved.network, saved.study.request) : null;
   const overrides = saved.study ? (ladderRequestSchema.parse(saved.study.request).overrides as (AlternativeOverrides | null)[] | undefined) : undefined;
   return {
     id: network.id,
     name: network.name,
-    team: team?.name ?? "",
+    team,
     preparedBy: user?.name ?? "a reviewer holding a view link",
     home,
     viaLink,

@@ -5,22 +5,17 @@ import type { Route } from "./+types/revision";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { SheetEditor } from "#app/components/sheet/SheetEditor.tsx";
+import { requireNetwork } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
-import { grantedOrPageError, networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
+import { roleAllows } from "#app/lib/permissions.server.ts";
 import { checkedRevision } from "#app/lib/revisions.server.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Revision ${data?.number ?? ""} · ${data?.name ?? "Network"} · Kilostep` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
-  const networkId = parseId(params.networkId);
+  const { db, network, role } = await requireNetwork(request, params, "view");
   const number = parseId(params.number);
-  if (networkId === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
-  const db = await getDb();
-  const { network, role } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "view"));
   if (number === null) throw data(`"${params.number}" is not a revision number.`, { status: 404 });
   const revision = await checkedRevision(db, network.id, number);
   if (!revision) throw data(`"${network.name}" has no revision ${number}; its newest is ${network.current_revision}.`, { status: 404 });

@@ -6,23 +6,13 @@ import type { Route } from "./+types/revisions";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { RevisionDiffView } from "#app/components/review/RevisionDiffView.tsx";
+import { requireNetwork } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
-import { grantedOrPageError, networkAccess, roleAllows, type NetworkAction } from "#app/lib/permissions.server.ts";
-import { compareRevisions, restoreRevision } from "#app/lib/revisions.server.ts";
-import { listRevisions } from "#db/revisions.ts";
+import { roleAllows } from "#app/lib/permissions.server.ts";
+import { compareRevisions, restoreRevision, revisionHistory } from "#app/lib/revisions.server.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Revisions · ${data?.name ?? "Network"} · Kilostep` }];
-
-async function access(request: Request, params: { networkId: string }, action: NetworkAction) {
-  const user = await requireUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
-  const db = await getDb();
-  return { db, user, ...grantedOrPageError(await networkAccess(db, userActor(user), networkId, action)) };
-}
 
 function revisionParam(value: string | null, fallback: number): number {
   const parsed = parseId(value);
@@ -30,8 +20,8 @@ function revisionParam(value: string | null, fallback: number): number {
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { db, network, role } = await access(request, params, "view");
-  const revisions = await listRevisions(db, network.id);
+  const { db, network, role } = await requireNetwork(request, params, "view");
+  const revisions = await revisionHistory(db, network.id);
   const search = new URL(request.url).searchParams;
   const current = network.current_revision;
   const to = revisionParam(search.get("to"), current);
@@ -51,7 +41,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const { db, user, network } = await access(request, params, "edit");
+  const { db, user, network } = await requireNetwork(request, params, "edit");
   const form = await request.formData();
   const number = parseId(String(form.get("number") ?? ""));
   if (form.get("intent") !== "restore" || number === null) return data({ ok: false, message: "Which revision? The request names none." }, { status: 400 });

@@ -6,43 +6,21 @@ import type { Route } from "./+types/share";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { CopyLink, ShareLinkList } from "#app/components/review/ShareLinks.tsx";
+import { requireNetwork } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
+import { reviewMessageSchema } from "#app/lib/fieldSchemas.ts";
 import { formFields } from "#app/lib/forms.ts";
 import { MailUnavailable, mailAvailable, sendMail } from "#app/lib/mail.server.ts";
 import { reviewRequestMail } from "#app/lib/mailMessages.ts";
-import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
-import { secretState } from "#app/lib/secretTokens.server.ts";
-import { createShareLink, revokeShareLink } from "#app/lib/shareLinks.server.ts";
+import { createShareLink, revokeShareLink, shareLinkById, shareLinksOf } from "#app/lib/shareLinks.server.ts";
 import { SHARE_EXPIRY_MAX_DAYS, shareRequestSchema } from "#app/lib/shareRequest.ts";
-import { findShareLink, listShareLinks } from "#db/shareLinks.ts";
 import { z } from "zod";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Share ${data?.name ?? "network"} · Kilostep` }];
 
-async function ownerAccess(request: Request, params: { networkId: string }) {
-  const user = await requireUser(request);
-  const networkId = parseId(params.networkId);
-  if (networkId === null) throw data(`"${params.networkId}" is not a network number.`, { status: 404 });
-  const db = await getDb();
-  const { network } = grantedOrPageError(await networkAccess(db, userActor(user), networkId, "share"));
-  return { db, user, network };
-}
-
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { db, network } = await ownerAccess(request, params);
-  const now = new Date();
-  const links = await listShareLinks(db, network.id);
-  return {
-    id: network.id,
-    name: network.name,
-    mailAvailable: mailAvailable(),
-    links: links.map((link) => ({
-      ...link,
-      state: secretState({ expires_at: link.expiresAt, revoked_at: link.revokedAt }, now) as "live" | "expired" | "revoked",
-    })),
-  };
+  const { db, network } = await requireNetwork(request, params, "share");
+  return { id: network.id, name: network.name, mailAvailable: mailAvailable(), links: await shareLinksOf(db, network.id) };
 }
 
 /** The form's fields as the API's request: expiry in days, empty for none. */
@@ -58,21 +36,21 @@ function shareRequestFrom(form: FormData) {
 
 const reviewerSchema = z.object({
   email: z.string().trim().min(1, "Enter the reviewer's e-mail address.").pipe(z.email("Enter an e-mail address such as ada@example.org.")),
-  message: z.string().max(2000, "The message may have at most 2,000 characters.").default(""),
+  message: reviewMessageSchema.default(""),
 });
 
 type ActionAnswer = { ok: boolean; message: string; url?: string; form: "create" | "review" | "revoke" };
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const { db, user, network } = await ownerAccess(request, params);
+  const { db, user, network } = await requireNetwork(request, params, "share");
   const form = await request.formData();
   const intent = form.get("intent");
   const origin = new URL(request.url).origin;
 
   if (intent === "revoke") {
     const linkId = parseId(String(form.get("linkId") ?? ""));
-    const link = linkId === null ? undefined : await findShareLink(db, linkId);
-    if (!link || link.network_id !== network.id) return data<ActionAnswer>({ ok: false, message: "There is no such link on this network.", form: "revoke" }, { status: 404 });
+    const link = linkId === null ? undefined : await shareLinkById(db, linkId, network.id);
+    if (!link) return data<ActionAnswer>({ ok: false, message: "There is no such link on this network.", form: "revoke" }, { status: 404 });
     const revoked = await revokeShareLink(db, link, user);
     return data<ActionAnswer>({ ok: true, message: revoked ? `Link #${link.id} is revoked; it opens nothing from now on.` : `Link #${link.id} was already revoked.`, form: "revoke" });
   }

@@ -7,23 +7,22 @@ import { NetworkFileSummary } from "#app/components/NetworkFileSummary.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { TeamSelect } from "#app/components/TeamSelect.tsx";
+import { teamOfUser } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
+import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { readNetworkFile, type NetworkFilePreview, type NetworkFileReading } from "#app/lib/imports/networkFile.ts";
 import { UPLOAD_LIMIT_BYTES } from "#app/lib/imports/uploadLimits.ts";
+import { teamsToCreateIn } from "#app/lib/networkLists.server.ts";
 import { createNetwork } from "#app/lib/networks.server.ts";
-import { grantedOrPageError, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";
 import { readUploadedFile } from "#app/lib/uploadForm.server.ts";
 import type { ValidationIssue } from "#solver/schema.ts";
-import { teamsOfUser } from "#db/teams.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Upload a network file · Kilostep" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const teams = await teamsOfUser(await getDb(), user.id);
-  return { teams: teams.filter((t) => roleAllows(t.role, "create-in-team")).map((t) => ({ id: t.id, name: t.name })) };
+  return { teams: await teamsToCreateIn(await getDb(), user.id) };
 }
 
 /** What the page shows of a reading: never the whole document, which may be megabytes. */
@@ -53,8 +52,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (!upload.ok) return refused(upload.error);
   const teamId = parseId(String(upload.form.get("teamId") ?? ""));
   if (teamId === null) return refused("Choose the team the network belongs to.", upload.fileName);
-  const db = await getDb();
-  grantedOrPageError(await teamAccess(db, userActor(user), teamId, "create-in-team"));
+  const { db } = await teamOfUser("page", user, teamId, "create-in-team");
 
   const reading = readNetworkFile(upload.text, upload.byteLength);
   if (!reading.ok) return data(summary(upload.fileName, reading), { status: 400 });

@@ -2,20 +2,13 @@
 // "invite" sends an invitation by e-mail, "revoke" withdraws one that is still pending.
 import { data } from "react-router";
 import type { Route } from "./+types/invitations";
+import { requireTeam } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields } from "#app/lib/forms.ts";
-import { invitationFormSchema, inviteToTeam } from "#app/lib/invitations.server.ts";
-import { grantedOrPageError, teamAccess } from "#app/lib/permissions.server.ts";
-import { revokeInvitation } from "#db/invitations.ts";
+import { invitationFormSchema, inviteToTeam, withdrawInvitation } from "#app/lib/invitations.server.ts";
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireUser(request);
-  const teamId = parseId(params.teamId);
-  if (teamId === null) throw data({ ok: false, message: `"${params.teamId}" is not a team number.` }, { status: 404 });
-  const db = await getDb();
-  const { team } = grantedOrPageError(await teamAccess(db, userActor(user), teamId, "manage-members"));
+  const { db, user, team } = await requireTeam(request, params, "manage-members");
   const form = await request.formData();
   const intent = form.get("intent");
 
@@ -34,7 +27,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (intent === "revoke") {
     const invitationId = parseId(String(form.get("invitationId") ?? ""));
     if (invitationId === null) return data({ ok: false, message: "Which invitation? The request names none.", fieldErrors: {} }, { status: 400 });
-    const revoked = await revokeInvitation(db, team.id, invitationId, new Date());
+    const revoked = await withdrawInvitation(db, team.id, invitationId);
     return data(
       revoked
         ? { ok: true, message: "Invitation withdrawn; its link no longer works.", fieldErrors: {} }

@@ -4,34 +4,24 @@ import type { Route } from "./+types/library";
 import { RowProblems } from "#app/components/ImportProblems.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
+import { requireTeam } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
+import type { Db } from "#app/lib/db.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { formFields } from "#app/lib/forms.ts";
 import type { RowError } from "#app/lib/imports/csvTable.ts";
 import { previewLibraryCsv, type LibraryTypeChange } from "#app/lib/imports/libraryCsv.ts";
-import { teamLibrary, type LibraryEntry } from "#app/lib/library.server.ts";
+import { removeLibraryType, saveLibraryTypes, teamHasLibraryType, teamLibrary, type LibraryEntry } from "#app/lib/library.server.ts";
 import { libraryFields, type LibraryField } from "#app/lib/libraryFields.ts";
 import { readTypeForm } from "#app/lib/libraryForm.ts";
 import type { LibraryTypeKind } from "#app/lib/libraryTypes.ts";
-import { grantedOrPageError, roleAllows, teamAccess } from "#app/lib/permissions.server.ts";
+import { roleAllows } from "#app/lib/permissions.server.ts";
 import { readUploadedFile } from "#app/lib/uploadForm.server.ts";
-import { deleteLibraryType, findLibraryType, writeLibraryTypes } from "#db/libraryTypes.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Equipment library · ${data?.team.name ?? "Team"} · Kilostep` }];
 
-async function teamOf(request: Request, param: string, action: "view-team" | "edit-library") {
-  const user = await requireUser(request);
-  const teamId = parseId(param);
-  if (teamId === null) throw data(`"${param}" is not a team number.`, { status: 404 });
-  const db = await getDb();
-  const access = grantedOrPageError(await teamAccess(db, userActor(user), teamId, action));
-  return { user, db, ...access };
-}
-
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { db, team, role } = await teamOf(request, params.teamId, "view-team");
+  const { db, team, role } = await requireTeam(request, params, "view-team");
   return { team: { id: team.id, name: team.name }, role, canEdit: roleAllows(role, "edit-library"), types: await teamLibrary(db, team.id) };
 }
 
@@ -53,7 +43,7 @@ function isKind(value: unknown): value is LibraryTypeKind {
   return value === "transformer" || value === "conductor";
 }
 
-async function importAction(request: Request, teamId: number, userId: number, db: Awaited<ReturnType<typeof getDb>>) {
+async function importAction(request: Request, teamId: number, userId: number, db: Db) {
   const upload = await readUploadedFile(request, "A library file");
   const failed = (message: string, status = 400) =>
     data<ActionResult>({ intent: "import", stage: "preview", ok: false, message, rowErrors: [], totalRowErrors: 0, changes: [], ignoredColumns: [] }, { status });
@@ -80,7 +70,7 @@ async function importAction(request: Request, teamId: number, userId: number, db
   };
   if (!preview.ok) return data(result, { status: 400 });
   if (upload.form.get("intent") !== "import-apply") return result;
-  const written = await writeLibraryTypes(db, {
+  const written = await saveLibraryTypes(db, {
     teamId,
     userId,
     types: preview.changes.map((c) => ({ kind: c.kind, name: c.name, data: c.data, id: c.id })),
@@ -90,13 +80,13 @@ async function importAction(request: Request, teamId: number, userId: number, db
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const { user, db, team } = await teamOf(request, params.teamId, "edit-library");
+  const { user, db, team } = await requireTeam(request, params, "edit-library");
   if ((request.headers.get("Content-Type") ?? "").startsWith("multipart/form-data")) return importAction(request, team.id, user.id, db);
 
   const fields = formFields(await request.formData());
   if (fields.intent === "delete-type") {
     const id = parseId(fields.typeId);
-    if (id === null || !(await deleteLibraryType(db, team.id, id)))
+    if (id === null || !(await removeLibraryType(db, team.id, id)))
       return data<ActionResult>({ intent: "delete-type", ok: false, message: "That type is not in this team's library any more." }, { status: 404 });
     return { intent: "delete-type", ok: true, message: `Deleted "${fields.typeName ?? "the type"}".` } satisfies ActionResult;
   }
@@ -107,12 +97,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (!read.ok) return data<ActionResult>({ intent: "save-type", ok: false, message: "Some fields need attention.", fieldErrors: read.fieldErrors, formKey }, { status: 400 });
     const id = fields.typeId ? parseId(fields.typeId) : undefined;
     if (id === null) return data<ActionResult>({ intent: "save-type", ok: false, message: "Which type? The form names none.", formKey }, { status: 400 });
-    if (id !== undefined) {
-      const existing = await findLibraryType(db, id);
-      if (!existing || existing.team_id !== team.id)
-        return data<ActionResult>({ intent: "save-type", ok: false, message: "That type is not in this team's library any more.", formKey }, { status: 404 });
+    if (id !== undefined && !(await teamHasLibraryType(db, team.id, id))) {
+      return data<ActionResult>({ intent: "save-type", ok: false, message: "That type is not in this team's library any more.", formKey }, { status: 404 });
     }
-    const written = await writeLibraryTypes(db, { teamId: team.id, userId: user.id, types: [{ kind: read.kind, name: read.name, data: read.data, id }] });
+    const written = await saveLibraryTypes(db, { teamId: team.id, userId: user.id, types: [{ kind: read.kind, name: read.name, data: read.data, id }] });
     if (!written.ok) return data<ActionResult>({ intent: "save-type", ok: false, message: written.error, fieldErrors: { name: "another type has this name" }, formKey }, { status: 409 });
     return { intent: "save-type", ok: true, message: `Saved "${read.name}".`, formKey } satisfies ActionResult;
   }

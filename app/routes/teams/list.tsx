@@ -3,13 +3,13 @@ import type { Route } from "./+types/list";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
-import { teamsOfUser } from "#db/teams.ts";
+import { teamsOf } from "#app/lib/teams.server.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Teams · Kilostep" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  return { teams: await teamsOfUser(await getDb(), user.id) };
+  return { teams: await teamsOf(await getDb(), user.id) };
 }
 
 export default function Teams({ loaderData }: Route.ComponentProps) {

@@ -4,7 +4,7 @@ import { FormField } from "#app/components/FormField.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
-import { TEAM_NAME_MAX } from "#app/lib/forms.ts";
+import { TEAM_NAME_MAX } from "#app/lib/fieldSchemas.ts";
 import { checkTeamName, createTeam } from "#app/lib/teams.server.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "New team · Kilostep" }];

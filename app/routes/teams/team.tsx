@@ -5,40 +5,21 @@ import { PageTitle } from "#app/components/PageTitle.tsx";
 import { TeamMembers } from "#app/components/TeamMembers.tsx";
 import { TeamAuditLog } from "#app/components/review/TeamAuditLog.tsx";
 import { TeamInvitations } from "#app/components/review/TeamInvitations.tsx";
+import { requireTeam } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { requireUser, userActor } from "#app/lib/auth.server.ts";
 import { addMemberAudited, changeRoleAudited, ownerPanels, removeMemberAudited } from "#app/lib/audit.server.ts";
-import { getDb } from "#app/lib/db.server.ts";
-import { abilitiesOf, grantedOrPageError, ROLES, teamAccess } from "#app/lib/permissions.server.ts";
-import type { Outcome } from "#app/lib/teams.server.ts";
-import type { TeamRole } from "#db/schema.ts";
-import { membersOf } from "#db/teams.ts";
+import { abilitiesOf, grantedOrPageError, ROLES, teamAccess, type TeamRole } from "#app/lib/permissions.server.ts";
+import { teamMembers, type Outcome } from "#app/lib/teams.server.ts";
 
 const ROLE_CHOICES: readonly TeamRole[] = ["owner", "editor", "viewer"];
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.team.name ?? "Team"} · Kilostep` }];
 
-function teamIdOf(params: { teamId: string }): number {
-  const teamId = parseId(params.teamId);
-  if (teamId === null) throw data(`"${params.teamId}" is not a team number.`, { status: 404 });
-  return teamId;
-}
-
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const user = await requireUser(request);
-  const db = await getDb();
-  const { team, role } = grantedOrPageError(await teamAccess(db, userActor(user), teamIdOf(params), "view-team"));
+  const { db, user, team, role } = await requireTeam(request, params, "view-team");
   const may = abilitiesOf(role);
-  const [members, owner] = await Promise.all([membersOf(db, team.id), may["manage-members"] ? ownerPanels(db, team) : null]);
-  return {
-    team: { id: team.id, name: team.name },
-    role,
-    me: user.id,
-    may,
-    ownerCount: members.filter((m) => m.role === "owner").length,
-    members,
-    owner,
-  };
+  const [{ members, ownerCount }, owner] = await Promise.all([teamMembers(db, team.id), may["manage-members"] ? ownerPanels(db, team) : null]);
+  return { team: { id: team.id, name: team.name }, role, me: user.id, may, ownerCount, members, owner };
 }
 
 function asRole(value: FormDataEntryValue | null): TeamRole | null {
@@ -46,10 +27,9 @@ function asRole(value: FormDataEntryValue | null): TeamRole | null {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const user = await requireUser(request);
-  const actor = userActor(user);
-  const db = await getDb();
-  const teamId = teamIdOf(params);
+  // Every member may leave; the other intents need manage-members, asked once the intent is known.
+  const { db, user, actor, team } = await requireTeam(request, params, "leave-team");
+  const teamId = team.id;
   const form = await request.formData();
   const intent = form.get("intent");
   const answer = (outcome: Outcome) =>
@@ -58,7 +38,6 @@ export async function action({ request, params }: Route.ActionArgs) {
     });
 
   if (intent === "leave") {
-    grantedOrPageError(await teamAccess(db, actor, teamId, "leave-team"));
     const outcome = await removeMemberAudited(db, { teamId, by: user, memberId: user.id });
     return outcome.ok ? redirect("/teams") : answer(outcome);
   }

@@ -1,7 +1,8 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "#app/lib/db.server.ts";
 import { mailSettled, receivedMail } from "#app/lib/mail.server.ts";
-import { checkNoteBody, mayReadNotes, mayResolveThread, mayWriteNotes, NOTE_BODY_MAX, openCountsByElement } from "#app/lib/reviewNotePermissions.ts";
+import { NOTE_BODY_MAX } from "#app/lib/fieldSchemas.ts";
+import { checkNoteBody, mayReadNotes, mayResolveThread, mayWriteNotes, openCountsByElement } from "#app/lib/reviewNotePermissions.ts";
 import { reviewNotesFor, startThread } from "#app/lib/reviewNotes.server.ts";
 import { loader as networkLoader } from "#app/routes/networks/network.tsx";
 import { action as notesAction, loader as notesLoader } from "#app/routes/networks/notes.ts";
