@@ -1,8 +1,11 @@
-// The bus admittance matrix of a validated network, in typed arrays: each branch as a two-port
-// (I_from = y_ff·V_from + y_ft·V_to, I_to = y_tf·V_from + y_tt·V_to), summed into compressed rows.
-// Parallel branches add into the same entry, so rings and parallel lines need no special case.
+// Nodal admittance matrices in typed arrays, the one builder for every sequence network: each
+// branch as a two-port (I_from = y_ff·V_from + y_ft·V_to, I_to = y_tf·V_from + y_tt·V_to), summed
+// into compressed rows. Parallel branches add into the same entry, so rings and parallel lines need
+// no special case. The load flow's positive sequence (line charging, taps, core loss) is built here
+// from the network; the fault levels' positive and zero sequences from their `NodalNetwork`s.
 import type { Network } from "#solver/schema.ts";
-import type { Graph } from "#solver/sparse.ts";
+import type { Graph } from "#solver/sparse/ordering.ts";
+import type { NodalNetwork } from "#solver/faults/nodalNetwork.ts";
 import { IdIndex } from "#solver/idIndex.ts";
 import {
   lineSeriesImpedancePu,
@@ -39,7 +42,10 @@ export interface NetworkAdmittance {
 export function buildAdmittance(network: Network): NetworkAdmittance {
   const busIndex = new IdIndex(network.buses.map((bus) => bus.id));
   const branches = branchTwoPorts(network, busIndex);
-  const matrix = assemble(network, busIndex, branches);
+  const diagonalG = new Float64Array(network.buses.length);
+  const diagonalB = new Float64Array(network.buses.length);
+  for (const shunt of network.shunts) diagonalB[busIndex.get(shunt.bus)!] += shuntSusceptancePu(shunt, network.baseMVA);
+  const matrix = assembleAdmittance(network.buses.length, branches, diagonalG, diagonalB);
   return { busIndex, branches, matrix };
 }
 
@@ -104,24 +110,32 @@ function writeTwoPort(
   y[q + 7] = btt;
 }
 
-function assemble(network: Network, busIndex: IdIndex, branches: BranchTwoPorts): AdmittanceMatrix {
-  const n = network.buses.length;
+/**
+ * Sums branch two-ports into compressed rows over `nodeCount` nodes. `diagonalG`/`diagonalB` carry
+ * the shunts already and are added to (and returned). A branch whose ends are one node (its ends
+ * joined by a zero impedance elsewhere) adds its whole two-port to that node's diagonal.
+ */
+export function assembleAdmittance(
+  nodeCount: number,
+  branches: BranchTwoPorts,
+  diagonalG: Float64Array,
+  diagonalB: Float64Array,
+): AdmittanceMatrix {
+  const n = nodeCount;
   const { count, from, to, y } = branches;
-  const diagonalG = new Float64Array(n);
-  const diagonalB = new Float64Array(n);
-  for (const shunt of network.shunts) diagonalB[busIndex.get(shunt.bus)!] += shuntSusceptancePu(shunt, network.baseMVA);
-
   // Count each branch once per end, fill the rows, then merge parallel branches in place.
   const rowStart = new Int32Array(n + 1);
   for (let k = 0; k < count; k++) {
+    if (from[k] === to[k]) continue;
     rowStart[from[k] + 1]++;
     rowStart[to[k] + 1]++;
   }
   for (let i = 0; i < n; i++) rowStart[i + 1] += rowStart[i];
   const fillAt = rowStart.slice(0, n);
-  const neighbours = new Int32Array(2 * count);
-  const g = new Float64Array(2 * count);
-  const b = new Float64Array(2 * count);
+  const entries = rowStart[n];
+  const neighbours = new Int32Array(entries);
+  const g = new Float64Array(entries);
+  const b = new Float64Array(entries);
   for (let k = 0; k < count; k++) {
     const f = from[k];
     const t = to[k];
@@ -130,6 +144,11 @@ function assemble(network: Network, busIndex: IdIndex, branches: BranchTwoPorts)
     diagonalB[f] += y[q + 1];
     diagonalG[t] += y[q + 6];
     diagonalB[t] += y[q + 7];
+    if (f === t) {
+      diagonalG[f] += y[q + 2] + y[q + 4];
+      diagonalB[f] += y[q + 3] + y[q + 5];
+      continue;
+    }
     let e = fillAt[f]++;
     neighbours[e] = t;
     g[e] = y[q + 2];
@@ -172,4 +191,43 @@ function assemble(network: Network, busIndex: IdIndex, branches: BranchTwoPorts)
     diagonalG,
     diagonalB,
   };
+}
+
+/**
+ * A fault sequence network's admittance: each series impedance behind its ideal ratio r:1 at the
+ * `from` end as the two-port y_ff = y/r², y_ft = y_tf = −y/r, y_tt = y, each shunt impedance on its
+ * node's diagonal. `node` maps each node to the one it is merged into (zero-impedance links); a
+ * branch of zero impedance is such a link and is left out.
+ */
+export function sequenceAdmittance(network: NodalNetwork, node: Int32Array): AdmittanceMatrix {
+  const { nodeCount, branchCount, branchFrom, branchTo, branchZRe, branchZIm, branchRatio } = network;
+  let count = 0;
+  for (let k = 0; k < branchCount; k++) if (branchZRe[k] !== 0 || branchZIm[k] !== 0) count++;
+  const twoPorts: BranchTwoPorts = { count, from: new Int32Array(count), to: new Int32Array(count), y: new Float64Array(8 * count) };
+  let m = 0;
+  for (let k = 0; k < branchCount; k++) {
+    const zRe = branchZRe[k];
+    const zIm = branchZIm[k];
+    if (zRe === 0 && zIm === 0) continue;
+    const mag2 = zRe * zRe + zIm * zIm;
+    const gs = zRe / mag2;
+    const bs = -zIm / mag2;
+    const r = branchRatio[k];
+    twoPorts.from[m] = node[branchFrom[k]];
+    twoPorts.to[m] = node[branchTo[k]];
+    writeTwoPort(twoPorts.y, m, gs / (r * r), bs / (r * r), -gs / r, -bs / r, -gs / r, -bs / r, gs, bs);
+    m++;
+  }
+  const diagonalG = new Float64Array(nodeCount);
+  const diagonalB = new Float64Array(nodeCount);
+  for (let s = 0; s < network.shuntCount; s++) {
+    const zRe = network.shuntZRe[s];
+    const zIm = network.shuntZIm[s];
+    const mag2 = zRe * zRe + zIm * zIm;
+    if (mag2 === 0) throw new Error(`a shunt at node ${network.shuntNode[s]} has no impedance`);
+    const k = node[network.shuntNode[s]];
+    diagonalG[k] += zRe / mag2;
+    diagonalB[k] -= zIm / mag2;
+  }
+  return assembleAdmittance(nodeCount, twoPorts, diagonalG, diagonalB);
 }

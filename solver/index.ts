@@ -2,7 +2,7 @@
 // validate the document, run the load flow, then the fault levels, then the checks.
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import type { Check, SolveResult } from "#solver/results.ts";
-import { runLoadFlow } from "#solver/loadFlow.ts";
+import { runLoadFlow } from "#solver/loadFlow/index.ts";
 import { loadFlowChecks } from "#solver/checks.ts";
 import { computeFaultLevels, faultChecks } from "#solver/faults/index.ts";
 
@@ -21,7 +21,7 @@ export type {
 } from "#solver/schema.ts";
 export type * from "#solver/results.ts";
 export { busesCsv, branchesCsv } from "#solver/csv.ts";
-export { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/loadFlow.ts";
+export { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/loadFlow/index.ts";
 
 export interface SolveOptions {
   /** Compute IEC 60909-0 fault levels too (default true). */

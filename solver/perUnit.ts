@@ -1,7 +1,7 @@
 // Per-unit quantities on the system base, one small function per element quantity.
 // Each bus's voltage base is its nominal kV; the power base is the network's baseMVA.
 // Shared by the load flow and the fault levels, so every conversion lives here once.
-import type { Bus, Line, Load, Network, Shunt, Source, Transformer } from "#solver/schema.ts";
+import type { Bus, Line, Load, Shunt, Transformer } from "#solver/schema.ts";
 
 /** A series impedance in per unit: resistance and reactance. */
 export interface ImpedancePu {
@@ -9,10 +9,9 @@ export interface ImpedancePu {
   x: number;
 }
 
-/** Power in per unit on baseMVA: active and reactive. */
-export interface PowerPu {
-  p: number;
-  q: number;
+/** Power in per unit: MW or Mvar over the system base. */
+export function powerPu(megawattsOrMegavars: number, baseMVA: number): number {
+  return megawattsOrMegavars / baseMVA;
 }
 
 /** Z_base = kV² / MVA, in ohms. */
@@ -98,22 +97,7 @@ export function loadVoltageExponent(model: Load["model"]): 0 | 1 | 2 {
   }
 }
 
-/** A load's power at 1 pu voltage, in per unit. */
-export function loadPowerPu(load: Load, baseMVA: number): PowerPu {
-  return { p: load.pMW / baseMVA, q: load.qMvar / baseMVA };
-}
-
 /** A shunt's susceptance: its rated Mvar at 1 pu, capacitive positive. */
 export function shuntSusceptancePu(shunt: Shunt, baseMVA: number): number {
-  return shunt.qMvar / baseMVA;
-}
-
-/** A source's scheduled output in per unit (pv uses p; pq uses both). */
-export function sourcePowerPu(source: Source, baseMVA: number): PowerPu {
-  return { p: source.pMW / baseMVA, q: source.qMvar / baseMVA };
-}
-
-/** A network's buses by id, for the functions above that need a bus. */
-export function busesById(network: Network): Map<string, Bus> {
-  return new Map(network.buses.map((b) => [b.id, b]));
+  return powerPu(shunt.qMvar, baseMVA);
 }

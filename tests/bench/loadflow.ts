@@ -7,7 +7,7 @@
 import { spawnSync } from "node:child_process";
 import { loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
-import { runLoadFlow } from "#solver/loadFlow.ts";
+import { runLoadFlow } from "#solver/loadFlow/index.ts";
 import { validateNetwork } from "#solver/schema.ts";
 import { networkFromElements, syntheticFeeder } from "./syntheticFeeder.ts";
 import type { Bench } from "./bench.ts";

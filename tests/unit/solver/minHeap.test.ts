@@ -2,7 +2,7 @@
 // value, and the key of each entry popped is left in lastKey.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { MinHeap } from "#solver/minHeap.ts";
+import { MinHeap } from "#solver/sparse/minHeap.ts";
 
 describe("MinHeap", () => {
   it("pops every pushed pair in the order a sort by (key, value) gives", () => {

@@ -3,7 +3,8 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { lusolve } from "mathjs";
-import { analyse, BlockFactor, type Graph } from "#solver/sparse.ts";
+import { BlockFactor } from "#solver/sparse/blockLu.ts";
+import { analyse, type Graph } from "#solver/sparse/ordering.ts";
 
 function graphOf(n: number, edges: [number, number][]): Graph {
   const sets = Array.from({ length: n }, () => new Set<number>());
