@@ -8,7 +8,8 @@ import { deleteInvitation, findInvitationByHash, insertInvitation, revokeInvitat
 import type { Team, TeamInvitationRow, TeamRole, User } from "#db/schema.ts";
 import { findRole, findTeam, insertMembership } from "#db/teams.ts";
 import { normalizeEmail } from "#db/users.ts";
-import { MailUnavailable, sendMail } from "./mail.server.ts";
+import { publicUrl } from "./env.server.ts";
+import { MailUnavailable, PERSONAL_MAIL_LIMIT_MESSAGE, sendMail, spendPersonalMailAllowance } from "./mail.server.ts";
 import { invitationMail } from "./mailMessages.ts";
 import { daysFrom, hashSecretToken, looksLikeSecretToken, newSecretToken, secretState } from "./secretTokens.server.ts";
 
@@ -23,7 +24,7 @@ export type InviteOutcome = { ok: true; message: string } | { ok: false; error: 
 
 export async function inviteToTeam(
   db: Db,
-  input: { team: Team; email: string; role: TeamRole; by: User; origin: string; now?: Date },
+  input: { team: Team; email: string; role: TeamRole; by: User; now?: Date },
 ): Promise<InviteOutcome> {
   const now = input.now ?? new Date();
   const email = normalizeEmail(input.email);
@@ -35,6 +36,7 @@ export async function inviteToTeam(
     .where("u.email", "=", email)
     .executeTakeFirst();
   if (existing) return { ok: false, error: `${existing.name} (${email}) is already a member of this team.` };
+  if (!spendPersonalMailAllowance(input.by.id, now.getTime())) return { ok: false, error: PERSONAL_MAIL_LIMIT_MESSAGE };
 
   const token = newSecretToken();
   const invitation = await insertInvitation(db, {
@@ -53,7 +55,7 @@ export async function inviteToTeam(
         teamName: input.team.name,
         inviterName: input.by.name,
         role: input.role,
-        acceptUrl: `${input.origin}/invitations/${token}`,
+        acceptUrl: publicUrl(`/invitations/${token}`),
         expiresAt: invitation.expires_at,
       }),
     });

@@ -4,6 +4,7 @@
 import type { Db } from "#db/database.ts";
 import { completePasswordReset, findPasswordResetByHash, insertPasswordReset } from "#db/passwordResets.ts";
 import { findUserByEmail, normalizeEmail } from "#db/users.ts";
+import { publicUrl } from "./env.server.ts";
 import { sendMailInBackground } from "./mail.server.ts";
 import { passwordResetMail } from "./mailMessages.ts";
 import { hashPassword } from "./password.server.ts";
@@ -15,7 +16,7 @@ export const RESET_VALID_MINUTES = 60;
 // A few messages an hour per address at most, so the form cannot be used to flood someone's inbox.
 const perAccount = createRateLimiter({ limit: 3, windowMs: 3_600_000 });
 
-export async function requestPasswordReset(db: Db, input: { email: string; origin: string; now?: Date }): Promise<void> {
+export async function requestPasswordReset(db: Db, input: { email: string; now?: Date }): Promise<void> {
   const now = input.now ?? new Date();
   const email = normalizeEmail(input.email);
   const user = await findUserByEmail(db, email);
@@ -31,7 +32,7 @@ export async function requestPasswordReset(db: Db, input: { email: string; origi
     to: user.email,
     ...passwordResetMail({
       name: user.name,
-      resetUrl: `${input.origin}/reset-password?token=${token}`,
+      resetUrl: publicUrl(`/reset-password?token=${token}`),
       validMinutes: RESET_VALID_MINUTES,
     }),
   });

@@ -14,6 +14,7 @@ import {
 } from "#db/reviewNotes.ts";
 import { ownersWantingNoteMail } from "#db/userSettings.ts";
 import type { Network } from "#solver/schema.ts";
+import { publicUrl } from "./env.server.ts";
 import { sendMailInBackground } from "./mail.server.ts";
 import { reviewNoteMail } from "./mailMessages.ts";
 import { elementLabel, findElement } from "./networkElements.ts";
@@ -31,7 +32,7 @@ function refuseWriting(reader: NoteReader): NoteOutcome | null {
 
 function notifyOwners(
   db: Db,
-  input: { network: NetworkRow; author: User; pinnedTo: string; body: string; reply: boolean; origin: string },
+  input: { network: NetworkRow; author: User; pinnedTo: string; body: string; reply: boolean },
 ): Promise<void> {
   return ownersWantingNoteMail(db, input.network.team_id, input.author.id).then((owners) => {
     for (const owner of owners) {
@@ -43,7 +44,7 @@ function notifyOwners(
           pinnedTo: input.pinnedTo,
           body: input.body,
           reply: input.reply,
-          url: `${input.origin}/networks/${input.network.id}`,
+          url: publicUrl(`/networks/${input.network.id}`),
         }),
       });
     }
@@ -52,7 +53,7 @@ function notifyOwners(
 
 export async function startThread(
   db: Db,
-  input: { reader: NoteReader; user: User; network: NetworkRow; document: Network; elementId: string | null; body: unknown; origin: string },
+  input: { reader: NoteReader; user: User; network: NetworkRow; document: Network; elementId: string | null; body: unknown },
 ): Promise<NoteOutcome> {
   const refused = refuseWriting(input.reader);
   if (refused) return refused;
@@ -77,7 +78,6 @@ export async function startThread(
     pinnedTo: element ? elementLabel(element) : "the sheet",
     body: checked.body,
     reply: false,
-    origin: input.origin,
   });
   return { ok: true, message: element ? `Note pinned to ${element.name}.` : "Note pinned to the sheet.", threadId };
 }
@@ -91,7 +91,7 @@ const NO_THREAD: NoteOutcome = { ok: false, status: 404, error: "There is no suc
 
 export async function replyToThread(
   db: Db,
-  input: { reader: NoteReader; user: User; network: NetworkRow; threadId: number; body: unknown; origin: string },
+  input: { reader: NoteReader; user: User; network: NetworkRow; threadId: number; body: unknown },
 ): Promise<NoteOutcome> {
   const refused = refuseWriting(input.reader);
   if (refused) return refused;
@@ -106,7 +106,6 @@ export async function replyToThread(
     pinnedTo: thread.element_id ? `"${thread.element_name ?? thread.element_id}" (${thread.element_id})` : "the sheet",
     body: checked.body,
     reply: true,
-    origin: input.origin,
   });
   return { ok: true, message: "Reply added.", threadId: thread.id };
 }

@@ -42,3 +42,14 @@ export function daysFrom(now: Date, days: number): string {
 export function hoursFrom(now: Date, hours: number): string {
   return new Date(now.getTime() + hours * 3_600_000).toISOString();
 }
+
+/**
+ * A request's path and query as a log line may show them: whatever follows /s/ or /invitations/,
+ * and the value of any `token` parameter, becomes "[secret]" (a log is read by more people, and
+ * kept longer, than the database's hashed tokens).
+ */
+export function redactSecretsInUrl(pathAndQuery: string): string {
+  return pathAndQuery
+    .replace(/^\/(s|invitations)\/[^/?#.]+/, "/$1/[secret]")
+    .replace(/([?&]token=)[^&#]*/gi, "$1[secret]");
+}

@@ -15,19 +15,20 @@ import {
   markShareLinkRevoked,
   recordShareLinkUse,
 } from "#db/shareLinks.ts";
+import { publicUrl } from "./env.server.ts";
 import type { Actor } from "./permissions.server.ts";
 import { daysFrom, hashSecretToken, looksLikeSecretToken, newSecretToken, secretState } from "./secretTokens.server.ts";
 import type { ShareRequest } from "./shareRequest.ts";
 
-export function shareUrl(origin: string, token: string): string {
-  return `${origin}/s/${token}`;
+export function shareUrl(token: string): string {
+  return publicUrl(`/s/${token}`);
 }
 
 const ROLE_WORDS: Record<ShareRole, string> = { viewer: "view", editor: "edit" };
 
 export async function createShareLink(
   db: Db,
-  input: { network: NetworkRow; request: ShareRequest; by: User; origin: string; now?: Date },
+  input: { network: NetworkRow; request: ShareRequest; by: User; now?: Date },
 ): Promise<{ link: ShareLinkRow; url: string }> {
   const now = input.now ?? new Date();
   const token = newSecretToken();
@@ -50,7 +51,7 @@ export async function createShareLink(
     summary: `${input.by.name} created ${role === "editor" ? "an edit" : "a view"} link #${link.id} to "${input.network.name}" ${lasting}${label ? ` (${label})` : ""}.`,
     now,
   });
-  return { link, url: shareUrl(input.origin, token) };
+  return { link, url: shareUrl(token) };
 }
 
 /** Revokes at once; false when the link was already revoked. */

@@ -3,12 +3,18 @@
 // It serves a private copy of build/, so a rebuild in the working tree during the run cannot pull
 // the assets from under the browser; the copy sits inside node_modules so that the server bundle
 // still resolves its packages. Both temporary folders go when Playwright stops the server.
+// Mail goes over SMTP to a catcher in this process (production has no mail fake); the specs read
+// it at the address this script leaves in mailboxFileFor(port).
 import { spawn } from "node:child_process";
 import { randomBytes } from "node:crypto";
-import { cpSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
+import { cpSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
+import { serverArguments } from "../tools/builtServer.ts";
+import { startMailCatcher } from "../tools/mailCatcher.ts";
+import { mailboxFileFor } from "./mailbox.ts";
 
+const port = process.env.PORT ?? "3111";
 const folder = mkdtempSync(join(tmpdir(), "kilostep-e2e-"));
 mkdirSync("node_modules/.cache", { recursive: true });
 const served = mkdtempSync(resolve("node_modules/.cache/kilostep-e2e-"));
@@ -16,6 +22,7 @@ const served = mkdtempSync(resolve("node_modules/.cache/kilostep-e2e-"));
 process.on("exit", () => {
   rmSync(folder, { recursive: true, force: true });
   rmSync(served, { recursive: true, force: true });
+  rmSync(mailboxFileFor(port), { force: true });
 });
 cpSync("build", join(served, "build"), { recursive: true });
 const databasePath = join(folder, "e2e.sqlite");
@@ -29,9 +36,10 @@ const db = await openMigratedDatabase(databasePath);
 await seedDemo(db);
 await db.destroy();
 
-// The package exports no bin path, so it is found where npm installs it (cwd is the repository).
-const serveBin = resolve("node_modules/@react-router/serve/bin.js");
-const server = spawn(process.execPath, [serveBin, "./build/server/index.js"], {
+const catcher = await startMailCatcher();
+writeFileSync(mailboxFileFor(port), catcher.mailboxUrl);
+
+const server = spawn(process.execPath, serverArguments(), {
   cwd: served,
   stdio: "inherit",
   env: {
@@ -39,10 +47,9 @@ const server = spawn(process.execPath, [serveBin, "./build/server/index.js"], {
     NODE_ENV: "production",
     DATABASE_PATH: databasePath,
     SESSION_SECRET: randomBytes(32).toString("hex"),
-    PORT: process.env.PORT ?? "3111",
-    // The browser tests read mail from the local fake (/dev/mail.json); any free port will do.
-    MAIL_TRANSPORT: "fake",
-    MAIL_FAKE_PORT: "0",
+    PORT: port,
+    APP_ORIGIN: `http://localhost:${port}`,
+    SMTP_URL: catcher.smtpUrl,
   },
 });
 

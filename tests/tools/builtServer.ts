@@ -1,4 +1,4 @@
-// The built app (run `npm run build` first) served by react-router-serve on a throwaway database
+// The built app (run `npm run build` first) served by app/server.ts on a throwaway database
 // seeded with the demo, for the tools that need a real server: the crash check and the load test.
 // Like the browser tests' server, it serves a private copy of build/ so that a rebuild in the
 // working tree cannot pull files from under it; the copy sits in node_modules/.cache so the server
@@ -9,6 +9,7 @@ import { cpSync, existsSync, mkdirSync, mkdtempSync, rmSync } from "node:fs";
 import { createServer } from "node:net";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
+import { pathToFileURL } from "node:url";
 
 export interface ServedBuild {
   /** Folder with the private copy of build/. */
@@ -51,9 +52,16 @@ export async function freePort(): Promise<number> {
   });
 }
 
+/** Node's arguments that run the production server (app/server.ts) on the build in `cwd`. */
+export function serverArguments(): string[] {
+  return ["--import", pathToFileURL(resolve("node_modules/tsx/dist/loader.mjs")).href, resolve("app/server.ts"), "./build/server/index.js"];
+}
+
 export interface RunningServer {
   url: string;
   child: ChildProcess;
+  /** What the server printed on stdout so far (its access log), when asked to keep it. */
+  output: string[];
   /** Ends the server politely and waits for it. */
   stop(): Promise<void>;
   /** Ends it the hard way, as a power cut or an OOM kill would: SIGKILL, no cleanup. */
@@ -67,14 +75,15 @@ export async function startServer(options: {
   databasePath: string;
   port: number;
   env?: Record<string, string>;
+  keepOutput?: boolean;
 }): Promise<RunningServer> {
   const url = `http://127.0.0.1:${options.port}`;
   const inherited = { ...process.env };
   // The seeding process may lower the hash cost for itself; a production server refuses that setting.
   delete inherited.PASSWORD_HASH_COST;
-  const child = spawn(process.execPath, [resolve("node_modules/@react-router/serve/bin.js"), "./build/server/index.js"], {
+  const child = spawn(process.execPath, serverArguments(), {
     cwd: options.build.folder,
-    stdio: ["ignore", "ignore", "inherit"],
+    stdio: ["ignore", options.keepOutput ? "pipe" : "ignore", "inherit"],
     env: {
       ...inherited,
       NODE_ENV: "production",
@@ -82,11 +91,15 @@ export async function startServer(options: {
       SESSION_SECRET,
       PORT: String(options.port),
       HOST: "127.0.0.1",
+      APP_ORIGIN: url,
       ...options.env,
     },
   });
+  const output: string[] = [];
+  child.stdout?.setEncoding("utf8").on("data", (chunk: string) => output.push(...chunk.split("\n").filter(Boolean)));
   const exited = new Promise<void>((done) => child.once("exit", () => done()));
-  const deadline = Date.now() + 30_000;
+  // Generous: a loaded machine takes a while to compile the server and load the build.
+  const deadline = Date.now() + 90_000;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`The server exited with status ${child.exitCode} while starting.`);
     try {
@@ -97,13 +110,14 @@ export async function startServer(options: {
     }
     if (Date.now() > deadline) {
       child.kill("SIGKILL");
-      throw new Error("The server did not answer within 30 s.");
+      throw new Error("The server did not answer within 90 s.");
     }
     await new Promise((r) => setTimeout(r, 150));
   }
   return {
     url,
     child,
+    output,
     async stop() {
       if (child.exitCode === null) child.kill("SIGTERM");
       await exited;

@@ -8,6 +8,8 @@ import { afterAll, afterEach, beforeEach } from "vitest";
 const databaseDir = mkdtempSync(join(tmpdir(), "kilostep-unit-"));
 process.env.DATABASE_PATH = join(databaseDir, "test.sqlite");
 process.env.PASSWORD_HASH_COST = "4";
+// Links in mail and share answers start here, whatever Host a test request carries.
+process.env.APP_ORIGIN = "http://kilostep.test";
 
 afterAll(() => rmSync(databaseDir, { recursive: true, force: true }));
 

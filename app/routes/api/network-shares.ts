@@ -40,7 +40,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })),
     );
   }
-  const { link, url } = await createShareLink(db, { network, request: parsed.data, by: user, origin: new URL(request.url).origin });
+  const { link, url } = await createShareLink(db, { network, request: parsed.data, by: user });
   return Response.json(
     { id: link.id, url, role: link.role, expiresAt: link.expires_at },
     { status: 201, headers: { Location: `/api/shares/${link.id}`, "Cache-Control": "no-store" } },

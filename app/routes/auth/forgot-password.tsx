@@ -16,7 +16,7 @@ export async function action({ request }: Route.ActionArgs) {
   guardPageRequest(request);
   const parsed = forgotPasswordSchema.safeParse(formFields(await request.formData()));
   if (!parsed.success) return data({ sent: false, fieldErrors: fieldErrors(parsed.error) }, { status: 400 });
-  await requestPasswordReset(await getDb(), { email: parsed.data.email, origin: new URL(request.url).origin });
+  await requestPasswordReset(await getDb(), { email: parsed.data.email });
   return { sent: true, fieldErrors: {} as Record<string, string> };
 }
 

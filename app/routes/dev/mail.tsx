@@ -1,18 +1,25 @@
 // /dev/mail — the local mail fake's inbox, for people trying the app on their own machine: every
 // message Kilostep sent (invitations, password resets, review requests, note alerts), with its
-// links. Only where the fake runs: in production it does not exist (404).
+// links. Only for a client on this machine while the fake runs, never in production (404).
 import { data } from "react-router";
 import type { Route } from "./+types/mail";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { formatDateTime } from "#app/lib/format.ts";
-import { mailFakeRunning, receivedMail } from "#app/lib/mail.server.ts";
+import { mayOpenDevPages } from "#app/lib/devPages.server.ts";
+import { receivedMail } from "#app/lib/mail.server.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Mail fake · Kilostep" }, { name: "robots", content: "noindex" }];
 
-export async function loader() {
-  if (!mailFakeRunning()) throw data("There is nothing at this address.", { status: 404 });
+export async function loader({ context }: Route.LoaderArgs) {
+  if (!mayOpenDevPages(context)) throw data("There is nothing at this address.", { status: 404 });
   const messages = await receivedMail();
   return { messages: messages.map(({ id, receivedAt, from, to, subject, text, links }) => ({ id, receivedAt, from, to, subject, text, links })) };
+}
+
+/** A link's path, shortened; a message may carry text that only looks like an address. */
+function linkWords(link: string): string {
+  const path = URL.canParse(link) ? new URL(link).pathname : link;
+  return path.length > 40 ? `${path.slice(0, 40)}…` : path;
 }
 
 export default function DevMail({ loaderData }: Route.ComponentProps) {
@@ -46,9 +53,9 @@ export default function DevMail({ loaderData }: Route.ComponentProps) {
                   <p className="mt-2 text-sm">
                     Links:{" "}
                     {m.links.map((link, i) => (
-                      <span key={link}>
+                      <span key={i}>
                         {i > 0 ? " · " : ""}
-                        <a href={link}>{new URL(link).pathname.length > 40 ? `${new URL(link).pathname.slice(0, 40)}…` : new URL(link).pathname}</a>
+                        <a href={link}>{linkWords(link)}</a>
                       </span>
                     ))}
                   </p>

@@ -10,7 +10,7 @@ import { requireNetwork } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
 import { reviewMessageSchema } from "#app/lib/fieldSchemas.ts";
 import { formFields } from "#app/lib/forms.ts";
-import { MailUnavailable, mailAvailable, sendMail } from "#app/lib/mail.server.ts";
+import { MailUnavailable, mailAvailable, PERSONAL_MAIL_LIMIT_MESSAGE, sendMail, spendPersonalMailAllowance } from "#app/lib/mail.server.ts";
 import { reviewRequestMail } from "#app/lib/mailMessages.ts";
 import { createShareLink, revokeShareLink, shareLinkById, shareLinksOf } from "#app/lib/shareLinks.server.ts";
 import { SHARE_EXPIRY_MAX_DAYS, shareRequestSchema } from "#app/lib/shareRequest.ts";
@@ -45,7 +45,6 @@ export async function action({ request, params }: Route.ActionArgs) {
   const { db, user, network } = await requireNetwork(request, params, "share");
   const form = await request.formData();
   const intent = form.get("intent");
-  const origin = new URL(request.url).origin;
 
   if (intent === "revoke") {
     const linkId = parseId(String(form.get("linkId") ?? ""));
@@ -60,14 +59,15 @@ export async function action({ request, params }: Route.ActionArgs) {
     const parsed = shareRequestFrom(form);
     if (!parsed.success) return data<ActionAnswer>({ ok: false, message: parsed.error.issues[0].message, form: formName }, { status: 400 });
     if (intent === "create") {
-      const { url } = await createShareLink(db, { network, request: parsed.data, by: user, origin });
+      const { url } = await createShareLink(db, { network, request: parsed.data, by: user });
       return data<ActionAnswer>({ ok: true, message: "Link made.", url, form: formName });
     }
     const reviewer = reviewerSchema.safeParse(formFields(form));
     if (!reviewer.success) return data<ActionAnswer>({ ok: false, message: reviewer.error.issues[0].message, form: formName }, { status: 400 });
     if (!mailAvailable()) return data<ActionAnswer>({ ok: false, message: new MailUnavailable().message, form: formName }, { status: 503 });
+    if (!spendPersonalMailAllowance(user.id)) return data<ActionAnswer>({ ok: false, message: PERSONAL_MAIL_LIMIT_MESSAGE, form: formName }, { status: 429 });
     const request_ = { ...parsed.data, label: parsed.data.label || `Review by ${reviewer.data.email}` };
-    const { link, url } = await createShareLink(db, { network, request: request_, by: user, origin });
+    const { link, url } = await createShareLink(db, { network, request: request_, by: user });
     try {
       await sendMail({
         to: reviewer.data.email,

@@ -18,7 +18,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       const errors = fieldErrors(parsed.error);
       return data({ ok: false, message: errors.email ?? errors.role ?? "Check the form." , fieldErrors: errors }, { status: 400 });
     }
-    const outcome = await inviteToTeam(db, { team, email: parsed.data.email, role: parsed.data.role, by: user, origin: new URL(request.url).origin });
+    const outcome = await inviteToTeam(db, { team, email: parsed.data.email, role: parsed.data.role, by: user });
     return data(
       outcome.ok ? { ok: true, message: outcome.message, fieldErrors: {} } : { ok: false, message: outcome.error, fieldErrors: {} },
       { status: outcome.ok ? 200 : 400 },

@@ -27,10 +27,16 @@ function isDataWithInit(value: unknown): value is { data: unknown; init: Respons
   return typeof value === "object" && value !== null && (value as { type?: unknown }).type === "DataWithResponseInit";
 }
 
-export async function call(fn: RouteFunction, request: Request, params: Record<string, string> = {}): Promise<Outcome> {
+/** `context` is what the server puts in the load context (app/server.ts): the client's address. */
+export async function call(
+  fn: RouteFunction,
+  request: Request,
+  params: Record<string, string> = {},
+  context: { clientAddress?: string | null } = {},
+): Promise<Outcome> {
   let result: unknown;
   try {
-    result = await fn({ request, url: new URL(request.url), pattern: "", params, context: {} });
+    result = await fn({ request, url: new URL(request.url), pattern: "", params, context });
   } catch (thrown) {
     if (thrown instanceof Response || isDataWithInit(thrown)) result = thrown;
     else throw thrown;

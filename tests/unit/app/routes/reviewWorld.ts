@@ -96,7 +96,7 @@ function tokenOf(url: string): string {
 async function link(people: People, networkId: number, role: ShareRole, expiresInDays: number | null = null) {
   const db = await getDb();
   const network = await db.selectFrom("networks").selectAll().where("id", "=", networkId).executeTakeFirstOrThrow();
-  const made = await createShareLink(db, { network, request: { role, expiresInDays }, by: people.owner, origin: ORIGIN });
+  const made = await createShareLink(db, { network, request: { role, expiresInDays }, by: people.owner });
   return { link: made.link, token: tokenOf(made.url) };
 }
 

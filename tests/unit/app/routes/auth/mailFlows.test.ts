@@ -1,4 +1,4 @@
-// E-mail through the local fake, and the two flows that depend on it: team invitations and
+// E-mail through the in-process fake, and the two flows that depend on it: team invitations and
 // forgotten passwords, called through their routes as the server would.
 import { afterEach, describe, expect, it, vi } from "vitest";
 import { getDb } from "#app/lib/db.server.ts";
@@ -32,7 +32,7 @@ function pathOf(url: string): string {
 }
 
 describe("the mail fake", () => {
-  it("receives what nodemailer sends over SMTP, parsed: subject, text, HTML and links", async () => {
+  it("keeps what nodemailer renders, parsed: subject, text, HTML and links", async () => {
     const to = address("fake.check");
     const content = invitationMail({
       teamName: "Fellside & Co <studies>",

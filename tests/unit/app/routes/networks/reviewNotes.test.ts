@@ -134,7 +134,6 @@ describe("notes through the network's notes route", () => {
       document: checked.network,
       elementId: null,
       body: "Written without an account",
-      origin: ORIGIN,
     });
     expect(refused).toMatchObject({ ok: false, status: 401 });
   });

@@ -30,7 +30,6 @@ describe("share link tokens", () => {
       network: await networkRow(world.networkId),
       request: { role: "viewer", expiresInDays: 2 },
       by: people.owner,
-      origin: ORIGIN,
     });
     const token = url.split("/s/")[1];
     expect(url).toBe(`${ORIGIN}/s/${token}`);
@@ -43,8 +42,8 @@ describe("share link tokens", () => {
     const db = await getDb();
     const now = new Date("2026-12-11T09:00:00.000Z");
     const network = await networkRow(world.networkId);
-    const dated = await createShareLink(db, { network, request: { role: "viewer", expiresInDays: 3 }, by: people.owner, origin: ORIGIN, now });
-    const open = await createShareLink(db, { network, request: { role: "viewer", expiresInDays: null }, by: people.owner, origin: ORIGIN, now });
+    const dated = await createShareLink(db, { network, request: { role: "viewer", expiresInDays: 3 }, by: people.owner, now });
+    const open = await createShareLink(db, { network, request: { role: "viewer", expiresInDays: null }, by: people.owner, now });
     expect(dated.link.expires_at).toBe("2026-12-14T09:00:00.000Z");
     expect(open.link.expires_at).toBeNull();
   });
