@@ -6,7 +6,7 @@
 import { createServer, type Server } from "node:net";
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from "vitest";
 import { insertTeamWithOwner } from "#db/teams.ts";
-import { call, cookieFor, formRequest, makeUser } from "../app/harness.ts";
+import { call, cookieFor, formRequest, makeUser } from "../routes/harness.ts";
 
 /** An SMTP address that accepts connections and hangs up at once: a mail service in trouble. */
 let refusing: Server;

@@ -9,8 +9,8 @@ import { action as invitationsAction } from "#app/routes/teams/invitations.ts";
 import { action as sharesApi } from "#app/routes/api/network-shares.ts";
 import { action as notesAction } from "#app/routes/networks/notes.ts";
 import { insertTeamWithOwner } from "#db/teams.ts";
-import { call, cookieFor, makeUser } from "../app/harness.ts";
-import { freshWorld, makePeople } from "../review/world.ts";
+import { call, cookieFor, makeUser } from "../routes/harness.ts";
+import { freshWorld, makePeople } from "../routes/reviewWorld.ts";
 
 const APP_ORIGIN = "http://kilostep.test";
 const forged = { Host: "attacker.example", "X-Forwarded-Host": "attacker.example", "X-Forwarded-Proto": "http" };

@@ -5,7 +5,7 @@ import { afterEach, describe, expect, it, vi } from "vitest";
 import { sendMail } from "#app/lib/mail.server.ts";
 import { loader as mailJson } from "#app/routes/dev/mail-json.ts";
 import { loader as mailPage } from "#app/routes/dev/mail.tsx";
-import { call, getRequest } from "../app/harness.ts";
+import { call, getRequest } from "../harness.ts";
 
 describe("/dev/mail and /dev/mail.json", () => {
   it("answer a client on this machine and nobody else", async () => {
