@@ -6,7 +6,7 @@
 // Run: `npm run build && npx tsx tests/served/servedChecks.ts` (the browser tests run it too).
 // Prints one line per check and exits non-zero on the first that fails.
 import assert from "node:assert/strict";
-import { DEMO_ACCOUNTS } from "#db/demo-accounts.ts";
+import { DEMO_ACCOUNTS } from "#db/demoAccounts.ts";
 import { copyBuild, freePort, seededDatabase, signInCookie, startServer, type RunningServer } from "../tools/builtServer.ts";
 
 const SECURITY_HEADERS = { "x-content-type-options": "nosniff", "x-frame-options": "DENY", "referrer-policy": "same-origin" };
