@@ -1,22 +1,29 @@
 // The demo: one team, three people (owner, editor, viewer) and the two demo networks.
 // Idempotent: whatever already exists is left as it is, so running it twice changes nothing.
-// Run with `tsx db/seed.ts`; it migrates first, and prints the sign-ins (never in production).
-import { pathToFileURL } from "node:url";
-import { env } from "#app/lib/env.server.ts";
-import { hashPassword } from "#app/lib/password.server.ts";
-import { createNetwork } from "#app/lib/networks.server.ts";
-import { DEMO_DOCUMENTS } from "#app/lib/networkTemplates.server.ts";
-import { openMigratedDatabase, type Db } from "./database.ts";
+// What only the app knows (hashing a password, checking and storing a network, the demo
+// documents) comes in as one `DemoServices` argument, so nothing in db/ imports the app; the app's
+// one entry that supplies it, and the `npm run seed` command, is app/lib/demo/seed.server.ts.
+import type { Db } from "./database.ts";
 import { DEMO_ACCOUNTS, DEMO_TEAM_NAME } from "./demoAccounts.ts";
 import { findUserByEmail, insertUser } from "./users.ts";
 import { findRole, insertMembership, insertTeamWithOwner } from "./teams.ts";
+
+export interface DemoServices {
+  hashPassword(password: string): Promise<string>;
+  createNetwork(
+    db: Db,
+    input: { teamId: number; document: unknown; authorId: number; message: string },
+  ): Promise<{ ok: true } | { ok: false; issues: { path: string; message: string }[] }>;
+  documents: readonly unknown[];
+}
 
 export interface SeedSummary {
   teamId: number;
   created: { users: number; teams: number; memberships: number; networks: number };
 }
 
-export async function seedDemo(db: Db): Promise<SeedSummary> {
+export async function seedDemo(db: Db, services: DemoServices): Promise<SeedSummary> {
+  const { hashPassword, createNetwork } = services;
   const created = { users: 0, teams: 0, memberships: 0, networks: 0 };
 
   const userIds = new Map<string, number>();
@@ -54,7 +61,7 @@ export async function seedDemo(db: Db): Promise<SeedSummary> {
     }
   }
 
-  for (const document of DEMO_DOCUMENTS) {
+  for (const document of services.documents) {
     const name = (document as { name: string }).name;
     const exists = await db
       .selectFrom("networks")
@@ -72,25 +79,4 @@ export async function seedDemo(db: Db): Promise<SeedSummary> {
   }
 
   return { teamId, created };
-}
-
-async function main() {
-  if (env.isProduction) {
-    console.error("The demo seed does not run in production: its passwords are public.");
-    process.exit(1);
-  }
-  const path = env.databasePath;
-  const db = await openMigratedDatabase(path);
-  const { created } = await seedDemo(db);
-  await db.destroy();
-  console.log(
-    `Demo data in ${path}: added users ${created.users}, teams ${created.teams}, networks ${created.networks}; existing ones kept.`,
-  );
-  console.log(`\nDemo sign-ins for the team "${DEMO_TEAM_NAME}" (development only):`);
-  for (const account of DEMO_ACCOUNTS) console.log(`  ${account.role.padEnd(6)}  ${account.email.padEnd(28)}  ${account.password}`);
-  console.log(`\nOpen http://localhost:${process.env.PORT ?? 3000}/sign-in once the server says it is listening.\n`);
-}
-
-if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
-  await main();
 }

@@ -31,9 +31,9 @@ process.env.DATABASE_PATH = databasePath;
 process.env.NODE_ENV = "development";
 
 const { openMigratedDatabase } = await import("#db/database.ts");
-const { seedDemo } = await import("#db/seed.ts");
+const { seedDemoData } = await import("#app/lib/demo/seed.server.ts");
 const db = await openMigratedDatabase(databasePath);
-await seedDemo(db);
+await seedDemoData(db);
 await db.destroy();
 
 const catcher = await startMailCatcher();

@@ -34,9 +34,9 @@ export async function seededDatabase(): Promise<{ databasePath: string; remove()
   process.env.NODE_ENV ??= "test";
   if (process.env.NODE_ENV === "test") process.env.PASSWORD_HASH_COST ??= "4";
   const { openMigratedDatabase } = await import("#db/database.ts");
-  const { seedDemo } = await import("#db/seed.ts");
+  const { seedDemoData } = await import("#app/lib/demo/seed.server.ts");
   const db = await openMigratedDatabase(databasePath);
-  await seedDemo(db);
+  await seedDemoData(db);
   await db.destroy();
   return { databasePath, remove: () => rmSync(folder, { recursive: true, force: true }) };
 }

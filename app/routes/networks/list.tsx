@@ -10,7 +10,7 @@ import { parseId } from "#app/lib/api.server.ts";
 import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { firstIssue, NETWORK_NAME_MAX, optionalNetworkNameSchema } from "#app/lib/fieldSchemas.ts";
-import { documentFromTemplate, TEMPLATE_IDS, TEMPLATES, type TemplateId } from "#app/lib/networkTemplates.server.ts";
+import { documentFromTemplate, TEMPLATE_IDS, TEMPLATES, type TemplateId } from "#app/lib/demo/networkTemplates.server.ts";
 import { networksOfUser, restorableNetworksOfUser, teamsToCreateIn } from "#app/lib/networkLists.server.ts";
 import { createNetwork, deleteNetwork, renameNetwork, restoreDeletedNetwork } from "#app/lib/networks.server.ts";
 import { abilitiesOf } from "#app/lib/permissions.server.ts";

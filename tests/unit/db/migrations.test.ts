@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { migrateToLatest, openDatabase, openMigratedDatabase } from "#db/database.ts";
 import { DEMO_ACCOUNTS, DEMO_TEAM_NAME } from "#db/demoAccounts.ts";
 import { migrationProvider, migrations } from "#db/migrations/index.ts";
-import { seedDemo } from "#db/seed.ts";
+import { seedDemoData as seedDemo } from "#app/lib/demo/seed.server.ts";
 import { validateNetwork } from "#solver/schema.ts";
 
 const databasePath = () => `${process.env.DATABASE_PATH}.migrations-${Math.random().toString(36).slice(2)}`;

@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "#app/lib/db.server.ts";
-import { documentFromTemplate } from "#app/lib/networkTemplates.server.ts";
+import { documentFromTemplate } from "#app/lib/demo/networkTemplates.server.ts";
 import { createNetwork } from "#app/lib/networks.server.ts";
 import {
   abilitiesOf,

@@ -1,7 +1,7 @@
 // Starting points for a new network: a blank one that still validates, and the two demo studies.
 // The seed uses the same documents, so the demo team and "create from a template" agree.
-import hollinMoorSolar from "../../tests/fixtures/hollin-moor-solar.json";
-import tarnHeadCalderFlats from "../../tests/fixtures/tarn-head-calder-flats.json";
+import hollinMoorSolar from "./hollinMoorSolar.json";
+import tarnHeadCalderFlats from "./tarnHeadCalderFlats.json";
 import { validateNetwork, type Network, type NetworkInput } from "#solver/schema.ts";
 
 /** The smallest document that validates: one busbar fed by a grid infeed that is the slack. */
