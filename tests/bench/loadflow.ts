@@ -5,12 +5,11 @@
 // process: Node itself, the feeder's elements, the load flow and its results; "solve MB" is what
 // one load flow adds to the heap and array buffers, its result still held.
 import { spawnSync } from "node:child_process";
-import { loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
 import { runLoadFlow } from "#solver/loadFlow/index.ts";
 import { validateNetwork } from "#solver/schema.ts";
 import { networkFromElements, syntheticFeeder } from "./syntheticFeeder.ts";
-import type { Bench } from "./bench.ts";
+import { loadAverage, type Bench } from "./bench.ts";
 
 const SIZES = [1_000, 10_000, 100_000];
 const TARGET_MS: Record<number, number> = { 10_000: 20, 100_000: 300 };
@@ -95,12 +94,6 @@ function measureInChild(busCount: number): Measurement {
   });
   if (child.status !== 0) throw new Error(`load-flow bench at ${busCount} buses failed:\n${child.stderr}`);
   return JSON.parse(child.stdout.trim().split("\n").pop()!) as Measurement;
-}
-
-function loadAverage(): string {
-  return loadavg()
-    .map((l) => l.toFixed(1))
-    .join(" / ");
 }
 
 function printTable(rows: Measurement[]): void {

@@ -4,8 +4,9 @@ import type { Bench } from "./bench.ts";
 import { loadFlowBench } from "./loadflow.ts";
 import { runFaultBench } from "./faults.ts";
 import { targetsBench } from "./targets.ts";
+import { studyBench } from "./study.ts";
 
-const benches: Bench[] = [targetsBench, loadFlowBench, { name: "faults", run: () => runFaultBench() }];
+const benches: Bench[] = [targetsBench, loadFlowBench, { name: "faults", run: () => runFaultBench() }, studyBench];
 
 const chosen = process.argv.slice(2);
 const unknown = chosen.filter((name) => !benches.some((b) => b.name === name));
