@@ -50,6 +50,7 @@ export default [
     route("networks/:networkId/results.csv", "routes/api/results-csv.ts"),
     route("networks/:networkId/export", "routes/api/network-export.ts"),
     route("networks/:networkId/ladder", "routes/api/ladder.ts"),
+    route("networks/:networkId/study", "routes/api/network-study.ts"),
     route("networks/:networkId/shares", "routes/api/network-shares.ts"),
     route("shares/:shareId", "routes/api/share.ts"),
     route("networks/:networkId/revisions", "routes/api/revisions.ts"),

@@ -1,6 +1,6 @@
 // Who calls the API: a personal token in `Authorization: Bearer …`, or else the session cookie.
 // A token acts with its owner's roles, capped by its scope: a read token may only read (GET, and
-// the POSTs that compute without saving: solving and the voltage ladder). The cap is by request,
+// the POSTs that compute without saving: solving, the voltage ladder and studies). The cap is by request,
 // so a new write route is closed to read tokens without anyone remembering to close it.
 import type { User } from "#db/schema.ts";
 import { useApiToken } from "#db/apiTokens.ts";
@@ -9,7 +9,7 @@ import { getDb } from "./db.server.ts";
 
 const READ_METHODS = new Set(["GET", "HEAD"]);
 /** POSTs that compute an answer and store nothing. */
-const READ_ONLY_POSTS = [/^\/api\/solve\/?$/, /^\/api\/networks\/[^/]+\/(solve|ladder)\/?$/];
+const READ_ONLY_POSTS = [/^\/api\/solve\/?$/, /^\/api\/networks\/[^/]+\/(solve|ladder|study)\/?$/];
 
 export function readScopeAllows(request: Request): boolean {
   const method = request.method.toUpperCase();

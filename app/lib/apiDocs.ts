@@ -104,6 +104,13 @@ export const API_ENDPOINTS: ApiEndpoint[] = [
     example: { path: "/api/networks/$NETWORK_ID/ladder", body: '{"sectionBus": "$SECTION_BUS", "voltagesKV": [33, 66, 132]}' },
   },
   {
+    method: "POST",
+    route: "/api/networks/:networkId/study",
+    what: "A study of the saved revision: every operating case, the envelope across them and the energy lost in a year; { outages: true } adds each line and transformer out in turn (or a list of case ids), { years: true } the years of load growth.",
+    who: "viewer (a read token may run it)",
+    example: { path: "/api/networks/$NETWORK_ID/study", body: '{"outages": true}' },
+  },
+  {
     method: "GET",
     route: "/api/networks/:networkId/revisions",
     what: "The revision list: number, when, by whom, message.",

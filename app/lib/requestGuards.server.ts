@@ -12,7 +12,7 @@ import { env } from "./env.server.ts";
 export const REQUEST_BODY_LIMIT_BYTES = UPLOAD_LIMIT_BYTES + 64 * 1024;
 
 /** Routes that run the solver: each answer costs real CPU, so each caller gets a budget. */
-const SOLVE_PATHS = [/^\/api\/solve\/?$/, /^\/api\/networks\/[^/]+\/(solve|ladder)\/?$/];
+const SOLVE_PATHS = [/^\/api\/solve\/?$/, /^\/api\/networks\/[^/]+\/(solve|ladder|study)\/?$/];
 
 const solveLimiter = createRateLimiter({ limit: env.solveRateLimitPerMinute, windowMs: 60_000 });
 

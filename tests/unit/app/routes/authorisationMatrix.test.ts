@@ -233,6 +233,7 @@ const CASES: Case[] = [
     body: { json: {} },
     expect: view(401, 400),
   },
+  { route: "api/networks/:networkId/study", method: "POST", path: "/api/networks/{network}/study", body: { json: {} }, expect: view(401) },
   { route: "api/networks/:networkId/shares", method: "GET", path: "/api/networks/{network}/shares", expect: onNetwork({ viewer: 403, editor: 403, owner: 200 }, 401) },
   {
     route: "api/networks/:networkId/shares",

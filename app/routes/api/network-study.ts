@@ -1,0 +1,21 @@
+import type { Route } from "./+types/network-study";
+import { apiError, readJsonBody } from "#app/lib/api.server.ts";
+import { requireApiNetwork } from "#app/lib/access.server.ts";
+import { runStudyOnNetwork } from "#app/lib/study.server.ts";
+
+/**
+ * POST /api/networks/:id/study with { outages?, years? } (an empty body runs the cases alone):
+ * every operating case of the saved revision, the envelope, outages, years and energy, in the
+ * shape the command line prints and the study page shows.
+ */
+export async function action({ request, params }: Route.ActionArgs) {
+  if (request.method !== "POST") {
+    return Response.json({ error: "Use POST to run a study of the saved network." }, { status: 405, headers: { Allow: "POST" } });
+  }
+  const { db, network } = await requireApiNetwork(request, params, "view");
+  const empty = (await request.clone().text()).trim() === "";
+  const body = empty ? {} : await readJsonBody(request);
+  const run = await runStudyOnNetwork(db, network, body, { signal: request.signal });
+  if (!run.ok) return apiError(run.status, run.error, run.issues);
+  return Response.json(run.study, { headers: { "Kilostep-Revision": String(run.revision) } });
+}
