@@ -1,6 +1,7 @@
 // Built-in equipment types the Details form offers: transformer ratings with their minimum
-// short-circuit impedance, and overhead conductors. Every entry says where its numbers come from,
+// short-circuit impedance, overhead conductors and XLPE cables. Every entry says where its numbers come from,
 // so a planner knows what to verify. A team's own types arrive through the same shapes.
+import type { ConductorMaterial } from "#solver/conductorWithstand.ts";
 
 export interface TransformerType {
   id: string;
@@ -18,6 +19,13 @@ export interface TransformerType {
 export interface ConductorType {
   id: string;
   label: string;
+  kind: "overhead" | "cable";
+  /** For the adiabatic fault withstand; types without it cannot be sized for the fault. */
+  material?: ConductorMaterial;
+  /** Conductor cross-section in mm² (aluminium area for ACSR). */
+  crossSectionMm2?: number;
+  /** Cables: the system voltage the insulation is made for. */
+  nominalKV?: number;
   /** The frequency the impedances below were given for. */
   frequencyHz: 50 | 60;
   rOhmPerKm: number;
@@ -66,12 +74,86 @@ export const builtInTransformerTypes: TransformerType[] = ratingsMVA.map((ratedM
 });
 
 export const ACSR_SOURCE = "CRC Electric Power Engineering Handbook, ACSR tables (60 Hz, 1 m spacing)";
+/** The ACSR sizes beyond the three in the methods: recalled, with X from each conductor's GMR at 1 m. */
+export const ACSR_MEMORY_SOURCE = "ACSR tables (60 Hz, 1 m spacing), from memory; verify";
+export const CABLE_SOURCE =
+  "R: IEC 60228 class 2 maximum DC resistance at 20 °C; X, capacitance and ampacity: typical single-core XLPE in trefoil, buried, 90 °C; all from memory, verify against the maker";
 
-export const builtInConductorTypes: ConductorType[] = [
-  { id: "acsr-dove", label: "ACSR Dove 556.5 kcmil 26/7", frequencyHz: 60, rOhmPerKm: 0.1156, xOhmPerKm: 0.351, ampacityA: 730, source: ACSR_SOURCE },
-  { id: "acsr-grosbeak", label: "ACSR Grosbeak 636 kcmil 26/7", frequencyHz: 60, rOhmPerKm: 0.1012, xOhmPerKm: 0.346, ampacityA: 780, source: ACSR_SOURCE },
-  { id: "acsr-falcon", label: "ACSR Falcon 1590 kcmil 54/19", frequencyHz: 60, rOhmPerKm: 0.0408, xOhmPerKm: 0.312, ampacityA: 1380, source: ACSR_SOURCE },
+/** kcmil to mm² (1 kcmil = 0.5067 mm²), for the aluminium area of ACSR. */
+const kcmilToMm2 = (kcmil: number) => Math.round(kcmil * 0.5067);
+
+const acsr = (name: string, kcmil: number, stranding: string, rOhmPerKm: number, xOhmPerKm: number, ampacityA: number, source: string): ConductorType => ({
+  id: `acsr-${name.toLowerCase()}`,
+  label: `ACSR ${name} ${kcmil} kcmil ${stranding}`,
+  kind: "overhead",
+  material: "acsr",
+  crossSectionMm2: kcmilToMm2(kcmil),
+  frequencyHz: 60,
+  rOhmPerKm,
+  xOhmPerKm,
+  ampacityA,
+  source,
+});
+
+const overheadConductors: ConductorType[] = [
+  acsr("Partridge", 266.8, "26/7", 0.2356, 0.378, 460, ACSR_MEMORY_SOURCE),
+  acsr("Linnet", 336.4, "26/7", 0.1868, 0.37, 530, ACSR_MEMORY_SOURCE),
+  acsr("Hawk", 477, "26/7", 0.1317, 0.357, 659, ACSR_MEMORY_SOURCE),
+  acsr("Dove", 556.5, "26/7", 0.1156, 0.351, 730, ACSR_SOURCE),
+  acsr("Grosbeak", 636, "26/7", 0.1012, 0.346, 780, ACSR_SOURCE),
+  acsr("Drake", 795, "26/7", 0.08, 0.337, 907, ACSR_MEMORY_SOURCE),
+  acsr("Cardinal", 954, "54/7", 0.0667, 0.332, 996, ACSR_MEMORY_SOURCE),
+  acsr("Falcon", 1590, "54/19", 0.0408, 0.312, 1380, ACSR_SOURCE),
 ];
+
+/** IEC 60228 class 2 maximum DC resistance at 20 °C, Ω/km (from memory). */
+const dcResistance20C: Record<number, { copper: number; aluminium: number }> = {
+  95: { copper: 0.193, aluminium: 0.32 },
+  185: { copper: 0.0991, aluminium: 0.164 },
+  240: { copper: 0.0754, aluminium: 0.125 },
+  300: { copper: 0.0601, aluminium: 0.1 },
+  400: { copper: 0.047, aluminium: 0.0778 },
+  500: { copper: 0.0366, aluminium: 0.0605 },
+  630: { copper: 0.0283, aluminium: 0.0469 },
+  800: { copper: 0.0221, aluminium: 0.0367 },
+  1000: { copper: 0.0176, aluminium: 0.0291 },
+};
+
+/** Buried trefoil copper ampacity at 90 °C, A (typical, from memory); aluminium carries about 0.78 of it. */
+const copperAmpacityA: Record<number, number> = { 95: 300, 185: 430, 240: 490, 300: 560, 400: 630, 500: 720, 630: 810, 800: 900, 1000: 1000 };
+const ALUMINIUM_AMPACITY_SHARE = 0.78;
+
+/** By system voltage: each size's reactance (Ω/km, 50 Hz, trefoil) and capacitance (µF/km), typical. */
+const cableRanges: { nominalKV: number; sizes: { mm2: number; xOhmPerKm: number; capacitanceMicroFPerKm: number }[] }[] = [
+  { nominalKV: 11, sizes: [{ mm2: 95, xOhmPerKm: 0.12, capacitanceMicroFPerKm: 0.31 }, { mm2: 185, xOhmPerKm: 0.11, capacitanceMicroFPerKm: 0.4 }, { mm2: 300, xOhmPerKm: 0.1, capacitanceMicroFPerKm: 0.48 }, { mm2: 500, xOhmPerKm: 0.095, capacitanceMicroFPerKm: 0.58 }] },
+  { nominalKV: 33, sizes: [{ mm2: 95, xOhmPerKm: 0.14, capacitanceMicroFPerKm: 0.17 }, { mm2: 185, xOhmPerKm: 0.125, capacitanceMicroFPerKm: 0.21 }, { mm2: 300, xOhmPerKm: 0.115, capacitanceMicroFPerKm: 0.25 }, { mm2: 630, xOhmPerKm: 0.105, capacitanceMicroFPerKm: 0.33 }] },
+  { nominalKV: 66, sizes: [{ mm2: 240, xOhmPerKm: 0.14, capacitanceMicroFPerKm: 0.17 }, { mm2: 500, xOhmPerKm: 0.125, capacitanceMicroFPerKm: 0.22 }, { mm2: 800, xOhmPerKm: 0.115, capacitanceMicroFPerKm: 0.26 }, { mm2: 1000, xOhmPerKm: 0.11, capacitanceMicroFPerKm: 0.28 }] },
+  { nominalKV: 132, sizes: [{ mm2: 400, xOhmPerKm: 0.14, capacitanceMicroFPerKm: 0.15 }, { mm2: 630, xOhmPerKm: 0.13, capacitanceMicroFPerKm: 0.18 }, { mm2: 1000, xOhmPerKm: 0.12, capacitanceMicroFPerKm: 0.22 }] },
+];
+
+/** B = 2πf·C: µF/km to µS/km at 50 Hz. */
+const susceptanceMicroSiemensPerKm = (capacitanceMicroFPerKm: number) => Number((2 * Math.PI * 50 * capacitanceMicroFPerKm).toFixed(1));
+
+const xlpeCables: ConductorType[] = cableRanges.flatMap(({ nominalKV, sizes }) =>
+  sizes.flatMap(({ mm2, xOhmPerKm, capacitanceMicroFPerKm }) =>
+    (["copper", "aluminium"] as const).map((material) => ({
+      id: `xlpe-${nominalKV}kv-${material === "copper" ? "cu" : "al"}-${mm2}`,
+      label: `${nominalKV} kV XLPE ${material === "copper" ? "Cu" : "Al"} ${mm2} mm²`,
+      kind: "cable" as const,
+      material,
+      crossSectionMm2: mm2,
+      nominalKV,
+      frequencyHz: 50 as const,
+      rOhmPerKm: dcResistance20C[mm2][material],
+      xOhmPerKm,
+      bMicroSiemensPerKm: susceptanceMicroSiemensPerKm(capacitanceMicroFPerKm),
+      ampacityA: material === "copper" ? copperAmpacityA[mm2] : Math.round(copperAmpacityA[mm2] * ALUMINIUM_AMPACITY_SHARE),
+      source: CABLE_SOURCE,
+    })),
+  ),
+);
+
+export const builtInConductorTypes: ConductorType[] = [...overheadConductors, ...xlpeCables];
 
 export interface ConductorAtFrequency {
   rOhmPerKm: number;

@@ -72,6 +72,9 @@ export const conductorTypeDataSchema = z
     xOhmPerKm: nonNegative,
     bMicroSiemensPerKm: nonNegative.optional(),
     ampacityA: positive,
+    /** For the adiabatic fault withstand when sizing a conductor. */
+    material: z.enum(["copper", "aluminium", "acsr"], "must be copper, aluminium or acsr").optional(),
+    crossSectionMm2: positive.max(5000, "must be at most 5000 mm²").optional(),
   })
   .superRefine((c, ctx) => {
     if (c.rOhmPerKm === 0 && c.xOhmPerKm === 0)
@@ -137,6 +140,8 @@ export function toConductorType(id: number, name: string, data: ConductorTypeDat
     xOhmPerKm: data.xOhmPerKm,
     ampacityA: data.ampacityA,
     bMicroSiemensPerKm: data.bMicroSiemensPerKm,
+    material: data.material,
+    crossSectionMm2: data.crossSectionMm2,
     source: `${teamName} library`,
   };
 }

@@ -5,7 +5,6 @@ import {
   builtInConductorTypes,
   builtInTransformerTypes,
   IEC_60076_5_SOURCE,
-  ACSR_SOURCE,
   type ConductorType,
   type TransformerType,
 } from "#app/lib/equipmentLibrary.ts";
@@ -83,6 +82,6 @@ export function TransformerTypePicker({ extra, onPick }: { extra?: TransformerTy
 
 export function ConductorPicker({ extra, onPick }: { extra?: ConductorType[]; onPick(type: ConductorType): string | undefined }) {
   return (
-    <Picker label="Conductor from the library" builtIn={builtInConductorTypes} builtInGroup={ACSR_SOURCE} extra={extra ?? []} onPick={onPick} />
+    <Picker label="Conductor from the library" builtIn={builtInConductorTypes} builtInGroup="typical overhead conductors and XLPE cables, each with its source" extra={extra ?? []} onPick={onPick} />
   );
 }

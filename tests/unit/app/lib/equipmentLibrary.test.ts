@@ -48,7 +48,7 @@ describe("ACSR conductors (CRC Electric Power Engineering Handbook, ACSR tables,
     expect(byName("Dove")).toMatchObject({ frequencyHz: 60, rOhmPerKm: 0.1156, xOhmPerKm: 0.351, ampacityA: 730 });
     expect(byName("Grosbeak")).toMatchObject({ frequencyHz: 60, rOhmPerKm: 0.1012, xOhmPerKm: 0.346, ampacityA: 780 });
     expect(byName("Falcon")).toMatchObject({ frequencyHz: 60, rOhmPerKm: 0.0408, xOhmPerKm: 0.312, ampacityA: 1380 });
-    for (const c of builtInConductorTypes) expect(c.source).toMatch(/CRC Electric Power Engineering Handbook/);
+    for (const c of builtInConductorTypes.filter((t) => t.kind === "overhead")) expect(c.source).toMatch(/ACSR tables/);
   });
 
   it("scale reactance by 5/6 for 50 Hz (X = 2πfL) and keep resistance and ampacity", () => {
@@ -64,5 +64,55 @@ describe("ACSR conductors (CRC Electric Power Engineering Handbook, ACSR tables,
   it("leave values untouched at their own frequency", () => {
     const falcon = conductorAtFrequency(byName("Falcon"), 60);
     expect(falcon).toEqual({ rOhmPerKm: 0.0408, xOhmPerKm: 0.312, ampacityA: 1380, bMicroSiemensPerKm: undefined });
+  });
+});
+
+describe("more ACSR sizes (ACSR tables, 60 Hz, 1 m spacing, from memory)", () => {
+  const byName = (name: string) => builtInConductorTypes.find((c) => c.label.includes(name))!;
+
+  it("X = 2π·60·2·10⁻⁷·ln(1 m / GMR) Ω/km from each conductor's GMR (from memory)", () => {
+    const x = (gmrMm: number) => 2 * Math.PI * 60 * 2e-7 * 1000 * Math.log(1000 / gmrMm);
+    expect(byName("Hawk").xOhmPerKm).toBeCloseTo(x(8.81), 2);
+    expect(byName("Drake").xOhmPerKm).toBeCloseTo(x(11.43), 2);
+    expect(byName("Dove").xOhmPerKm).toBeCloseTo(x(9.54), 2);
+  });
+
+  it("resistance falls and ampacity rises with size, and each says it is from memory", () => {
+    const overhead = builtInConductorTypes.filter((c) => c.kind === "overhead");
+    for (let i = 1; i < overhead.length; i++) {
+      expect(overhead[i].crossSectionMm2!).toBeGreaterThan(overhead[i - 1].crossSectionMm2!);
+      expect(overhead[i].rOhmPerKm).toBeLessThan(overhead[i - 1].rOhmPerKm);
+      expect(overhead[i].ampacityA).toBeGreaterThan(overhead[i - 1].ampacityA);
+    }
+    expect(byName("Hawk").source).toMatch(/from memory/);
+  });
+});
+
+describe("XLPE cables, 11 to 132 kV, copper and aluminium (IEC 60228 class 2 R20, from memory; typical X, C, ampacity)", () => {
+  const cables = builtInConductorTypes.filter((c) => c.kind === "cable");
+  const cable = (id: string) => cables.find((c) => c.id === id)!;
+
+  it("cover 11, 33, 66 and 132 kV in both metals, each with its source", () => {
+    expect(new Set(cables.map((c) => c.nominalKV))).toEqual(new Set([11, 33, 66, 132]));
+    expect(new Set(cables.map((c) => c.material))).toEqual(new Set(["copper", "aluminium"]));
+    for (const c of cables) expect(c.source).toMatch(/IEC 60228.*from memory/);
+  });
+
+  it("IEC 60228 class 2: 240 mm² copper 0.0754 Ω/km, aluminium 0.125 Ω/km at 20 °C", () => {
+    expect(cable("xlpe-66kv-cu-240").rOhmPerKm).toBe(0.0754);
+    expect(cable("xlpe-66kv-al-240").rOhmPerKm).toBe(0.125);
+  });
+
+  it("susceptance is 2πfC: 0.25 µF/km at 50 Hz is 78.5 µS/km", () => {
+    expect(cable("xlpe-33kv-cu-300").bMicroSiemensPerKm).toBeCloseTo(2 * Math.PI * 50 * 0.25, 1);
+  });
+
+  it("aluminium carries less than copper of the same size; higher voltages have less capacitance per size", () => {
+    expect(cable("xlpe-11kv-al-300").ampacityA).toBeLessThan(cable("xlpe-11kv-cu-300").ampacityA);
+    expect(cable("xlpe-33kv-cu-300").bMicroSiemensPerKm!).toBeLessThan(cable("xlpe-11kv-cu-300").bMicroSiemensPerKm!);
+  });
+
+  it("ids are unique across the whole library", () => {
+    expect(new Set(builtInConductorTypes.map((c) => c.id)).size).toBe(builtInConductorTypes.length);
   });
 });
