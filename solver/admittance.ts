@@ -6,7 +6,7 @@
 import type { Network } from "#solver/schema.ts";
 import type { Graph } from "#solver/sparse/ordering.ts";
 import type { NodalNetwork } from "#solver/faults/nodalNetwork.ts";
-import { IdIndex } from "#solver/idIndex.ts";
+import { busIndexOf, type IdIndex } from "#solver/idIndex.ts";
 import {
   lineSeriesImpedancePu,
   lineShuntSusceptancePu,
@@ -40,7 +40,7 @@ export interface NetworkAdmittance {
 }
 
 export function buildAdmittance(network: Network): NetworkAdmittance {
-  const busIndex = new IdIndex(network.buses.map((bus) => bus.id));
+  const busIndex = busIndexOf(network);
   const branches = branchTwoPorts(network, busIndex);
   const diagonalG = new Float64Array(network.buses.length);
   const diagonalB = new Float64Array(network.buses.length);

@@ -22,40 +22,47 @@ function notConvergedCheck(network: Network, loadFlow: LoadFlowResult): Check {
   };
 }
 
+// Readings come in the network's order (buses; lines, then transformers), so each element finds
+// its reading by position; a message is written only for a limit broken.
+
 function voltageChecks(network: Network, loadFlow: LoadFlowResult): Check[] {
-  const readings = new Map(loadFlow.buses.map((b) => [b.id, b]));
   const checks: Check[] = [];
-  for (const bus of network.buses) {
-    const reading = readings.get(bus.id);
-    if (!reading) continue;
+  const readings = loadFlow.buses;
+  for (let i = 0; i < readings.length; i++) {
+    const bus = network.buses[i];
+    const reading = readings[i];
+    const low = reading.vPu < bus.vMinPu;
+    if (!low && !(reading.vPu > bus.vMaxPu)) continue;
     const who = `Bus "${bus.name}" (${bus.id})`;
     const band = `voltage band ${bus.vMinPu}–${bus.vMaxPu} pu`;
-    if (reading.vPu < bus.vMinPu)
-      checks.push({
-        element: bus.id,
-        kind: "undervoltage",
-        value: reading.vPu,
-        limit: bus.vMinPu,
-        message: `${who}: ${pu(reading.vPu)} (${reading.vKV.toFixed(2)} kV) is below its minimum ${pu(bus.vMinPu)} (rule: ${band})`,
-      });
-    else if (reading.vPu > bus.vMaxPu)
-      checks.push({
-        element: bus.id,
-        kind: "overvoltage",
-        value: reading.vPu,
-        limit: bus.vMaxPu,
-        message: `${who}: ${pu(reading.vPu)} (${reading.vKV.toFixed(2)} kV) is above its maximum ${pu(bus.vMaxPu)} (rule: ${band})`,
-      });
+    const measured = `${pu(reading.vPu)} (${reading.vKV.toFixed(2)} kV)`;
+    checks.push(
+      low
+        ? {
+            element: bus.id,
+            kind: "undervoltage",
+            value: reading.vPu,
+            limit: bus.vMinPu,
+            message: `${who}: ${measured} is below its minimum ${pu(bus.vMinPu)} (rule: ${band})`,
+          }
+        : {
+            element: bus.id,
+            kind: "overvoltage",
+            value: reading.vPu,
+            limit: bus.vMaxPu,
+            message: `${who}: ${measured} is above its maximum ${pu(bus.vMaxPu)} (rule: ${band})`,
+          },
+    );
   }
   return checks;
 }
 
 function lineChecks(network: Network, loadFlow: LoadFlowResult): Check[] {
-  const readings = new Map(loadFlow.branches.map((b) => [b.id, b]));
   const checks: Check[] = [];
-  for (const line of network.lines) {
-    const reading = readings.get(line.id);
-    if (!reading || line.ampacityA === undefined || reading.currentA <= line.ampacityA) continue;
+  for (let k = 0; k < network.lines.length && k < loadFlow.branches.length; k++) {
+    const line = network.lines[k];
+    const reading = loadFlow.branches[k];
+    if (line.ampacityA === undefined || reading.currentA <= line.ampacityA) continue;
     checks.push({
       element: line.id,
       kind: "line-overload",
@@ -70,11 +77,15 @@ function lineChecks(network: Network, loadFlow: LoadFlowResult): Check[] {
 }
 
 function transformerChecks(network: Network, loadFlow: LoadFlowResult): Check[] {
-  const readings = new Map(loadFlow.branches.map((b) => [b.id, b]));
   const checks: Check[] = [];
-  for (const t of network.transformers) {
-    const reading = readings.get(t.id);
-    if (!reading) continue;
+  const first = network.lines.length;
+  for (let k = 0; k < network.transformers.length && first + k < loadFlow.branches.length; k++) {
+    const t = network.transformers[k];
+    const reading = loadFlow.branches[first + k];
+    const sFrom = reading.pFromMW * reading.pFromMW + reading.qFromMvar * reading.qFromMvar;
+    const sTo = reading.pToMW * reading.pToMW + reading.qToMvar * reading.qToMvar;
+    // A cheap test first; the exact figure (Math.hypot, as the loading reads) only near or past the rating.
+    if (Math.sqrt(Math.max(sFrom, sTo)) < t.ratedMVA * (1 - 1e-9)) continue;
     const apparentMVA = Math.max(Math.hypot(reading.pFromMW, reading.qFromMvar), Math.hypot(reading.pToMW, reading.qToMvar));
     if (apparentMVA <= t.ratedMVA) continue;
     checks.push({

@@ -1,6 +1,7 @@
 // Element ids to positions, for the hot path of large networks: an open-addressing hash table on
 // typed arrays, about twice as fast to build and search as a Map with 100,000 string keys.
 // Ids are unique in a validated network; should one repeat, its first position wins.
+import type { Network } from "#solver/schema.ts";
 
 export class IdIndex {
   private readonly table: Int32Array;
@@ -42,4 +43,16 @@ function hashOf(text: string): number {
   let hash = 0x811c9dc5;
   for (let i = 0; i < text.length; i++) hash = Math.imul(hash ^ text.charCodeAt(i), 0x01000193);
   return hash;
+}
+
+const busIndexes = new WeakMap<Network, IdIndex>();
+
+/** The buses' positions by id, built once per network and shared by the load flow, the faults and the checks. */
+export function busIndexOf(network: Network): IdIndex {
+  let index = busIndexes.get(network);
+  if (!index) {
+    index = new IdIndex(network.buses.map((bus) => bus.id));
+    busIndexes.set(network, index);
+  }
+  return index;
 }

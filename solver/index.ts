@@ -30,10 +30,19 @@ export interface SolveOptions {
 
 export type SolveOutcome = { ok: true; network: Network; result: SolveResult } | { ok: false; issues: ValidationIssue[] };
 
+/** Validate an untrusted document, then solve it. Every problem with the document comes back with its path. */
 export function solveNetwork(document: unknown, options: SolveOptions = {}): SolveOutcome {
   const validated = validateNetwork(document);
   if (!validated.ok) return validated;
-  const network = validated.network;
+  return solveValidated(validated.network, options);
+}
+
+/**
+ * Solve a network that has already passed `validateNetwork`, such as a stored revision (every
+ * revision is stored as the validator's output when it is saved). Skips the validation, so it
+ * must never be given untrusted input: anything from a request goes through `solveNetwork`.
+ */
+export function solveValidated(network: Network, options: SolveOptions = {}): SolveOutcome {
   try {
     const loadFlow = runLoadFlow(network);
     const checks: Check[] = loadFlowChecks(network, loadFlow);
@@ -41,7 +50,7 @@ export function solveNetwork(document: unknown, options: SolveOptions = {}): Sol
     if (options.faults ?? true) {
       const faults = computeFaultLevels(network);
       result.faults = faults;
-      checks.push(...faultChecks(network, faults));
+      for (const check of faultChecks(network, faults)) checks.push(check);
     }
     return { ok: true, network, result };
   } catch (failure) {

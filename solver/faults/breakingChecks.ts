@@ -6,11 +6,12 @@ import type { Network } from "#solver/schema.ts";
 const kA = (value: number) => `${value.toFixed(2)} kA`;
 
 export function faultChecks(network: Network, faults: FaultResult): Check[] {
-  const readings = new Map(faults.buses.map((r) => [r.id, r]));
+  // Readings come in the network's bus order.
   const checks: Check[] = [];
-  for (const bus of network.buses) {
-    const reading = readings.get(bus.id);
-    if (bus.breakingKA === undefined || !reading) continue;
+  for (let i = 0; i < faults.buses.length; i++) {
+    const bus = network.buses[i];
+    const reading = faults.buses[i];
+    if (bus.breakingKA === undefined) continue;
     const worst = Math.max(reading.ik3kA, reading.ik1kA);
     if (worst <= bus.breakingKA) continue;
     checks.push({

@@ -24,6 +24,7 @@
 //   the methods prescribe, rather than as one power-station unit. Without `ratedKV` a
 //   generator is rated at its bus's nominal voltage; without `ratedPowerFactor`, cos φ = 0.85.
 import type { Bus, Network, Source, Transformer } from "#solver/schema.ts";
+import { busIndexOf } from "#solver/idIndex.ts";
 import {
   impedanceBaseOhm,
   lineSeriesImpedancePu,
@@ -170,8 +171,7 @@ function addTransformerZeroSequence(
 
 export function buildSequenceNetworks(network: Network): SequenceNetworks {
   const { buses, baseMVA } = network;
-  const index = new Map<string, number>();
-  buses.forEach((b, i) => index.set(b.id, i));
+  const index = busIndexOf(network);
   const busIndex = (busId: string, kind: string, elementId: string): number => {
     const i = index.get(busId);
     if (i === undefined) throw new FaultModelError(`${kind} "${elementId}" refers to bus "${busId}", which does not exist`);

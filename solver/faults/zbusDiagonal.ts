@@ -5,7 +5,7 @@
 // to the reference (no source, no earth) has no finite Z_kk: it is left out of the elimination
 // (identity rows) and reported as not reaching the reference.
 import { sequenceAdmittance } from "#solver/admittance.ts";
-import { analyse, type Symbolic } from "#solver/sparse/ordering.ts";
+import { analyse } from "#solver/sparse/ordering.ts";
 import { ComplexSymmetricFactor } from "#solver/sparse/selectedInverse.ts";
 import type { DrivingPointImpedances, NodalNetwork } from "./nodalNetwork.ts";
 
@@ -30,11 +30,7 @@ class DisjointSets {
   }
 }
 
-/**
- * `symbolic` may be given when the caller has already ordered the same graph (the positive
- * sequence has the load flow's bus graph); it must then match the assembled pattern exactly.
- */
-export function drivingPointImpedances(network: NodalNetwork, symbolic?: Symbolic): DrivingPointImpedances {
+export function drivingPointImpedances(network: NodalNetwork): DrivingPointImpedances {
   const n = network.nodeCount;
   const { branchCount, branchFrom, branchTo, branchZRe, branchZIm, branchRatio } = network;
 
@@ -58,7 +54,7 @@ export function drivingPointImpedances(network: NodalNetwork, symbolic?: Symboli
   const active = new Uint8Array(n);
   for (let k = 0; k < n; k++) active[k] = node[k] === k && earthed[connected.find(k)] ? 1 : 0;
 
-  const factor = new ComplexSymmetricFactor(symbolic ?? analyse(matrix));
+  const factor = new ComplexSymmetricFactor(analyse(matrix));
   const { diagonalRe, diagonalIm, offRe, offIm } = factor;
   for (let i = 0; i < n; i++) {
     if (!active[i]) {
