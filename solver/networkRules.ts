@@ -14,66 +14,81 @@ function label(kind: string, element: { id: string; name: string }): string {
   return `${kind} "${element.name}" (${element.id})`;
 }
 
-/** Cross-element rules a shape cannot express; every issue names the element and its path. */
-export function networkRules(net: Network, add: (path: (string | number)[], message: string) => void): void {
-  const seen = new Map<string, string>();
-  const collections = ["buses", "sources", "transformers", "lines", "loads", "shunts"] as const;
-  for (const key of collections) {
-    net[key].forEach((element, i) => {
-      const first = seen.get(element.id);
-      if (first) add([key, i, "id"], `id "${element.id}" is already used by ${first}`);
-      else seen.set(element.id, `${key}[${i}]`);
-    });
+type AddIssue = (path: (string | number)[], message: string) => void;
+
+const COLLECTIONS = ["buses", "sources", "transformers", "lines", "loads", "shunts"] as const;
+
+/**
+ * Cross-element rules a shape cannot express; every issue names the element and its path. Linear
+ * in the size of the network, and a label or path is written only for an issue found.
+ */
+export function networkRules(net: Network, add: AddIssue): void {
+  // Where each id was first used, as collection × 2²⁶ + position.
+  const seen = new Map<string, number>();
+  for (let c = 0; c < COLLECTIONS.length; c++) {
+    const key = COLLECTIONS[c];
+    const elements = net[key];
+    for (let i = 0; i < elements.length; i++) {
+      const elementId = elements[i].id;
+      const first = seen.get(elementId);
+      if (first === undefined) seen.set(elementId, c * 2 ** 26 + i);
+      else add([key, i, "id"], `id "${elementId}" is already used by ${COLLECTIONS[Math.floor(first / 2 ** 26)]}[${first % 2 ** 26}]`);
+    }
   }
 
-  const busById = new Map(net.buses.map((b) => [b.id, b]));
-  const busRef = (path: (string | number)[], busId: string, owner: string) => {
-    const bus = busById.get(busId);
-    if (!bus) add(path, `${owner} refers to bus "${busId}", which does not exist`);
-    return bus;
+  // A repeated bus id means its last bus, as a lookup table built in order would give.
+  const busAt = new Map<string, number>();
+  for (let i = 0; i < net.buses.length; i++) busAt.set(net.buses[i].id, i);
+  const busRef = (key: (typeof COLLECTIONS)[number], i: number, field: string, busId: string, owner: () => string) => {
+    const at = busAt.get(busId);
+    if (at === undefined) add([key, i, field], `${owner()} refers to bus "${busId}", which does not exist`);
+    return at === undefined ? undefined : net.buses[at];
   };
 
-  net.buses.forEach((b, i) => {
+  for (let i = 0; i < net.buses.length; i++) {
+    const b = net.buses[i];
     if (b.vMinPu >= b.vMaxPu)
       add(["buses", i, "vMinPu"], `${label("Bus", b)}: vMinPu ${b.vMinPu} must be below vMaxPu ${b.vMaxPu}`);
-  });
+  }
 
-  net.sources.forEach((s, i) => {
-    const who = label("Source", s);
-    busRef(["sources", i, "bus"], s.bus, who);
+  for (let i = 0; i < net.sources.length; i++) {
+    const s = net.sources[i];
+    const who = () => label("Source", s);
+    busRef("sources", i, "bus", s.bus, who);
     if (s.kind === "grid" && s.shortCircuitMVA === undefined)
-      add(["sources", i, "shortCircuitMVA"], `${who}: a grid infeed needs its short-circuit power shortCircuitMVA`);
+      add(["sources", i, "shortCircuitMVA"], `${who()}: a grid infeed needs its short-circuit power shortCircuitMVA`);
     if (s.kind === "generator") {
-      if (s.ratedMVA === undefined) add(["sources", i, "ratedMVA"], `${who}: a generator needs ratedMVA`);
+      if (s.ratedMVA === undefined) add(["sources", i, "ratedMVA"], `${who()}: a generator needs ratedMVA`);
       if (s.xdSubtransientPct === undefined)
-        add(["sources", i, "xdSubtransientPct"], `${who}: a generator needs its subtransient reactance xdSubtransientPct`);
+        add(["sources", i, "xdSubtransientPct"], `${who()}: a generator needs its subtransient reactance xdSubtransientPct`);
     }
     if (s.qMinMvar !== undefined && s.qMaxMvar !== undefined && s.qMinMvar > s.qMaxMvar)
-      add(["sources", i, "qMinMvar"], `${who}: qMinMvar ${s.qMinMvar} is above qMaxMvar ${s.qMaxMvar}`);
-  });
+      add(["sources", i, "qMinMvar"], `${who()}: qMinMvar ${s.qMinMvar} is above qMaxMvar ${s.qMaxMvar}`);
+  }
 
-  net.transformers.forEach((t, i) => {
-    const who = label("Transformer", t);
-    const hv = busRef(["transformers", i, "hvBus"], t.hvBus, who);
-    const lv = busRef(["transformers", i, "lvBus"], t.lvBus, who);
-    if (t.hvBus === t.lvBus) add(["transformers", i, "lvBus"], `${who} connects bus "${t.hvBus}" to itself`);
+  for (let i = 0; i < net.transformers.length; i++) {
+    const t = net.transformers[i];
+    const who = () => label("Transformer", t);
+    const hv = busRef("transformers", i, "hvBus", t.hvBus, who);
+    const lv = busRef("transformers", i, "lvBus", t.lvBus, who);
+    if (t.hvBus === t.lvBus) add(["transformers", i, "lvBus"], `${who()} connects bus "${t.hvBus}" to itself`);
     if (hv && Math.abs(t.hvKV / hv.nominalKV - 1) > WINDING_TOLERANCE)
       add(
         ["transformers", i, "hvKV"],
-        `${who}: HV winding ${t.hvKV} kV is more than 15 % away from bus "${hv.name}" at ${hv.nominalKV} kV`,
+        `${who()}: HV winding ${t.hvKV} kV is more than 15 % away from bus "${hv.name}" at ${hv.nominalKV} kV`,
       );
     if (lv && Math.abs(t.lvKV / lv.nominalKV - 1) > WINDING_TOLERANCE)
       add(
         ["transformers", i, "lvKV"],
-        `${who}: LV winding ${t.lvKV} kV is more than 15 % away from bus "${lv.name}" at ${lv.nominalKV} kV`,
+        `${who()}: LV winding ${t.lvKV} kV is more than 15 % away from bus "${lv.name}" at ${lv.nominalKV} kV`,
       );
     if (t.loadLossKW === undefined && t.xOverR === undefined)
-      add(["transformers", i, "xOverR"], `${who}: give loadLossKW or xOverR so that its resistance is known`);
+      add(["transformers", i, "xOverR"], `${who()}: give loadLossKW or xOverR so that its resistance is known`);
     if (t.loadLossKW !== undefined && t.loadLossKW / (t.ratedMVA * 1000) >= t.impedancePct / 100)
-      add(["transformers", i, "loadLossKW"], `${who}: loadLossKW ${t.loadLossKW} gives a resistance above its impedance ${t.impedancePct} %`);
+      add(["transformers", i, "loadLossKW"], `${who()}: loadLossKW ${t.loadLossKW} gives a resistance above its impedance ${t.impedancePct} %`);
     if (t.tapMinPct !== undefined && t.tapMaxPct !== undefined && t.tapMinPct > t.tapMaxPct)
-      add(["transformers", i, "tapMinPct"], `${who}: tapMinPct ${t.tapMinPct} is above tapMaxPct ${t.tapMaxPct}`);
-    if (t.tapPct <= -100) add(["transformers", i, "tapPct"], `${who}: tapPct ${t.tapPct} would leave no HV turns`);
+      add(["transformers", i, "tapMinPct"], `${who()}: tapMinPct ${t.tapMinPct} is above tapMaxPct ${t.tapMaxPct}`);
+    if (t.tapPct <= -100) add(["transformers", i, "tapPct"], `${who()}: tapPct ${t.tapPct} would leave no HV turns`);
     const group = vectorGroupPattern.exec(t.vectorGroup);
     if (group) {
       const clock = Number(group[3]);
@@ -82,85 +97,101 @@ export function networkRules(net: Network, add: (path: (string | number)[], mess
       // Star against delta or zigzag shifts by an odd clock number; like windings, and delta
       // against zigzag, by an even one.
       const mixed = hvKind !== lvKind && (hvKind === "Y" || lvKind === "Y");
-      if (clock > 11) add(["transformers", i, "vectorGroup"], `${who}: clock number ${clock} must be 0 to 11`);
+      if (clock > 11) add(["transformers", i, "vectorGroup"], `${who()}: clock number ${clock} must be 0 to 11`);
       else if ((clock % 2 === 1) !== mixed)
-        add(["transformers", i, "vectorGroup"], `${who}: ${t.vectorGroup} is not a possible vector group (clock number ${clock} does not fit these windings)`);
+        add(["transformers", i, "vectorGroup"], `${who()}: ${t.vectorGroup} is not a possible vector group (clock number ${clock} does not fit these windings)`);
     }
-  });
+  }
 
-  net.lines.forEach((l, i) => {
-    const who = label("Line", l);
-    const from = busRef(["lines", i, "fromBus"], l.fromBus, who);
-    const to = busRef(["lines", i, "toBus"], l.toBus, who);
-    if (l.fromBus === l.toBus) add(["lines", i, "toBus"], `${who} connects bus "${l.fromBus}" to itself`);
+  for (let i = 0; i < net.lines.length; i++) {
+    const l = net.lines[i];
+    const who = () => label("Line", l);
+    const from = busRef("lines", i, "fromBus", l.fromBus, who);
+    const to = busRef("lines", i, "toBus", l.toBus, who);
+    if (l.fromBus === l.toBus) add(["lines", i, "toBus"], `${who()} connects bus "${l.fromBus}" to itself`);
     if (from && to && Math.abs(from.nominalKV - to.nominalKV) > 1e-9 * from.nominalKV)
       add(
         ["lines", i, "toBus"],
-        `${who} joins "${from.name}" at ${from.nominalKV} kV to "${to.name}" at ${to.nominalKV} kV: a line must stay within one voltage level`,
+        `${who()} joins "${from.name}" at ${from.nominalKV} kV to "${to.name}" at ${to.nominalKV} kV: a line must stay within one voltage level`,
       );
     if (Math.hypot(l.rOhmPerKm, l.xOhmPerKm) * l.lengthKm < 1e-6)
-      add(["lines", i, "xOhmPerKm"], `${who}: its impedance is below a micro-ohm; a line needs an impedance (join the buses instead)`);
-  });
+      add(["lines", i, "xOhmPerKm"], `${who()}: its impedance is below a micro-ohm; a line needs an impedance (join the buses instead)`);
+  }
 
-  net.loads.forEach((ld, i) => busRef(["loads", i, "bus"], ld.bus, label("Load", ld)));
-  net.shunts.forEach((sh, i) => busRef(["shunts", i, "bus"], sh.bus, label("Shunt", sh)));
+  for (let i = 0; i < net.loads.length; i++) busRef("loads", i, "bus", net.loads[i].bus, () => label("Load", net.loads[i]));
+  for (let i = 0; i < net.shunts.length; i++) busRef("shunts", i, "bus", net.shunts[i].bus, () => label("Shunt", net.shunts[i]));
 
   operatingCaseRules(net, add);
+  slackRules(net, busAt, add);
+}
 
-  // One slack per connected group: union-find over branches whose ends both exist, with full path
-  // compression and union by size so that a 100,000-bus chain stays linear.
-  const parent = new Map(net.buses.map((b) => [b.id, b.id]));
-  const size = new Map(net.buses.map((b) => [b.id, 1]));
-  const find = (x: string): string => {
+/**
+ * One slack per connected group: union-find over the buses (a repeated id is one node) joined by
+ * branches whose ends both exist, with path compression and union by size, so a 100,000-bus chain
+ * stays linear. Each group is reported at its first bus.
+ */
+function slackRules(net: Network, busAt: Map<string, number>, add: AddIssue): void {
+  const n = net.buses.length;
+  const parent = new Int32Array(n);
+  const size = new Int32Array(n).fill(1);
+  for (let i = 0; i < n; i++) parent[i] = i;
+  const find = (x: number): number => {
     let root = x;
-    while (parent.get(root) !== root) root = parent.get(root)!;
-    for (let node = x; node !== root; ) {
-      const next = parent.get(node)!;
-      parent.set(node, root);
-      node = next;
+    while (parent[root] !== root) root = parent[root];
+    while (x !== root) {
+      const next = parent[x];
+      parent[x] = root;
+      x = next;
     }
     return root;
   };
   const join = (a: string, b: string) => {
-    if (!parent.has(a) || !parent.has(b)) return;
-    let [ra, rb] = [find(a), find(b)];
+    const na = busAt.get(a);
+    const nb = busAt.get(b);
+    if (na === undefined || nb === undefined) return;
+    let ra = find(na);
+    let rb = find(nb);
     if (ra === rb) return;
-    if (size.get(ra)! < size.get(rb)!) [ra, rb] = [rb, ra];
-    parent.set(rb, ra);
-    size.set(ra, size.get(ra)! + size.get(rb)!);
+    if (size[ra] < size[rb]) [ra, rb] = [rb, ra];
+    parent[rb] = ra;
+    size[ra] += size[rb];
   };
-  net.lines.forEach((l) => join(l.fromBus, l.toBus));
-  net.transformers.forEach((t) => join(t.hvBus, t.lvBus));
-  const slacks = new Map<string, number[]>();
+  for (const l of net.lines) join(l.fromBus, l.toBus);
+  for (const t of net.transformers) join(t.hvBus, t.lvBus);
+  const slacks = new Map<number, number[]>();
   net.sources.forEach((s, i) => {
-    if (s.control === "slack" && parent.has(s.bus)) {
-      const root = find(s.bus);
-      slacks.set(root, [...(slacks.get(root) ?? []), i]);
-    }
+    const at = busAt.get(s.bus);
+    if (s.control !== "slack" || at === undefined) return;
+    const root = find(at);
+    const list = slacks.get(root);
+    if (list) list.push(i);
+    else slacks.set(root, [i]);
   });
-  const reported = new Set<string>();
-  net.buses.forEach((b, i) => {
-    const root = find(b.id);
-    if (reported.has(root)) return;
-    reported.add(root);
+  const reported = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    const b = net.buses[i];
+    const root = find(busAt.get(b.id)!);
+    if (reported[root]) continue;
+    reported[root] = 1;
     const found = slacks.get(root) ?? [];
     if (found.length === 0)
       add(["buses", i], `Bus "${b.name}" (${b.id}) and the buses connected to it have no slack source; each connected group needs exactly one`);
     for (const extra of found.slice(1))
       add(["sources", extra, "control"], `${label("Source", net.sources[extra])} is a second slack in the group of bus "${b.name}"; each connected group needs exactly one`);
-  });
+  }
 }
 
 /** Hours in a leap year: the most the cases together may stand for. */
 export const HOURS_PER_LEAP_YEAR = 8784;
 
 /** Operating cases name loads, sources and elements that exist, each once; only version 2 has them. */
-function operatingCaseRules(net: Network, add: (path: (string | number)[], message: string) => void): void {
+function operatingCaseRules(net: Network, add: AddIssue): void {
   if (net.version < 2) {
     if (net.cases) add(["cases"], `operating cases need "version": 2`);
     if (net.growth) add(["growth"], `load growth needs "version": 2`);
   }
   const cases = net.cases ?? [];
+  if (cases.length === 0) return;
   const loadIds = new Set(net.loads.map((l) => l.id));
   const sourceIds = new Set(net.sources.map((s) => s.id));
   const switchable = new Set([...net.lines, ...net.transformers, ...net.loads, ...net.shunts, ...net.sources].map((e) => e.id));
