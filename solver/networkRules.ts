@@ -39,9 +39,9 @@ export function networkRules(net: Network, add: AddIssue): void {
   // A repeated bus id means its last bus, as a lookup table built in order would give.
   const busAt = new Map<string, number>();
   for (let i = 0; i < net.buses.length; i++) busAt.set(net.buses[i].id, i);
-  const busRef = (key: (typeof COLLECTIONS)[number], i: number, field: string, busId: string, owner: () => string) => {
+  const busRef = (key: (typeof COLLECTIONS)[number], i: number, field: string, busId: string, kind: string) => {
     const at = busAt.get(busId);
-    if (at === undefined) add([key, i, field], `${owner()} refers to bus "${busId}", which does not exist`);
+    if (at === undefined) add([key, i, field], `${label(kind, net[key][i])} refers to bus "${busId}", which does not exist`);
     return at === undefined ? undefined : net.buses[at];
   };
 
@@ -53,42 +53,40 @@ export function networkRules(net: Network, add: AddIssue): void {
 
   for (let i = 0; i < net.sources.length; i++) {
     const s = net.sources[i];
-    const who = () => label("Source", s);
-    busRef("sources", i, "bus", s.bus, who);
+    busRef("sources", i, "bus", s.bus, "Source");
     if (s.kind === "grid" && s.shortCircuitMVA === undefined)
-      add(["sources", i, "shortCircuitMVA"], `${who()}: a grid infeed needs its short-circuit power shortCircuitMVA`);
+      add(["sources", i, "shortCircuitMVA"], `${label("Source", s)}: a grid infeed needs its short-circuit power shortCircuitMVA`);
     if (s.kind === "generator") {
-      if (s.ratedMVA === undefined) add(["sources", i, "ratedMVA"], `${who()}: a generator needs ratedMVA`);
+      if (s.ratedMVA === undefined) add(["sources", i, "ratedMVA"], `${label("Source", s)}: a generator needs ratedMVA`);
       if (s.xdSubtransientPct === undefined)
-        add(["sources", i, "xdSubtransientPct"], `${who()}: a generator needs its subtransient reactance xdSubtransientPct`);
+        add(["sources", i, "xdSubtransientPct"], `${label("Source", s)}: a generator needs its subtransient reactance xdSubtransientPct`);
     }
     if (s.qMinMvar !== undefined && s.qMaxMvar !== undefined && s.qMinMvar > s.qMaxMvar)
-      add(["sources", i, "qMinMvar"], `${who()}: qMinMvar ${s.qMinMvar} is above qMaxMvar ${s.qMaxMvar}`);
+      add(["sources", i, "qMinMvar"], `${label("Source", s)}: qMinMvar ${s.qMinMvar} is above qMaxMvar ${s.qMaxMvar}`);
   }
 
   for (let i = 0; i < net.transformers.length; i++) {
     const t = net.transformers[i];
-    const who = () => label("Transformer", t);
-    const hv = busRef("transformers", i, "hvBus", t.hvBus, who);
-    const lv = busRef("transformers", i, "lvBus", t.lvBus, who);
-    if (t.hvBus === t.lvBus) add(["transformers", i, "lvBus"], `${who()} connects bus "${t.hvBus}" to itself`);
+    const hv = busRef("transformers", i, "hvBus", t.hvBus, "Transformer");
+    const lv = busRef("transformers", i, "lvBus", t.lvBus, "Transformer");
+    if (t.hvBus === t.lvBus) add(["transformers", i, "lvBus"], `${label("Transformer", t)} connects bus "${t.hvBus}" to itself`);
     if (hv && Math.abs(t.hvKV / hv.nominalKV - 1) > WINDING_TOLERANCE)
       add(
         ["transformers", i, "hvKV"],
-        `${who()}: HV winding ${t.hvKV} kV is more than 15 % away from bus "${hv.name}" at ${hv.nominalKV} kV`,
+        `${label("Transformer", t)}: HV winding ${t.hvKV} kV is more than 15 % away from bus "${hv.name}" at ${hv.nominalKV} kV`,
       );
     if (lv && Math.abs(t.lvKV / lv.nominalKV - 1) > WINDING_TOLERANCE)
       add(
         ["transformers", i, "lvKV"],
-        `${who()}: LV winding ${t.lvKV} kV is more than 15 % away from bus "${lv.name}" at ${lv.nominalKV} kV`,
+        `${label("Transformer", t)}: LV winding ${t.lvKV} kV is more than 15 % away from bus "${lv.name}" at ${lv.nominalKV} kV`,
       );
     if (t.loadLossKW === undefined && t.xOverR === undefined)
-      add(["transformers", i, "xOverR"], `${who()}: give loadLossKW or xOverR so that its resistance is known`);
+      add(["transformers", i, "xOverR"], `${label("Transformer", t)}: give loadLossKW or xOverR so that its resistance is known`);
     if (t.loadLossKW !== undefined && t.loadLossKW / (t.ratedMVA * 1000) >= t.impedancePct / 100)
-      add(["transformers", i, "loadLossKW"], `${who()}: loadLossKW ${t.loadLossKW} gives a resistance above its impedance ${t.impedancePct} %`);
+      add(["transformers", i, "loadLossKW"], `${label("Transformer", t)}: loadLossKW ${t.loadLossKW} gives a resistance above its impedance ${t.impedancePct} %`);
     if (t.tapMinPct !== undefined && t.tapMaxPct !== undefined && t.tapMinPct > t.tapMaxPct)
-      add(["transformers", i, "tapMinPct"], `${who()}: tapMinPct ${t.tapMinPct} is above tapMaxPct ${t.tapMaxPct}`);
-    if (t.tapPct <= -100) add(["transformers", i, "tapPct"], `${who()}: tapPct ${t.tapPct} would leave no HV turns`);
+      add(["transformers", i, "tapMinPct"], `${label("Transformer", t)}: tapMinPct ${t.tapMinPct} is above tapMaxPct ${t.tapMaxPct}`);
+    if (t.tapPct <= -100) add(["transformers", i, "tapPct"], `${label("Transformer", t)}: tapPct ${t.tapPct} would leave no HV turns`);
     const group = vectorGroupPattern.exec(t.vectorGroup);
     if (group) {
       const clock = Number(group[3]);
@@ -97,29 +95,28 @@ export function networkRules(net: Network, add: AddIssue): void {
       // Star against delta or zigzag shifts by an odd clock number; like windings, and delta
       // against zigzag, by an even one.
       const mixed = hvKind !== lvKind && (hvKind === "Y" || lvKind === "Y");
-      if (clock > 11) add(["transformers", i, "vectorGroup"], `${who()}: clock number ${clock} must be 0 to 11`);
+      if (clock > 11) add(["transformers", i, "vectorGroup"], `${label("Transformer", t)}: clock number ${clock} must be 0 to 11`);
       else if ((clock % 2 === 1) !== mixed)
-        add(["transformers", i, "vectorGroup"], `${who()}: ${t.vectorGroup} is not a possible vector group (clock number ${clock} does not fit these windings)`);
+        add(["transformers", i, "vectorGroup"], `${label("Transformer", t)}: ${t.vectorGroup} is not a possible vector group (clock number ${clock} does not fit these windings)`);
     }
   }
 
   for (let i = 0; i < net.lines.length; i++) {
     const l = net.lines[i];
-    const who = () => label("Line", l);
-    const from = busRef("lines", i, "fromBus", l.fromBus, who);
-    const to = busRef("lines", i, "toBus", l.toBus, who);
-    if (l.fromBus === l.toBus) add(["lines", i, "toBus"], `${who()} connects bus "${l.fromBus}" to itself`);
+    const from = busRef("lines", i, "fromBus", l.fromBus, "Line");
+    const to = busRef("lines", i, "toBus", l.toBus, "Line");
+    if (l.fromBus === l.toBus) add(["lines", i, "toBus"], `${label("Line", l)} connects bus "${l.fromBus}" to itself`);
     if (from && to && Math.abs(from.nominalKV - to.nominalKV) > 1e-9 * from.nominalKV)
       add(
         ["lines", i, "toBus"],
-        `${who()} joins "${from.name}" at ${from.nominalKV} kV to "${to.name}" at ${to.nominalKV} kV: a line must stay within one voltage level`,
+        `${label("Line", l)} joins "${from.name}" at ${from.nominalKV} kV to "${to.name}" at ${to.nominalKV} kV: a line must stay within one voltage level`,
       );
     if (Math.hypot(l.rOhmPerKm, l.xOhmPerKm) * l.lengthKm < 1e-6)
-      add(["lines", i, "xOhmPerKm"], `${who()}: its impedance is below a micro-ohm; a line needs an impedance (join the buses instead)`);
+      add(["lines", i, "xOhmPerKm"], `${label("Line", l)}: its impedance is below a micro-ohm; a line needs an impedance (join the buses instead)`);
   }
 
-  for (let i = 0; i < net.loads.length; i++) busRef("loads", i, "bus", net.loads[i].bus, () => label("Load", net.loads[i]));
-  for (let i = 0; i < net.shunts.length; i++) busRef("shunts", i, "bus", net.shunts[i].bus, () => label("Shunt", net.shunts[i]));
+  for (let i = 0; i < net.loads.length; i++) busRef("loads", i, "bus", net.loads[i].bus, "Load");
+  for (let i = 0; i < net.shunts.length; i++) busRef("shunts", i, "bus", net.shunts[i].bus, "Shunt");
 
   operatingCaseRules(net, add);
   slackRules(net, busAt, add);
