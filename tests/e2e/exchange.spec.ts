@@ -6,6 +6,7 @@ import { join } from "node:path";
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { signIn } from "./accounts.ts";
+import { countReactCommits, hydrated } from "./hydration.ts";
 
 const fixtures = join(import.meta.dirname, "..", "fixtures");
 const tarnHead = readFileSync(join(fixtures, "tarn-head-calder-flats.json"), "utf8");
@@ -40,6 +41,7 @@ async function uploadNetwork(page: Page, name: string): Promise<number> {
 
 test("pages carry the security headers and a nonce policy, and no page trips it", async ({ page }) => {
   const problems = watchConsole(page);
+  await countReactCommits(page);
   const response = await page.goto("/sign-in");
   const headers = response!.headers();
   expect(headers["content-security-policy"]).toMatch(/script-src 'self' 'nonce-[A-Za-z0-9+/=]+'/);
@@ -50,11 +52,13 @@ test("pages carry the security headers and a nonce policy, and no page trips it"
   await signIn(page, "editor");
   for (const path of ["/networks", "/networks/upload", "/account", "/docs/api", "/teams"]) {
     await page.goto(path);
-    await page.waitForLoadState("networkidle");
+    await hydrated(page);
   }
   await page.goto("/networks");
+  await hydrated(page);
   await page.getByRole("link", { name: "Tarn Head to Calder Flats (fictional)" }).first().click();
-  await page.waitForLoadState("networkidle");
+  // The sheet's client-side work is done once the solved readings are drawn.
+  await expect(page.locator(".react-flow__node .ks-readings").first()).toContainText("kV");
   expect(problems, "console errors (a CSP violation shows here)").toEqual([]);
 });
 

@@ -32,6 +32,12 @@ async function busReadingKV(page: Page, busId: string): Promise<number> {
   return Number(/([\d.]+) kV/.exec(text)![1]);
 }
 
+/** Fits the sheet to the view ("f") and waits until the view has come to rest. */
+async function fitView(page: Page) {
+  await page.keyboard.press("f");
+  await expect(page.locator(".ks-canvas")).not.toHaveAttribute("data-view-moving");
+}
+
 async function setField(page: Page, label: string, value: string) {
   const field = page.locator(".ks-details").getByLabel(label, { exact: true });
   await field.fill(value);
@@ -88,8 +94,10 @@ test("an editor draws the hydro chain from a blank sheet with the UI only; the l
   await setField(page, "Load (copper) loss at rated current", "118 kW");
   await setField(page, "Vector group", "YNd11");
   await sheet.click({ position: { x: 10, y: 10 } });
-  await page.keyboard.press("f");
-  await page.waitForTimeout(500);
+  await fitView(page);
+  // The drags below aim at screen points: the whole sheet must be on screen, whichever field the
+  // page last scrolled to.
+  await sheet.scrollIntoViewIfNeeded();
   const stepUp = page.locator(".react-flow__node-transformer").first();
   const stepUpId = await stepUp.getAttribute("data-id");
   for (const [terminal, busName] of [
@@ -234,8 +242,7 @@ test("a viewer sees the sheet, readings and results but cannot edit", async ({ p
   await page.mouse.move(bar.x + 200, bar.y + 120, { steps: 10 });
   await page.mouse.up();
   // The drag may have panned the view (and the sheet draws only what is in view): fit it again.
-  await page.keyboard.press("f");
-  await page.waitForTimeout(500);
+  await fitView(page);
   const after = await offset();
   // A moved bus would have shifted by at least one 20 px grid step; refitting alone shifts a fraction of a pixel.
   expect(Math.abs(after.x - before.x)).toBeLessThan(2);

@@ -20,7 +20,7 @@ import { elementKindOfPart, type PartKind } from "./sheetEdits.ts";
 import { createSheetStore, EDIT_MARK, SheetStoreContext, useSheet, useSheetStoreApi } from "./sheetStore.ts";
 import { SheetToolbar } from "./SheetToolbar.tsx";
 import { ShortcutHelp } from "./ShortcutHelp.tsx";
-import { useSheetShortcuts, type ShortcutHandlers } from "./shortcuts.ts";
+import { afterNextPaint, useSheetShortcuts, type ShortcutHandlers } from "./shortcuts.ts";
 import { loadUnitParser } from "./unitParser.ts";
 
 export interface SheetEditorProps {
@@ -108,7 +108,20 @@ function EditorLayout({
     return () => cancelAnimationFrame(frame);
   }, [solve]);
 
-  const fit = useCallback(() => fitView({ padding: 0.2, duration: 200, maxZoom: 1.25 }), [fitView]);
+  // While a fit moves the view the canvas carries data-view-moving, so that browser tests wait for
+  // the view to come to rest instead of sleeping; it goes once the last step has been painted. Set
+  // on the element itself: the flag is not worth a render of the whole editor.
+  const fitsRunning = useRef(0);
+  const fit = useCallback(() => {
+    const canvas = canvasRef.current;
+    fitsRunning.current++;
+    canvas?.setAttribute("data-view-moving", "");
+    void fitView({ padding: 0.2, duration: 200, maxZoom: 1.25 }).finally(() =>
+      afterNextPaint(() => {
+        if (--fitsRunning.current === 0) canvas?.removeAttribute("data-view-moving");
+      }),
+    );
+  }, [fitView]);
 
   const placeAtCentre = useCallback(
     (part: PartKind) => {
