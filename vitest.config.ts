@@ -7,6 +7,9 @@ export default defineConfig({
     setupFiles: ["tests/unit/setup.ts"],
     environment: "node",
     pool: "forks",
+    // Vitest's default leaves one core to itself (one worker on a two-core machine); the files are
+    // independent (own database each), so use every core.
+    maxWorkers: "100%",
     testTimeout: 30_000,
   },
 });
