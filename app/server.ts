@@ -35,7 +35,9 @@ app.use((_request, response, next) => {
   } as typeof writeHead;
   next();
 });
-app.use(compression());
+// gzip at its fastest level: pages are made per request, and the default level spends more
+// CPU per page than it saves on a local network (a proxy in front may compress harder).
+app.use(compression({ level: 1 }));
 // Fingerprinted bundles never change under their name; everything else in the client folder
 // (fonts, icons, robots.txt) may change with a release.
 app.use("/assets", express.static(path.join(clientFolder, "assets"), { immutable: true, maxAge: "1y" }));

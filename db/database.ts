@@ -10,13 +10,39 @@ import type { Database } from "./schema.ts";
 
 export type Db = Kysely<Database>;
 
+/** Statements kept prepared; the app issues far fewer distinct ones than this. */
+const KEPT_STATEMENTS = 500;
+
+/**
+ * The connection as Kysely sees it, with each distinct SQL text prepared once and kept: Kysely
+ * asks for a new statement per query, and preparing costs several times what running a small
+ * query does. Queries with the same text differ only in their parameters, which run() binds.
+ */
+function keepingStatements(sqlite: SQLite.Database) {
+  const kept = new Map<string, SQLite.Statement>();
+  return {
+    close: () => sqlite.close(),
+    prepare(sql: string): SQLite.Statement {
+      let statement = kept.get(sql);
+      if (statement) {
+        kept.delete(sql);
+      } else {
+        statement = sqlite.prepare(sql);
+        if (kept.size >= KEPT_STATEMENTS) kept.delete(kept.keys().next().value!);
+      }
+      kept.set(sql, statement);
+      return statement;
+    },
+  };
+}
+
 export function openDatabase(path: string): Db {
   if (path !== ":memory:") mkdirSync(dirname(path), { recursive: true });
   const sqlite = new SQLite(path);
   sqlite.pragma("journal_mode = WAL");
   sqlite.pragma("foreign_keys = ON");
   sqlite.pragma("busy_timeout = 5000");
-  return new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) });
+  return new Kysely<Database>({ dialect: new SqliteDialect({ database: keepingStatements(sqlite) }) });
 }
 
 /** Apply every pending migration; returns the names applied now. */
