@@ -1,5 +1,6 @@
 // Edits a planner makes on the sheet, as pure functions from one sheet content to the next:
 // place a part, connect or disconnect a terminal, delete, copy and paste.
+import { withoutCaseReferences } from "#app/lib/operatingCases.ts";
 import { WINDING_TOLERANCE, type Bus, type Network, type Source, type Transformer } from "#solver/schema.ts";
 import {
   anchorOf,
@@ -233,7 +234,7 @@ export function deleteItems(content: SheetContent, ids: Iterable<string>): Sheet
     const list = document[key] as AnyElement[];
     if (list.some((e) => doomed.has(e.id))) (removed as Record<string, unknown>)[key] = list.filter((e) => !doomed.has(e.id));
   }
-  document = removed;
+  document = withoutCaseReferences(removed, doomed);
   let layout = keepDrawnPositions(before, { document, layout: content.layout }, loosened);
   if ([...doomed].some((id) => id in layout)) {
     layout = { ...layout };

@@ -49,7 +49,7 @@ describe("operating cases", () => {
   });
 
   it("studies a network without cases as one case, as drawn", () => {
-    const doc = fixtureDocument("tarn-head-calder-flats.json");
+    const { cases: _cases, growth: _growth, ...doc } = fixtureDocument("tarn-head-calder-flats.json");
     const study = studyOf(doc);
     expect(study.cases.map((c) => c.id)).toEqual(["as-drawn"]);
     expect(study.cases[0].loadFlow).toEqual(plainSolve(doc).loadFlow);

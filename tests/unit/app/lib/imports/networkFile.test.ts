@@ -72,7 +72,7 @@ describe("readNetworkFile: files it refuses, each with a clear reason", () => {
   });
 
   it("gives the line and column of a JSON syntax error", () => {
-    const broken = tarnHead.replace('"version": 1,', '"version": 1');
+    const broken = tarnHead.replace('"version": 2,', '"version": 2');
     const reading = refused(broken);
     // The missing comma is noticed where the next field name starts: line 4, column 3.
     expect(reading.error).toContain("line 4, column 3");
