@@ -184,7 +184,8 @@ export function capitalCost(scope: CapitalScope, money: MoneyInput, override: Ca
 }
 
 export interface LossMoney {
-  lossLoadFactor: number;
+  /** The loss load factor used; null when the energy came from the operating cases' hours. */
+  lossLoadFactor: number | null;
   energyLostFirstYear: AnnualEnergyLost;
   lossCostFirstYear: number;
   presentValueOfLosses: number;
@@ -196,13 +197,17 @@ export interface LossMoney {
  */
 export function lossMoney(loadDependentPeakLossMW: number, coreLossMW: number, money: MoneyInput, energyPricePerMWh = money.energyPricePerMWh): LossMoney {
   const llf = lossLoadFactor(money.loadFactor, money.lossLoadFactorK);
-  const energy = annualEnergyLost(loadDependentPeakLossMW, coreLossMW, llf);
+  return { ...energyMoney(annualEnergyLost(loadDependentPeakLossMW, coreLossMW, llf), money, energyPricePerMWh), lossLoadFactor: llf };
+}
+
+/** A first year's energy lost, however found (loss load factor or the cases' hours), in money over the study years. */
+export function energyMoney(energy: AnnualEnergyLost, money: MoneyInput, energyPricePerMWh = money.energyPricePerMWh): LossMoney {
   const rate = money.discountRatePct / 100;
   const presentValueOfLosses =
     energy.loadDependentMWh * energyPricePerMWh * growingLossPresentWorthFactor(rate, money.studyYears, money.loadGrowthPct / 100) +
     energy.coreMWh * energyPricePerMWh * presentWorthFactor(rate, money.studyYears);
   return {
-    lossLoadFactor: llf,
+    lossLoadFactor: null,
     energyLostFirstYear: energy,
     lossCostFirstYear: energy.totalMWh * energyPricePerMWh,
     presentValueOfLosses,
@@ -238,6 +243,8 @@ export interface LossesForMoney {
   /** Null when the alternative cannot carry the load: it then has no losses to price. */
   loadDependentPeakLossMW: number | null;
   coreLossMW: number | null;
+  /** The year's energy from the operating cases' hours; when given, it is priced instead of the peak. */
+  energy?: AnnualEnergyLost;
   capitalCost: number;
 }
 
@@ -247,7 +254,9 @@ export function priceSensitivity(alternatives: readonly LossesForMoney[], money:
     const totalCosts = alternatives.map((a) =>
       a.loadDependentPeakLossMW === null || a.coreLossMW === null
         ? null
-        : a.capitalCost + lossMoney(a.loadDependentPeakLossMW, a.coreLossMW, money, energyPricePerMWh).presentValueOfLosses,
+        : a.capitalCost +
+          (a.energy ? energyMoney(a.energy, money, energyPricePerMWh) : lossMoney(a.loadDependentPeakLossMW, a.coreLossMW, money, energyPricePerMWh))
+            .presentValueOfLosses,
     );
     return { priceFactor, energyPricePerMWh, totalCosts, ranking: rankByTotalCost(totalCosts) };
   });

@@ -5,6 +5,7 @@ import { z } from "zod";
 import { alternativeOverridesSchema, deriveAlternative, inputMessage, zodIssues } from "#solver/alternative.ts";
 import {
   capitalCost,
+  energyMoney,
   lossMoney,
   moneyInputSchema,
   priceSensitivity,
@@ -20,6 +21,7 @@ import { solveNetwork } from "#solver/index.ts";
 import type { Check, CheckKind, FaultBusReading, SolveResult } from "#solver/results.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { findSection, type Section } from "#solver/section.ts";
+import { runStudySync, type Energy, type Study, type StudyCheck } from "#solver/study/index.ts";
 
 export { findSection, type Section, type FacingWinding } from "#solver/section.ts";
 export { deriveAlternative, alternativeOverridesSchema, conductorSchema, type AlternativeOverrides, type Conductor } from "#solver/alternative.ts";
@@ -43,6 +45,8 @@ export const ladderRequestSchema = z.strictObject({
   money: moneyInputSchema.prefault({}),
   /** Per alternative, in the order of voltagesKV: conductor, element overrides, capital entries. */
   overrides: z.array(alternativeOverridesSchema.nullable()).optional(),
+  /** Also take each line and transformer out in turn in every case: an alternative must hold N-1 too. */
+  outages: z.boolean().optional(),
 });
 export type LadderRequest = z.input<typeof ladderRequestSchema>;
 
@@ -73,8 +77,25 @@ export interface LadderAlternative {
   /** IEC 60909-0 fault levels at the section's end buses (computed whether or not the load flow converges). */
   faults: FaultBusReading[];
   money: { capital: CapitalCost; losses: LossMoney | null; totalCost: number | null };
+  /** The alternative in each operating case (a network without cases has one, as drawn). */
+  cases: AlternativeCase[];
+  /** Limits broken in any case (and, when asked, with any line or transformer out), each naming its case. */
+  studyChecks: StudyCheck[];
+  /** The year's energy lost over the cases (their hours, or the loss-load-factor fallback). */
+  energy: Energy;
   network: Network;
   result: SolveResult;
+}
+
+export interface AlternativeCase {
+  id: string;
+  name: string;
+  converged: boolean;
+  lossMW: number | null;
+  minVPu: number | null;
+  maxVPu: number | null;
+  lostLoadMW: number;
+  limitsBroken: number;
 }
 
 export interface LadderRecommendation {
@@ -82,6 +103,11 @@ export interface LadderRecommendation {
   voltageKV: number;
   totalCost: number;
   withinLimits: boolean;
+  /**
+   * The case that decided: the one in which a cheaper alternative broke a limit ("limits"), or,
+   * when the recommendation is the cheapest outright, the case whose losses weigh most ("losses").
+   */
+  decidingCase: { id: string; name: string; reason: "limits" | "losses" } | null;
   note: string;
 }
 
@@ -100,6 +126,8 @@ export interface Ladder {
 export type LadderOutcome = { ok: true; ladder: Ladder } | { ok: false; issues: ValidationIssue[] };
 
 const LIMIT_KINDS: readonly CheckKind[] = ["undervoltage", "overvoltage", "line-overload", "transformer-overload"];
+/** What rules an alternative out across the study: a limit broken, or a case it cannot carry. */
+const STUDY_KINDS: readonly CheckKind[] = [...LIMIT_KINDS, "not-converged"];
 
 /** Run the ladder on an untrusted network document and request; every problem comes back named, none thrown. */
 export function runLadder(document: unknown, requestInput: unknown): LadderOutcome {
@@ -143,8 +171,16 @@ export function runLadder(document: unknown, requestInput: unknown): LadderOutco
   });
   if (issues.length > 0) return { ok: false, issues };
 
+  const studies = solved.map((outcome, i) => {
+    const studied = runStudySync(outcome!.network, { outages: request.outages ?? false, faults: false });
+    if (!studied.ok)
+      issues.push(...studied.issues.map((issue) => ({ path: `voltagesKV[${i}]`, message: `${request.voltagesKV[i]} kV: ${issue.message}` })));
+    return studied.ok ? studied.study : undefined;
+  });
+  if (issues.length > 0) return { ok: false, issues };
+
   const alternatives = solved.map((outcome, i) =>
-    describeAlternative(request.voltagesKV[i], section, outcome!.network, outcome!.result, request.money, request.overrides?.[i]?.capital),
+    describeAlternative(request.voltagesKV[i], section, outcome!.network, outcome!.result, studies[i]!, request.money, request.overrides?.[i]?.capital),
   );
 
   const referenceIndex = alternatives.reduce<number | null>(
@@ -167,6 +203,7 @@ export function runLadder(document: unknown, requestInput: unknown): LadderOutco
     alternatives.map((a) => ({
       loadDependentPeakLossMW: a.lossMW === null ? null : a.lossMW - a.transformerCoreLossMW!,
       coreLossMW: a.transformerCoreLossMW,
+      ...(a.energy.method === "case-hours" ? { energy: annualEnergyOf(a.energy) } : {}),
       capitalCost: a.money.capital.total,
     })),
     request.money,
@@ -179,11 +216,15 @@ export function runLadder(document: unknown, requestInput: unknown): LadderOutco
       section,
       money: request.money,
       alternatives,
-      cheapest: recommend(alternatives, request.money.currency),
+      cheapest: recommend(alternatives, request.money.currency, studies as Study[]),
       sensitivity,
       inverseSquareReference,
     },
   };
+}
+
+function annualEnergyOf(energy: Energy) {
+  return { loadDependentMWh: energy.loadDependentMWh, coreMWh: energy.coreMWh, totalMWh: energy.lossMWhPerYear };
 }
 
 function describeAlternative(
@@ -191,6 +232,7 @@ function describeAlternative(
   section: Section,
   network: Network,
   result: SolveResult,
+  study: Study,
   money: MoneyInput,
   capitalOverride: CapitalOverride | undefined,
 ): LadderAlternative {
@@ -206,7 +248,26 @@ function describeAlternative(
     capitalOverride,
   );
   const ends = new Set(section.endBusIds);
+  const studyChecks = [...study.cases.flatMap((c) => c.checks), ...(study.outages ?? []).flatMap((o) => o.checks)].filter((c) =>
+    STUDY_KINDS.includes(c.kind),
+  );
+  const cases: AlternativeCase[] = study.cases.map((c) => {
+    const voltages = c.loadFlow.converged ? c.loadFlow.buses.map((b) => b.vPu) : [];
+    return {
+      id: c.id,
+      name: c.name,
+      converged: c.loadFlow.converged,
+      lossMW: c.loadFlow.converged ? c.loadFlow.totals.lossMW : null,
+      minVPu: voltages.length ? Math.min(...voltages) : null,
+      maxVPu: voltages.length ? Math.max(...voltages) : null,
+      lostLoadMW: c.lostLoadMW,
+      limitsBroken: c.checks.filter((k) => STUDY_KINDS.includes(k.kind)).length,
+    };
+  });
   const common = {
+    cases,
+    studyChecks,
+    energy: study.energy,
     voltageKV,
     standard: standardVoltage(voltageKV) ?? null,
     predictedSectionLineLossMW: null,
@@ -246,16 +307,18 @@ function describeAlternative(
   const maxVPu = Math.max(...voltages);
   const limitsBroken = result.checks.filter((c) => LIMIT_KINDS.includes(c.kind)).length;
   const breakingBroken = result.checks.filter((c) => c.kind === "breaking-current").length;
-  const losses = lossMoney(lossMW - coreMW, coreMW, money);
+  const losses = study.energy.method === "case-hours" ? energyMoney(annualEnergyOf(study.energy), money) : lossMoney(lossMW - coreMW, coreMW, money);
+  const inCases = casesSentence(study, studyChecks);
   return {
     ...common,
     converged: true,
-    withinLimits: limitsBroken === 0,
+    withinLimits: limitsBroken === 0 && studyChecks.length === 0,
     message:
       `Carries the load at ${voltageKV} kV: losses ${lossMW.toFixed(2)} MW (${flow.totals.lossPct.toFixed(1)} % of generation), ` +
       `bus voltages ${minVPu.toFixed(3)} to ${maxVPu.toFixed(3)} pu, ` +
       (limitsBroken === 0 ? "every voltage and loading within its limit" : `${limitsBroken} voltage or loading limit${limitsBroken > 1 ? "s" : ""} broken`) +
-      (breakingBroken === 0 ? "." : `; fault current above the switchgear's breaking current at ${breakingBroken} bus${breakingBroken > 1 ? "es" : ""}.`),
+      (breakingBroken === 0 ? "" : `; fault current above the switchgear's breaking current at ${breakingBroken} bus${breakingBroken > 1 ? "es" : ""}`) +
+      (inCases ? `; ${inCases}.` : "."),
     lossMW,
     lineLossMW: lossMWOf("line"),
     sectionLineLossMW: lossMWOf("line", (id) => sectionLines.has(id)),
@@ -268,20 +331,76 @@ function describeAlternative(
   };
 }
 
-function recommend(alternatives: readonly LadderAlternative[], currency: string): LadderRecommendation | null {
+/** Where the cases broke limits, in a clause; empty when the network is studied as drawn only and holds. */
+function casesSentence(study: Study, studyChecks: readonly StudyCheck[]): string {
+  if (study.cases.length === 1 && study.cases[0].id === "as-drawn" && !study.outages) return "";
+  const scope = `${study.cases.length} operating case${study.cases.length > 1 ? "s" : ""}${study.outages ? " and every single outage" : ""}`;
+  if (studyChecks.length === 0) return `every limit kept across ${scope}`;
+  const first = studyChecks[0];
+  const name = study.cases.find((c) => c.id === first.case)?.name ?? first.case;
+  return `${studyChecks.length} limit${studyChecks.length > 1 ? "s" : ""} broken across ${scope}, first in "${name}" (${first.element}, ${first.kind})`;
+}
+
+function recommend(alternatives: readonly LadderAlternative[], currency: string, studies: readonly Study[]): LadderRecommendation | null {
   const totals = (keep: (a: LadderAlternative) => boolean) => alternatives.map((a) => (keep(a) ? a.money.totalCost : null));
   const withinLimits = rankByTotalCost(totals((a) => a.withinLimits));
   const index = withinLimits[0] ?? rankByTotalCost(totals(() => true))[0];
   if (index === undefined) return null;
   const chosen = alternatives[index];
   const total = `${Math.round(chosen.money.totalCost!).toLocaleString("en-GB")} ${currency}`;
+  const decidingCase = decidingCaseOf(alternatives, index, studies);
+  const caseName = (id: string) => alternatives[index].cases.find((c) => c.id === id)?.name ?? id;
+  const because =
+    decidingCase === null
+      ? ""
+      : decidingCase.reason === "limits"
+        ? ` The case that decided: "${decidingCase.name}", in which ${decidingCase.cheaperKV} kV, though cheaper, ${
+            decidingCase.check.kind === "not-converged" ? "cannot carry the load" : `breaks a limit at ${decidingCase.check.element} (${decidingCase.check.kind})`
+          }.`
+        : ` The case that decided: "${caseName(decidingCase.id)}", whose losses weigh most in the year's energy (${decidingCase.shareOfEnergyPct.toFixed(0)} % of it).`;
   return {
     index,
     voltageKV: chosen.voltageKV,
     totalCost: chosen.money.totalCost!,
     withinLimits: chosen.withinLimits,
-    note: chosen.withinLimits
-      ? `${chosen.voltageKV} kV has the lowest total cost (${total}, capital plus the present value of losses) of the alternatives that keep every voltage and loading within its limit.`
-      : `No alternative keeps every voltage and loading within its limit; of those that carry the load, ${chosen.voltageKV} kV has the lowest total cost (${total}). Resolve the broken limits before relying on this ranking.`,
+    decidingCase: decidingCase && { id: decidingCase.id, name: decidingCase.name, reason: decidingCase.reason },
+    note:
+      (chosen.withinLimits
+        ? `${chosen.voltageKV} kV has the lowest total cost (${total}, capital plus the present value of losses) of the alternatives that keep every voltage and loading within its limit${chosen.cases.length > 1 ? " in every operating case" : ""}.`
+        : `No alternative keeps every voltage and loading within its limit; of those that carry the load, ${chosen.voltageKV} kV has the lowest total cost (${total}). Resolve the broken limits before relying on this ranking.`) +
+      because,
+  };
+}
+
+type Decider =
+  | { reason: "limits"; id: string; name: string; cheaperKV: number; check: StudyCheck }
+  | { reason: "losses"; id: string; name: string; shareOfEnergyPct: number };
+
+/**
+ * Which case decided the recommendation: among the alternatives cheaper than the chosen one that
+ * were ruled out, the cheapest, and the case of its first broken limit; when nothing cheaper was
+ * ruled out, the case with the largest share of the chosen alternative's energy lost.
+ */
+function decidingCaseOf(alternatives: readonly LadderAlternative[], index: number, studies: readonly Study[]): Decider | null {
+  const chosen = alternatives[index];
+  // An alternative that cannot carry the load has no losses to price; its capital still says whether it was cheaper.
+  const cost = (a: LadderAlternative) => a.money.totalCost ?? a.money.capital.total;
+  const ruledOut = alternatives
+    .filter((a) => a !== chosen && !a.withinLimits && cost(a) < chosen.money.totalCost! && a.studyChecks.length > 0)
+    .sort((a, b) => cost(a) - cost(b));
+  if (chosen.withinLimits && ruledOut.length > 0) {
+    const check = ruledOut[0].studyChecks[0];
+    const name = ruledOut[0].cases.find((c) => c.id === check.case)?.name ?? check.case;
+    return { reason: "limits", id: check.case, name, cheaperKV: ruledOut[0].voltageKV, check };
+  }
+  const byCase = studies[index].energy.byCase.filter((c) => c.lossMWh !== null);
+  if (byCase.length === 0) return null;
+  const heaviest = byCase.reduce((a, b) => (b.lossMWh! > a.lossMWh! ? b : a));
+  const totalMWh = byCase.reduce((sum, c) => sum + c.lossMWh!, 0);
+  return {
+    reason: "losses",
+    id: heaviest.case,
+    name: chosen.cases.find((c) => c.id === heaviest.case)?.name ?? heaviest.case,
+    shareOfEnergyPct: totalMWh > 0 ? (100 * heaviest.lossMWh!) / totalMWh : 0,
   };
 }

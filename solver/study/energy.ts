@@ -26,17 +26,23 @@ export function transformerCoreLossMW(network: Network, loadFlow: LoadFlowResult
 export function energyOf(network: Network, cases: readonly CaseResult[], fallback: LoadFactorInput): Energy {
   const byCase = cases.map((c) => {
     const lossMW = c.loadFlow.converged ? c.loadFlow.totals.lossMW : 0;
+    const coreLossMW = c.loadFlow.converged ? transformerCoreLossMW(network, c.loadFlow) : 0;
     const hoursPerYear = c.hoursPerYear ?? null;
-    return { case: c.id, lossMW, hoursPerYear, lossMWh: hoursPerYear === null ? null : lossMW * hoursPerYear };
+    return { case: c.id, lossMW, coreLossMW, hoursPerYear, lossMWh: hoursPerYear === null ? null : lossMW * hoursPerYear };
   });
   const withHours = byCase.filter((c) => c.hoursPerYear !== null);
-  if (withHours.length > 0)
+  if (withHours.length > 0) {
+    const lossMWhPerYear = withHours.reduce((sum, c) => sum + c.lossMWh!, 0);
+    const coreMWh = withHours.reduce((sum, c) => sum + c.coreLossMW * c.hoursPerYear!, 0);
     return {
       method: "case-hours",
-      lossMWhPerYear: withHours.reduce((sum, c) => sum + c.lossMWh!, 0),
+      lossMWhPerYear,
+      loadDependentMWh: lossMWhPerYear - coreMWh,
+      coreMWh,
       hoursCovered: withHours.reduce((sum, c) => sum + c.hoursPerYear!, 0),
       byCase,
     };
+  }
 
   // The case carrying the most load stands for the peak.
   const peak = cases.reduce<CaseResult | undefined>(
@@ -49,6 +55,8 @@ export function energyOf(network: Network, cases: readonly CaseResult[], fallbac
   return {
     method: "loss-load-factor",
     lossMWhPerYear: energy.totalMWh,
+    loadDependentMWh: energy.loadDependentMWh,
+    coreMWh: energy.coreMWh,
     hoursCovered: HOURS_PER_YEAR,
     byCase,
     peakCase: peak?.id,

@@ -88,6 +88,8 @@ export interface GrowthOutcome {
 export interface CaseEnergy {
   case: string;
   lossMW: number;
+  /** Transformer core loss within lossMW: it runs whatever the load. */
+  coreLossMW: number;
   hoursPerYear: number | null;
   lossMWh: number | null;
 }
@@ -96,6 +98,9 @@ export interface Energy {
   /** "case-hours": Σ case loss × hours; "loss-load-factor": the peak case's loss by the loss load factor. */
   method: "case-hours" | "loss-load-factor";
   lossMWhPerYear: number;
+  /** lossMWhPerYear split into what follows the load (lines, copper) and the transformers' core. */
+  loadDependentMWh: number;
+  coreMWh: number;
   /** Hours of the year the cases stand for (8760 under the loss-load-factor fallback). */
   hoursCovered: number;
   byCase: CaseEnergy[];

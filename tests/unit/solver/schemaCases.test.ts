@@ -3,7 +3,9 @@ import { describe, expect, it } from "vitest";
 import { validateNetwork, type NetworkInput } from "#solver/schema.ts";
 import { fixture } from "./fixtures.ts";
 
-const tarn = fixture("tarn-head-calder-flats.json").document as NetworkInput;
+// The demo as a version 1 file: its drawing without the cases it ships with.
+const { cases: _cases, growth: _growth, ...drawing } = fixture("tarn-head-calder-flats.json").document as NetworkInput;
+const tarn: NetworkInput = { ...drawing, version: 1 };
 
 function withCases(edit: (doc: NetworkInput) => void): NetworkInput {
   const doc = structuredClone(tarn);
