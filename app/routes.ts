@@ -10,6 +10,7 @@ export default [
   route("account/notifications", "routes/auth/notifications.ts"),
   route("forgot-password", "routes/auth/forgot-password.tsx"),
   route("reset-password", "routes/auth/reset-password.tsx"),
+  route("verify-email", "routes/auth/verify-email.tsx"),
   route("invitations/:token", "routes/teams/invitation.tsx"),
   route("s/:token", "routes/share/shared-network.tsx"),
   // The study report's own module, also reached through a view link (networkReader.server.ts).

@@ -34,6 +34,8 @@ export async function completePasswordReset(db: Db, resetId: number, passwordHas
       .executeTakeFirst();
     if (!taken) return null;
     await trx.updateTable("users").set({ password_hash: passwordHash }).where("id", "=", taken.user_id).execute();
+    // The link reached the account's address, so the address is proven.
+    await trx.updateTable("users").set({ email_verified_at: now.toISOString() }).where("id", "=", taken.user_id).where("email_verified_at", "is", null).execute();
     await trx.deleteFrom("sessions").where("user_id", "=", taken.user_id).execute();
     await trx
       .updateTable("password_resets")

@@ -14,6 +14,8 @@ export interface UsersTable {
   name: string;
   password_hash: string;
   created_at: Timestamp;
+  /** When a link mailed to the address was opened; null until then. */
+  email_verified_at: Timestamp | null;
 }
 
 export interface SessionsTable {
@@ -172,6 +174,17 @@ export interface PasswordResetsTable {
   used_at: Timestamp | null;
 }
 
+export interface EmailVerificationsTable {
+  id: Generated<number>;
+  user_id: number;
+  /** The address the link was sent to: a later change of address voids the link. */
+  email: string;
+  token_hash: string;
+  created_at: Timestamp;
+  expires_at: Timestamp;
+  used_at: Timestamp | null;
+}
+
 export interface ReviewThreadsTable {
   id: Generated<number>;
   network_id: number;
@@ -231,6 +244,7 @@ export interface Database {
   network_grants: NetworkGrantsTable;
   team_invitations: TeamInvitationsTable;
   password_resets: PasswordResetsTable;
+  email_verifications: EmailVerificationsTable;
   review_threads: ReviewThreadsTable;
   review_notes: ReviewNotesTable;
   user_settings: UserSettingsTable;

@@ -190,3 +190,23 @@ export async function listGrantedNetworks(db: Db, userId: number, now = new Date
   }
   return [...strongest.values()];
 }
+
+/** Ends a person's grants on every network of the team (they left it or were removed). */
+export async function deleteGrantsOnTeamNetworks(db: Db, teamId: number, userId: number): Promise<void> {
+  await db
+    .deleteFrom("network_grants")
+    .where("user_id", "=", userId)
+    .where("network_id", "in", (eb) => eb.selectFrom("networks").select("id").where("team_id", "=", teamId))
+    .execute();
+}
+
+/** Revokes every link of the network still unrevoked; how many. */
+export async function revokeLinksOfNetwork(db: Db, networkId: number, userId: number, now: Date): Promise<number> {
+  const result = await db
+    .updateTable("share_links")
+    .set({ revoked_at: now.toISOString(), revoked_by: userId })
+    .where("network_id", "=", networkId)
+    .where("revoked_at", "is", null)
+    .executeTakeFirst();
+  return Number(result.numUpdatedRows);
+}

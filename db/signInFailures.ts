@@ -1,36 +1,39 @@
 import type { Db } from "./database.ts";
 
-export async function recordSignInFailure(db: Db, account: string, address: string | null, now = new Date()) {
-  await db
+/** Returns the new row's id. */
+export async function recordSignInFailure(db: Db, account: string, address: string | null, now = new Date()): Promise<number> {
+  const row = await db
     .insertInto("sign_in_failures")
     .values({ account, address, failed_at: now.toISOString() })
-    .execute();
+    .returning("id")
+    .executeTakeFirstOrThrow();
+  return row.id;
 }
 
-/** Failures since `since` for the account and, when known, for the client address. */
-export async function countSignInFailures(
-  db: Db,
-  account: string,
-  address: string | null,
-  since: Date,
-): Promise<{ forAccount: number; forAddress: number }> {
-  const sinceIso = since.toISOString();
-  const forAccount = await db
+interface Tally {
+  failures: number;
+  /** The latest failure's time, or null when there is none. */
+  latest: string | null;
+}
+
+async function tally(db: Db, since: Date, where: { account?: string; address?: string | null }): Promise<Tally> {
+  let query = db
     .selectFrom("sign_in_failures")
-    .select((eb) => eb.fn.countAll<number>().as("n"))
-    .where("account", "=", account)
-    .where("failed_at", ">", sinceIso)
-    .executeTakeFirstOrThrow();
-  const forAddress =
-    address === null
-      ? { n: 0 }
-      : await db
-          .selectFrom("sign_in_failures")
-          .select((eb) => eb.fn.countAll<number>().as("n"))
-          .where("address", "=", address)
-          .where("failed_at", ">", sinceIso)
-          .executeTakeFirstOrThrow();
-  return { forAccount: Number(forAccount.n), forAddress: Number(forAddress.n) };
+    .select((eb) => [eb.fn.countAll<number>().as("n"), eb.fn.max("failed_at").as("latest")])
+    .where("failed_at", ">", since.toISOString());
+  if (where.account !== undefined) query = query.where("account", "=", where.account);
+  if (where.address !== undefined) query = query.where("address", where.address === null ? "is" : "=", where.address);
+  const row = await query.executeTakeFirstOrThrow();
+  return { failures: Number(row.n), latest: (row.latest as string | null) ?? null };
+}
+
+/** Failures since `since`: for the account from the address, for the address, for the account. */
+export async function recentSignInFailures(db: Db, account: string, address: string | null, since: Date) {
+  return {
+    accountFromAddress: await tally(db, since, { account, address }),
+    address: address === null ? { failures: 0, latest: null } : await tally(db, since, { address }),
+    account: await tally(db, since, { account }),
+  };
 }
 
 export async function clearSignInFailures(db: Db, account: string) {

@@ -12,7 +12,7 @@ export async function findUserByEmail(db: Db, email: string): Promise<User | und
 
 export async function insertUser(
   db: Db,
-  user: { email: string; name: string; passwordHash: string },
+  user: { email: string; name: string; passwordHash: string; emailVerifiedAt?: string | null },
 ): Promise<User> {
   return db
     .insertInto("users")
@@ -21,7 +21,18 @@ export async function insertUser(
       name: user.name.trim(),
       password_hash: user.passwordHash,
       created_at: new Date().toISOString(),
+      email_verified_at: user.emailVerifiedAt ?? null,
     })
     .returningAll()
     .executeTakeFirstOrThrow();
+}
+
+export async function markEmailVerified(db: Db, userId: number, email: string, now: Date): Promise<void> {
+  await db
+    .updateTable("users")
+    .set({ email_verified_at: now.toISOString() })
+    .where("id", "=", userId)
+    .where("email", "=", normalizeEmail(email))
+    .where("email_verified_at", "is", null)
+    .execute();
 }

@@ -152,6 +152,10 @@ export function RecentlyDeleted({ networks }: { networks: DeletedNetworkRow[] })
                   <Form method="post">
                     <input type="hidden" name="intent" value="restore" />
                     <input type="hidden" name="networkId" value={n.id} />
+                    <label className="mr-3 inline-flex items-center gap-1 text-sm">
+                      <input type="checkbox" name="reviveLinks" aria-label={`Open the share links of ${n.name} again`} />
+                      open its share links again
+                    </label>
                     <button type="submit" className="btn btn-small" aria-label={`Restore ${n.name}`}>
                       Restore
                     </button>

@@ -1,7 +1,7 @@
 // zod schemas for the free-text fields that several forms and the API share: names of networks
 // and teams, review notes and messages. Each states its limit and its sentences once, so the page
-// (maxLength), the action and the API refuse alike. (E-mail addresses and passwords live with the
-// account forms.)
+// (maxLength), the action and the API refuse alike; e-mail addresses and passwords likewise for
+// every account form (sign-in, sign-up, invitations, review requests, resets).
 import { z } from "zod";
 
 export const NETWORK_NAME_MAX = 200;
@@ -9,6 +9,19 @@ export const TEAM_NAME_MAX = 100;
 export const NOTE_BODY_MAX = 4000;
 export const REVISION_MESSAGE_MAX = 500;
 export const REVIEW_MESSAGE_MAX = 2000;
+export const MIN_PASSWORD_LENGTH = 10;
+export const MAX_PASSWORD_LENGTH = 200;
+
+/** An e-mail address, trimmed; `missing` is the sentence for an empty field (whose address?). */
+export function emailSchema(missing = "Enter your e-mail address.") {
+  return z.string({ error: missing }).trim().min(1, missing).pipe(z.email("Enter an e-mail address such as ada@example.org."));
+}
+
+/** A new password: long enough to resist guessing, short enough that hashing it stays cheap. */
+export const chosenPasswordSchema = z
+  .string({ error: `Choose a password of at least ${MIN_PASSWORD_LENGTH} characters.` })
+  .min(MIN_PASSWORD_LENGTH, `Choose a password of at least ${MIN_PASSWORD_LENGTH} characters.`)
+  .max(MAX_PASSWORD_LENGTH, `A password may have at most ${MAX_PASSWORD_LENGTH} characters.`);
 
 const networkNameTooLong = `A name may have at most ${NETWORK_NAME_MAX} characters.`;
 

@@ -1,9 +1,10 @@
 // zod schemas for the forms, shared by the page (what the fields require) and the action (checking).
 import { z } from "zod";
+import { chosenPasswordSchema, emailSchema } from "./fieldSchemas.ts";
 
-export const MIN_PASSWORD_LENGTH = 10;
+export { MIN_PASSWORD_LENGTH } from "./fieldSchemas.ts";
 
-const email = z.string().trim().min(1, "Enter your e-mail address.").pipe(z.email("Enter an e-mail address such as ada@example.org."));
+const email = emailSchema();
 
 export const signInSchema = z.object({
   email,
@@ -13,10 +14,7 @@ export const signInSchema = z.object({
 export const signUpSchema = z.object({
   name: z.string().trim().min(1, "Enter your name.").max(100, "A name may have at most 100 characters."),
   email,
-  password: z
-    .string()
-    .min(MIN_PASSWORD_LENGTH, `Choose a password of at least ${MIN_PASSWORD_LENGTH} characters.`)
-    .max(200, "A password may have at most 200 characters."),
+  password: chosenPasswordSchema,
 });
 
 /** Field name → first message, for showing each error beside its field. */

@@ -7,8 +7,9 @@ import { insertAuditEvent } from "#db/auditEvents.ts";
 import { deleteInvitation, findInvitationByHash, insertInvitation, revokeInvitation, takeInvitation } from "#db/invitations.ts";
 import type { Team, TeamInvitationRow, TeamRole, User } from "#db/schema.ts";
 import { findRole, findTeam, insertMembership } from "#db/teams.ts";
-import { normalizeEmail } from "#db/users.ts";
+import { markEmailVerified, normalizeEmail } from "#db/users.ts";
 import { publicUrl } from "./env.server.ts";
+import { emailSchema } from "./fieldSchemas.ts";
 import { MailUnavailable, PERSONAL_MAIL_LIMIT_MESSAGE, sendMail, spendPersonalMailAllowance } from "./mail.server.ts";
 import { invitationMail } from "./mailMessages.ts";
 import { daysFrom, hashSecretToken, looksLikeSecretToken, newSecretToken, secretState } from "./secretTokens.server.ts";
@@ -16,7 +17,7 @@ import { daysFrom, hashSecretToken, looksLikeSecretToken, newSecretToken, secret
 export const INVITATION_DAYS = 7;
 
 export const invitationFormSchema = z.object({
-  email: z.string().trim().min(1, "Enter the e-mail address to invite.").pipe(z.email("Enter an e-mail address such as ada@example.org.")),
+  email: emailSchema("Enter the e-mail address to invite."),
   role: z.enum(["owner", "editor", "viewer"], { error: "Choose owner, editor or viewer." }),
 });
 
@@ -110,6 +111,8 @@ export async function acceptInvitation(
     if (!(await takeInvitation(trx, input.invitation.id, input.user.id, now))) {
       return { ok: false, error: "This invitation has just been used, revoked or has expired; ask the team's owner for a new one." };
     }
+    // The link reached this address, so the address is proven.
+    await markEmailVerified(trx, input.user.id, input.user.email, now);
     const current = await findRole(trx, input.team.id, input.user.id);
     if (current) return { ok: true, message: `You were already a member of ${input.team.name} as ${current}.` };
     await insertMembership(trx, input.team.id, input.user.id, input.invitation.role);

@@ -97,3 +97,12 @@ export function reviewNoteMail(input: {
     "You get these because you own this network's team. Turn them off on your account page.",
   ]);
 }
+
+export function emailVerificationMail(input: { name: string; verifyUrl: string; validDays: number }): MailContent {
+  return compose("Confirm your e-mail address for Kilostep", [
+    `Hello ${input.name},`,
+    "Open this link to confirm that this address is yours. Team owners can then add you to their teams by it:",
+    input.verifyUrl,
+    `The link works once, for ${input.validDays} days. If you did not make a Kilostep account, ignore this message.`,
+  ]);
+}

@@ -4,6 +4,7 @@ import type { Db } from "#db/database.ts";
 import { appendRevision, insertNetwork, markNetworkDeleted, readRevision, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";
 import { findTeam } from "#db/teams.ts";
+import { revokeLinksOfNetwork } from "#db/shareLinks.ts";
 import { auditNetworkDeletion } from "./audit.server.ts";
 import { networkNameSchema } from "./fieldSchemas.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
@@ -110,9 +111,19 @@ export async function deleteNetwork(db: Db, input: { network: NetworkRow; by: Us
   return { restorableUntil: new Date(deletedAt.getTime() + RESTORE_WINDOW_DAYS * 86_400_000).toISOString() };
 }
 
-/** Undo a deletion within its window, with its audit line; false when it is not deleted or too late. */
-export async function restoreDeletedNetwork(db: Db, input: { network: NetworkRow; by: User }): Promise<boolean> {
-  if (!(await restoreNetwork(db, input.network.id))) return false;
+/**
+ * Undo a deletion within its window, with its audit line; false when it is not deleted or too late.
+ * The network's share links open again only when the person restoring says so (`reviveLinks`):
+ * otherwise they are revoked, so a restore never silently hands access back to old link holders.
+ */
+export async function restoreDeletedNetwork(db: Db, input: { network: NetworkRow; by: User; reviveLinks: boolean; now?: Date }): Promise<boolean> {
+  const now = input.now ?? new Date();
+  const restored = await db.transaction().execute(async (trx) => {
+    if (!(await restoreNetwork(trx, input.network.id, now))) return false;
+    if (!input.reviveLinks) await revokeLinksOfNetwork(trx, input.network.id, input.by.id, now);
+    return true;
+  });
+  if (!restored) return false;
   await auditNetworkDeletion(db, { network: input.network, by: input.by, restored: true });
   return true;
 }

@@ -1,8 +1,9 @@
-import bcrypt from "bcryptjs";
+// Password hashes: bcrypt at cost 12 (tests may lower it), computed off the main thread.
 import { env } from "./env.server.ts";
+import { bcryptCompare, bcryptHash } from "./passwordHashing.server.ts";
 
 export function hashPassword(password: string): Promise<string> {
-  return bcrypt.hash(password, env.passwordHashCost);
+  return bcryptHash(password, env.passwordHashCost);
 }
 
 // Compared against when the account does not exist, so that a wrong e-mail costs as much time
@@ -11,9 +12,9 @@ let unknownAccountHash: Promise<string> | undefined;
 
 export async function verifyPassword(password: string, hash: string | undefined): Promise<boolean> {
   if (hash === undefined) {
-    unknownAccountHash ??= bcrypt.hash("no account has this password", env.passwordHashCost);
-    await bcrypt.compare(password, await unknownAccountHash);
+    unknownAccountHash ??= bcryptHash("no account has this password", env.passwordHashCost);
+    await bcryptCompare(password, await unknownAccountHash);
     return false;
   }
-  return bcrypt.compare(password, hash);
+  return bcryptCompare(password, hash);
 }

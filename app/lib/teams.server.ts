@@ -3,6 +3,7 @@
 import type { Db } from "#db/database.ts";
 import type { Team, TeamRole } from "#db/schema.ts";
 import { countOwners, deleteMembership, findRole, insertMembership, insertTeamWithOwner, membersOf, teamsOfUser, updateRole } from "#db/teams.ts";
+import { deleteGrantsOnTeamNetworks } from "#db/shareLinks.ts";
 import { findUserByEmail } from "#db/users.ts";
 import { firstIssue, teamNameSchema } from "./fieldSchemas.ts";
 
@@ -23,6 +24,13 @@ export async function addMemberByEmail(db: Db, teamId: number, email: string, ro
     return {
       ok: false,
       error: `No Kilostep account uses ${email.trim()}. Ask them to sign up first, then add them here.`,
+    };
+  }
+  // Anyone can sign up with an address that is not theirs; only a proven one is taken at its word.
+  if (user.email_verified_at === null) {
+    return {
+      ok: false,
+      error: `The account for ${user.email} has not confirmed its address yet. Send an invitation instead: its link proves the address.`,
     };
   }
   return db.transaction().execute(async (trx) => {
@@ -51,6 +59,9 @@ export async function removeMember(db: Db, teamId: number, userId: number): Prom
     if (current === "owner" && (await countOwners(trx, teamId)) === 1)
       return { ok: false, error: "The team's last owner cannot leave or be removed; make someone else owner first." };
     await deleteMembership(trx, teamId, userId);
+    // Access given by the team's share links while a member ends with the membership; a link
+    // still live can be opened again, and shows on the Share page to revoke.
+    await deleteGrantsOnTeamNetworks(trx, teamId, userId);
     return { ok: true, message: "Removed from the team." };
   });
 }

@@ -1,10 +1,13 @@
-import { Form, Link } from "react-router";
+import { data, Form, Link, useActionData } from "react-router";
 import type { Route } from "./+types/account";
 import { ApiTokensPanel } from "#app/components/ApiTokensPanel.tsx";
+import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { NoteMailSetting } from "#app/components/review/NoteMailSetting.tsx";
 import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
+import { sendEmailVerification } from "#app/lib/emailVerification.server.ts";
+import { mailAvailable } from "#app/lib/mail.server.ts";
 import { formatDate } from "#app/lib/format.ts";
 import { listApiTokens } from "#db/apiTokens.ts";
 import { teamsOfUser } from "#db/teams.ts";
@@ -20,11 +23,24 @@ export async function loader({ request }: Route.LoaderArgs) {
     listApiTokens(db, user.id),
     reviewNoteMailSetting(db, user.id),
   ]);
-  return { name: user.name, email: user.email, since: user.created_at, teams, tokens, reviewNoteMail };
+  return { name: user.name, email: user.email, verified: user.email_verified_at !== null, since: user.created_at, teams, tokens, reviewNoteMail };
+}
+
+/** The one write here: mail a new link that confirms the account's address. */
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireUser(request);
+  if ((await request.formData()).get("intent") !== "send-verification")
+    return data({ ok: false, message: "Unknown request: the form named no known action." }, { status: 400 });
+  if (user.email_verified_at !== null) return { ok: true, message: "Your address is confirmed already." };
+  if (!mailAvailable()) return data({ ok: false, message: "E-mail is not set up on this server, so no link can be sent." }, { status: 503 });
+  if (!(await sendEmailVerification(await getDb(), user)))
+    return data({ ok: false, message: "Three links have gone out in the last hour; open the newest, or try again later." }, { status: 429 });
+  return { ok: true, message: `A link to confirm ${user.email} is on its way.` };
 }
 
 export default function Account({ loaderData }: Route.ComponentProps) {
-  const { name, email, since, teams, tokens, reviewNoteMail } = loaderData;
+  const { name, email, verified, since, teams, tokens, reviewNoteMail } = loaderData;
+  const sent = useActionData<typeof action>();
   return (
     <>
       <PageTitle title="Account" lead={`Signed in as ${email}.`} />
@@ -37,10 +53,22 @@ export default function Account({ loaderData }: Route.ComponentProps) {
             <dt className="text-ink-muted">Name</dt>
             <dd>{name}</dd>
             <dt className="text-ink-muted">E-mail</dt>
-            <dd>{email}</dd>
+            <dd>
+              {email} {verified ? <span className="text-sm text-ink-muted">(confirmed)</span> : <span className="text-sm">(not confirmed yet)</span>}
+            </dd>
             <dt className="text-ink-muted">Member since</dt>
             <dd>{formatDate(since)}</dd>
           </dl>
+          {verified ? null : (
+            <Form method="post" className="mt-4">
+              <input type="hidden" name="intent" value="send-verification" />
+              <p className="text-sm text-ink-soft">Team owners can add you by your address once you have confirmed it.</p>
+              <button type="submit" className="btn btn-small mt-2">
+                Send a link to confirm it
+              </button>
+            </Form>
+          )}
+          {sent ? <Notice tone={sent.ok ? "ok" : "error"}>{sent.message}</Notice> : null}
           <Form method="post" action="/sign-out" className="mt-6">
             <button type="submit" className="btn">
               Sign out

@@ -8,13 +8,8 @@ import { fieldErrors, formFields, signInSchema } from "#app/lib/forms.ts";
 import { safeRedirect } from "#app/lib/redirect.ts";
 import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 import { startSession } from "#app/lib/session.server.ts";
-import {
-  clientAddress,
-  isSignInThrottled,
-  noteSignInFailure,
-  noteSignInSuccess,
-  THROTTLED_MESSAGE,
-} from "#app/lib/signInThrottle.server.ts";
+import { clientAddressOf } from "#app/lib/clientAddress.server.ts";
+import { beginSignInAttempt, isKnownBrowser, rememberBrowser, signInFailed, signInSucceeded, throttledMessage } from "#app/lib/signInThrottle.server.ts";
 import { normalizeEmail } from "#db/users.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Kilostep" }];
@@ -25,7 +20,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   return { redirectTo };
 }
 
-export async function action({ request }: Route.ActionArgs) {
+export async function action({ request, context }: Route.ActionArgs) {
   guardPageRequest(request);
   // The form strategy reads the body itself, so read a clone here and leave the original unread.
   const form = await request.clone().formData();
@@ -37,18 +32,29 @@ export async function action({ request }: Route.ActionArgs) {
 
   const db = await getDb();
   const account = normalizeEmail(parsed.data.email);
-  const address = clientAddress(request);
-  if (await isSignInThrottled(db, account, address)) {
-    return data({ fieldErrors: {}, formError: THROTTLED_MESSAGE }, { status: 429 });
+  // Counted before the password is checked, so parallel guesses cannot pass the limit together.
+  const verdict = await beginSignInAttempt(db, {
+    account,
+    address: clientAddressOf(context),
+    knownBrowser: await isKnownBrowser(request, account),
+  });
+  if (!verdict.allowed) {
+    return data(
+      { fieldErrors: {}, formError: throttledMessage(verdict.retryAfterSeconds) },
+      { status: 429, headers: { "Retry-After": String(verdict.retryAfterSeconds) } },
+    );
   }
 
   try {
     const user = await authenticator.authenticate("form", request);
-    await noteSignInSuccess(db, account);
-    return redirect(redirectTo, { headers: { "Set-Cookie": await startSession(user.id) } });
+    await signInSucceeded(db, account);
+    const headers = new Headers();
+    headers.append("Set-Cookie", await startSession(user.id));
+    headers.append("Set-Cookie", await rememberBrowser(request, account));
+    return redirect(redirectTo, { headers });
   } catch (error) {
     if (!(error instanceof InvalidCredentials)) throw error;
-    await noteSignInFailure(db, account, address);
+    await signInFailed(db);
     return data({ fieldErrors: {}, formError: error.message }, { status: 400 });
   }
 }

@@ -1,19 +1,18 @@
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/sign-up";
 import { FormField } from "#app/components/FormField.tsx";
+import { Notice } from "#app/components/Notice.tsx";
+import { createAccount, DUPLICATE_EMAIL, signUpWait, signUpWaitMessage } from "#app/lib/accounts.server.ts";
 import { redirectIfSignedIn } from "#app/lib/auth.server.ts";
+import { clientAddressOf } from "#app/lib/clientAddress.server.ts";
+import { sendEmailVerification } from "#app/lib/emailVerification.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields, MIN_PASSWORD_LENGTH, signUpSchema } from "#app/lib/forms.ts";
-import { hashPassword } from "#app/lib/password.server.ts";
 import { safeRedirect } from "#app/lib/redirect.ts";
 import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 import { startSession } from "#app/lib/session.server.ts";
-import { insertTeamWithOwner } from "#db/teams.ts";
-import { findUserByEmail, insertUser } from "#db/users.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Create an account · Kilostep" }];
-
-const DUPLICATE_EMAIL = "An account with this e-mail already exists. Sign in instead, or use another address.";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const redirectTo = safeRedirect(new URL(request.url).searchParams.get("redirectTo"));
@@ -21,7 +20,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   return { redirectTo };
 }
 
-export async function action({ request }: Route.ActionArgs) {
+export async function action({ request, context }: Route.ActionArgs) {
   guardPageRequest(request);
   const form = await request.formData();
   const redirectTo = safeRedirect(form.get("redirectTo"));
@@ -29,20 +28,13 @@ export async function action({ request }: Route.ActionArgs) {
   if (!parsed.success) return data({ fieldErrors: fieldErrors(parsed.error) }, { status: 400 });
   const { name, email, password } = parsed.data;
 
-  const db = await getDb();
-  if (await findUserByEmail(db, email)) return data({ fieldErrors: { email: DUPLICATE_EMAIL } }, { status: 400 });
+  const wait = signUpWait(clientAddressOf(context));
+  if (wait !== null) return data({ fieldErrors: { form: signUpWaitMessage(wait) } }, { status: 429, headers: { "Retry-After": String(wait) } });
 
-  const passwordHash = await hashPassword(password);
-  // The account and its own team are made together: a new user can create a network at once.
-  const user = await db
-    .transaction()
-    .execute(async (trx) => {
-      if (await findUserByEmail(trx, email)) return null;
-      const created = await insertUser(trx, { email, name, passwordHash });
-      await insertTeamWithOwner(trx, `${name}'s team`, created.id);
-      return created;
-    });
+  const db = await getDb();
+  const user = await createAccount(db, { name, email, password, emailVerified: false });
   if (!user) return data({ fieldErrors: { email: DUPLICATE_EMAIL } }, { status: 400 });
+  await sendEmailVerification(db, user);
 
   return redirect(redirectTo, { headers: { "Set-Cookie": await startSession(user.id) } });
 }
@@ -59,6 +51,7 @@ export default function SignUp({ loaderData, actionData }: Route.ComponentProps)
         <p className="mt-1 text-ink-soft">You get a team of your own at once; invite colleagues to it later.</p>
         <Form method="post" className="mt-6 space-y-4" noValidate>
           <input type="hidden" name="redirectTo" value={loaderData.redirectTo} />
+          {errors.form ? <Notice tone="error">{errors.form}</Notice> : null}
           <FormField label="Name" name="name" autoComplete="name" required error={errors.name} />
           <FormField label="E-mail" name="email" type="email" autoComplete="email" required error={errors.email} />
           <FormField

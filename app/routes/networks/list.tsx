@@ -79,7 +79,7 @@ export async function action({ request }: Route.ActionArgs) {
   }
   if (intent === "restore") {
     const { db, network } = await networkOfUser(user, networkId, "restore");
-    if (!(await restoreDeletedNetwork(db, { network, by: user }))) return fail(`"${network.name}" is not deleted, or its 30 days have passed.`, 409);
+    if (!(await restoreDeletedNetwork(db, { network, by: user, reviveLinks: form.get("reviveLinks") === "on" }))) return fail(`"${network.name}" is not deleted, or its 30 days have passed.`, 409);
     return data<ActionResult>({ ok: true, message: `Restored "${network.name}".`, networkId });
   }
   return fail("Unknown request: the form named no known action.");

@@ -8,7 +8,7 @@ import { PageTitle } from "#app/components/PageTitle.tsx";
 import { CopyLink, ShareLinkList } from "#app/components/review/ShareLinks.tsx";
 import { requireNetwork } from "#app/lib/access.server.ts";
 import { parseId } from "#app/lib/api.server.ts";
-import { reviewMessageSchema } from "#app/lib/fieldSchemas.ts";
+import { emailSchema, reviewMessageSchema } from "#app/lib/fieldSchemas.ts";
 import { formFields } from "#app/lib/forms.ts";
 import { MailUnavailable, mailAvailable, PERSONAL_MAIL_LIMIT_MESSAGE, sendMail, spendPersonalMailAllowance } from "#app/lib/mail.server.ts";
 import { reviewRequestMail } from "#app/lib/mailMessages.ts";
@@ -35,7 +35,7 @@ function shareRequestFrom(form: FormData) {
 }
 
 const reviewerSchema = z.object({
-  email: z.string().trim().min(1, "Enter the reviewer's e-mail address.").pipe(z.email("Enter an e-mail address such as ada@example.org.")),
+  email: emailSchema("Enter the reviewer's e-mail address."),
   message: reviewMessageSchema.default(""),
 });
 

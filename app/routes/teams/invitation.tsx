@@ -6,14 +6,14 @@ import type { Route } from "./+types/invitation";
 import { FormField } from "#app/components/FormField.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
+import { createAccount, signUpWait, signUpWaitMessage } from "#app/lib/accounts.server.ts";
+import { clientAddressOf } from "#app/lib/clientAddress.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields, MIN_PASSWORD_LENGTH, signUpSchema } from "#app/lib/forms.ts";
 import { acceptInvitation, openInvitation, type OpenedInvitation } from "#app/lib/invitations.server.ts";
-import { hashPassword } from "#app/lib/password.server.ts";
 import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 import { getSessionUser, startSession } from "#app/lib/session.server.ts";
-import { insertTeamWithOwner } from "#db/teams.ts";
-import { findUserByEmail, insertUser } from "#db/users.ts";
+import { findUserByEmail } from "#db/users.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Team invitation · Kilostep" }, { name: "robots", content: "noindex" }];
 
@@ -42,7 +42,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
+export async function action({ request, params, context }: Route.ActionArgs) {
   guardPageRequest(request);
   const db = await getDb();
   const opened = await openInvitation(db, params.token);
@@ -56,13 +56,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     // The address comes from the invitation, not the form: holding the link shows it is theirs.
     const parsed = signUpSchema.safeParse({ ...formFields(form), email: invitation.email });
     if (!parsed.success) return data({ error: null, fieldErrors: fieldErrors(parsed.error) }, { status: 400 });
-    const passwordHash = await hashPassword(parsed.data.password);
-    user = await db.transaction().execute(async (trx) => {
-      if (await findUserByEmail(trx, invitation.email)) return null;
-      const created = await insertUser(trx, { email: invitation.email, name: parsed.data.name, passwordHash });
-      await insertTeamWithOwner(trx, `${parsed.data.name}'s team`, created.id);
-      return created;
-    });
+    const wait = signUpWait(clientAddressOf(context));
+    if (wait !== null) return data({ error: signUpWaitMessage(wait), fieldErrors: {} }, { status: 429 });
+    // Holding a link mailed to the address proves it.
+    user = await createAccount(db, { name: parsed.data.name, email: invitation.email, password: parsed.data.password, emailVerified: true });
     if (!user) return data({ error: `An account with ${invitation.email} exists already: sign in, then open the link again.`, fieldErrors: {} }, { status: 400 });
     setCookie = await startSession(user.id);
   }

@@ -86,8 +86,8 @@ describe("deleting and restoring a network", () => {
     const now = new Date("2026-12-02T10:00:00Z");
     const { restorableUntil } = await deleteNetwork(w.db, { network: w.network, by: w.owner, now });
     expect(restorableUntil).toBe("2027-01-01T10:00:00.000Z"); // 30 days later, the restore window
-    expect(await restoreDeletedNetwork(w.db, { network: w.network, by: w.owner })).toBe(true);
-    expect(await restoreDeletedNetwork(w.db, { network: w.network, by: w.owner })).toBe(false);
+    expect(await restoreDeletedNetwork(w.db, { network: w.network, by: w.owner, reviveLinks: true })).toBe(true);
+    expect(await restoreDeletedNetwork(w.db, { network: w.network, by: w.owner, reviveLinks: true })).toBe(false);
     const kinds = (await listAuditEvents(w.db, w.team.id)).map((e) => e.kind);
     expect(kinds.filter((k) => k === "network-deleted")).toHaveLength(1);
     expect(kinds.filter((k) => k === "network-restored")).toHaveLength(1);

@@ -93,6 +93,8 @@ const CASES: Case[] = [
 
   // Account
   { route: "account", method: "GET", path: "/account", expect: signedIn(200, 302) },
+  { route: "account", method: "POST", path: "/account", body: { form: { intent: "unknown" } }, expect: signedIn(400, 302) },
+  { route: "verify-email", method: "GET", path: "/verify-email?token={token}", expect: everyone(410) },
   { route: "account/notifications", method: "POST", path: "/account/notifications", body: { form: { reviewNoteMail: "each" } }, expect: signedIn(200, 302) },
   { route: "account/tokens", method: "GET", path: "/account/tokens", expect: everyone(302) },
   { route: "account/tokens", method: "POST", path: "/account/tokens", body: { form: { intent: "revoke", tokenId: "987654" } }, expect: signedIn(404, 302) },

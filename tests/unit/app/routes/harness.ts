@@ -72,7 +72,12 @@ export async function makeUser(name: string, options: { password?: string; ownTe
   counter++;
   const db = await getDb();
   const email = `${name.toLowerCase().replace(/\W+/g, ".")}.${counter}@example.org`;
-  const user = await insertUser(db, { email, name, passwordHash: await hashPassword(options.password ?? "long enough password") });
+  const user = await insertUser(db, {
+    email,
+    name,
+    passwordHash: await hashPassword(options.password ?? "long enough password"),
+    emailVerifiedAt: new Date().toISOString(),
+  });
   if (options.ownTeam) await db.transaction().execute((trx) => insertTeamWithOwner(trx, `${name}'s team`, user.id));
   return user;
 }
