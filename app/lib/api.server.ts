@@ -2,8 +2,20 @@
 // throws anything but a 400 with a sentence.
 import type { ValidationIssue } from "#solver/schema.ts";
 
+/** Problems listed in one answer; a document with more gets the first ones and the count of all. */
+export const ISSUES_LISTED_MAX = 100;
+
 export function apiError(status: number, error: string, issues?: ValidationIssue[]): Response {
-  return Response.json(issues ? { error, issues } : { error }, { status });
+  if (!issues) return Response.json({ error }, { status });
+  if (issues.length <= ISSUES_LISTED_MAX) return Response.json({ error, issues }, { status });
+  return Response.json(
+    {
+      error: `${error} It has ${issues.length.toLocaleString("en")} problems; the first ${ISSUES_LISTED_MAX} are listed.`,
+      issues: issues.slice(0, ISSUES_LISTED_MAX),
+      issueCount: issues.length,
+    },
+    { status },
+  );
 }
 
 /** The request body as JSON, or a thrown 400 that says why it is not. */

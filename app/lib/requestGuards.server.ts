@@ -49,9 +49,32 @@ function writeRefusal(request: Request): Refusal | null {
   return bodySizeRefusal(request);
 }
 
+/** Page actions that read JSON (the ladder page's fetcher); every other page action reads a form. */
+const JSON_PAGE_ACTIONS = [/^\/networks\/[^/]+\/ladder(\.data)?\/?$/];
+const FORM_TYPES = ["application/x-www-form-urlencoded", "multipart/form-data"];
+
+/**
+ * A page write must be a POST carrying what its action reads (a form, or JSON where the page sends
+ * JSON); anything else would fail in the action's reading of the body, so it is refused in words.
+ */
+function pageBodyRefusal(request: Request): Refusal | null {
+  const method = request.method.toUpperCase();
+  if (method === "GET" || method === "HEAD") return null;
+  if (method !== "POST")
+    return { status: 405, error: `Pages take changes by POST only, not ${method}. Scripts use the HTTP API (see /docs/api).`, headers: { Allow: "GET, POST" } };
+  const type = (request.headers.get("Content-Type") ?? "").split(";")[0].trim().toLowerCase();
+  const wantsJson = JSON_PAGE_ACTIONS.some((pattern) => pattern.test(new URL(request.url).pathname));
+  const accepted = wantsJson ? ["application/json"] : FORM_TYPES;
+  if (accepted.includes(type)) return null;
+  return {
+    status: 415,
+    error: `This page takes ${wantsJson ? "JSON (application/json)" : "a form (application/x-www-form-urlencoded or multipart/form-data)"}, and the request sent ${type ? type : "no Content-Type"}.`,
+  };
+}
+
 /** For pages and their forms: a refusal is a thrown data() that the error boundary shows in words. */
 export function guardPageRequest(request: Request): void {
-  const refusal = writeRefusal(request);
+  const refusal = writeRefusal(request) ?? pageBodyRefusal(request);
   if (refusal) throw data(refusal.error, { status: refusal.status, headers: refusal.headers });
 }
 
