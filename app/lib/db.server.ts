@@ -1,9 +1,8 @@
 // The app's one database handle, opened and migrated on first use, so that a fresh deployment
-// needs no separate migrate step.
+// needs no separate migrate step; the hourly clean-up starts with it.
 import { openMigratedDatabase, type Db } from "#db/database.ts";
-import { purgeExpiredDeletions } from "#db/networks.ts";
-import { deleteExpiredSessions } from "#db/sessions.ts";
 import { env } from "./env.server.ts";
+import { cleanUp, startHousekeeping } from "./housekeeping.server.ts";
 
 export type { Db };
 
@@ -12,8 +11,8 @@ let opening: Promise<Db> | undefined;
 export function getDb(): Promise<Db> {
   opening ??= (async () => {
     const db = await openMigratedDatabase(env.databasePath);
-    await purgeExpiredDeletions(db);
-    await deleteExpiredSessions(db);
+    await cleanUp(db);
+    startHousekeeping(db);
     return db;
   })();
   return opening;
