@@ -20,6 +20,7 @@ import {
   type ValidationIssue,
 } from "#solver/schema.ts";
 import type { Section } from "#solver/section.ts";
+import { ELEMENT_COLLECTIONS, KIND_OF_COLLECTION } from "#solver/elements.ts";
 
 /**
  * An override may change an element's ratings and parameters but not what it connects to nor
@@ -90,15 +91,6 @@ export function zodIssues(error: z.ZodError, prefix: readonly PropertyKey[] = []
 
 export type DerivedAlternative = { ok: true; network: Network } | { ok: false; issues: ValidationIssue[] };
 
-const collections = ["buses", "sources", "transformers", "lines", "loads", "shunts"] as const;
-const singular: Record<(typeof collections)[number], string> = {
-  buses: "bus",
-  sources: "source",
-  transformers: "transformer",
-  lines: "line",
-  loads: "load",
-  shunts: "shunt",
-};
 
 /**
  * The network with the section at `voltageKV`: its buses' nominal voltage, the windings facing
@@ -119,10 +111,10 @@ export function deriveAlternative(
   const o = parsed.data;
 
   const issues: ValidationIssue[] = [];
-  for (const key of collections) {
+  for (const key of ELEMENT_COLLECTIONS) {
     const known = new Set(network[key].map((e) => e.id));
     for (const id of Object.keys(o[key] ?? {}))
-      if (!known.has(id)) issues.push({ path: formatPath(["overrides", key, id]), message: `there is no ${singular[key]} "${id}" in the network` });
+      if (!known.has(id)) issues.push({ path: formatPath(["overrides", key, id]), message: `there is no ${KIND_OF_COLLECTION[key]} "${id}" in the network` });
   }
 
   const inSection = new Set(section.busIds);

@@ -3,6 +3,7 @@
 // level, possible vector groups, operating cases that name what exists. Each issue names the
 // element and its path. Run on a document whose shape is already valid.
 import type { Network } from "#solver/schema.ts";
+import { ELEMENT_COLLECTIONS } from "#solver/elements.ts";
 
 /** IEC 60076-1 vector group: HV letters, LV letters, clock number 0–11 (e.g. YNd11, Dyn11, YNyn0). */
 export const vectorGroupPattern = /^(YN|Y|D|ZN|Z)(yn|y|d|zn|z)(\d{1,2})$/;
@@ -16,7 +17,7 @@ function label(kind: string, element: { id: string; name: string }): string {
 
 type AddIssue = (path: (string | number)[], message: string) => void;
 
-const COLLECTIONS = ["buses", "sources", "transformers", "lines", "loads", "shunts"] as const;
+const COLLECTIONS = ELEMENT_COLLECTIONS;
 
 /**
  * Cross-element rules a shape cannot express; every issue names the element and its path. Linear

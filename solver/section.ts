@@ -1,5 +1,6 @@
 // The section of a network the voltage ladder re-rates: one voltage level between transformers.
 import type { Network } from "#solver/schema.ts";
+import { connectedGroups } from "#solver/topology.ts";
 
 export interface FacingWinding {
   transformerId: string;
@@ -26,48 +27,53 @@ export interface Section {
   endBusIds: string[];
 }
 
+/** Every bus's section number: buses joined by lines share one; transformers bound them. */
+export function sectionGroups(network: Network): { groupOf: (busId: string) => number | undefined; count: number } {
+  const { adjacency, group, count } = connectedGroups(network, { linesOnly: true });
+  return {
+    groupOf: (busId) => {
+      const at = adjacency.position.get(busId);
+      return at === undefined ? undefined : group[at];
+    },
+    count,
+  };
+}
+
 /**
  * The section containing `busId`, or undefined when there is no such bus. Transformers bound
- * it; lines cannot, since a valid network's lines never change voltage level.
+ * it; lines cannot, since a valid network's lines never change voltage level. Linear in the size
+ * of the network.
  */
 export function findSection(network: Network, busId: string): Section | undefined {
-  const start = network.buses.find((b) => b.id === busId);
-  if (!start) return undefined;
+  const { groupOf } = sectionGroups(network);
+  const here = groupOf(busId);
+  if (here === undefined) return undefined;
+  const start = network.buses.find((b) => b.id === busId)!;
+  const inSection = (id: string) => groupOf(id) === here;
 
-  const neighbours = new Map<string, string[]>();
-  for (const line of network.lines) {
-    neighbours.set(line.fromBus, [...(neighbours.get(line.fromBus) ?? []), line.toBus]);
-    neighbours.set(line.toBus, [...(neighbours.get(line.toBus) ?? []), line.fromBus]);
-  }
-  const reached = new Set([start.id]);
-  const queue = [start.id];
-  while (queue.length > 0) {
-    for (const next of neighbours.get(queue.shift()!) ?? []) {
-      if (!reached.has(next)) {
-        reached.add(next);
-        queue.push(next);
-      }
+  const busIds = network.buses.filter((b) => inSection(b.id)).map((b) => b.id);
+  const lines = network.lines.filter((l) => inSection(l.fromBus) && inSection(l.toBus));
+  const facingWindings: FacingWinding[] = [];
+  const boundary = new Set<string>();
+  for (const t of network.transformers) {
+    if (inSection(t.hvBus)) {
+      facingWindings.push({ transformerId: t.id, winding: "hv" });
+      boundary.add(t.hvBus);
+    }
+    if (inSection(t.lvBus)) {
+      facingWindings.push({ transformerId: t.id, winding: "lv" });
+      boundary.add(t.lvBus);
     }
   }
+  const sources = network.sources.filter((s) => inSection(s.bus));
+  for (const s of sources) boundary.add(s.bus);
 
-  const busIds = network.buses.filter((b) => reached.has(b.id)).map((b) => b.id);
-  const lines = network.lines.filter((l) => reached.has(l.fromBus) && reached.has(l.toBus));
-  const facingWindings: FacingWinding[] = [];
-  for (const t of network.transformers) {
-    if (reached.has(t.hvBus)) facingWindings.push({ transformerId: t.id, winding: "hv" });
-    if (reached.has(t.lvBus)) facingWindings.push({ transformerId: t.id, winding: "lv" });
+  const linesAtBus = new Map<string, number>();
+  for (const l of lines) {
+    linesAtBus.set(l.fromBus, (linesAtBus.get(l.fromBus) ?? 0) + 1);
+    linesAtBus.set(l.toBus, (linesAtBus.get(l.toBus) ?? 0) + 1);
   }
-  const sources = network.sources.filter((s) => reached.has(s.bus));
-
-  const linesAtBus = (id: string) => lines.filter((l) => l.fromBus === id || l.toBus === id).length;
-  const boundary = new Set([
-    ...facingWindings.map((w) => {
-      const t = network.transformers.find((tr) => tr.id === w.transformerId)!;
-      return w.winding === "hv" ? t.hvBus : t.lvBus;
-    }),
-    ...sources.map((s) => s.bus),
-  ]);
-  const endBusIds = busIds.filter((id) => boundary.has(id) || linesAtBus(id) <= 1);
+  const endBusIds = busIds.filter((id) => boundary.has(id) || (linesAtBus.get(id) ?? 0) <= 1);
 
   return {
     nominalKV: start.nominalKV,

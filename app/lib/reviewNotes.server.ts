@@ -17,7 +17,7 @@ import type { Network } from "#solver/schema.ts";
 import { publicUrl } from "./env.server.ts";
 import { sendMailInBackground } from "./mail.server.ts";
 import { reviewNoteMail } from "./mailMessages.ts";
-import { elementLabel, findElement } from "./networkElements.ts";
+import { describeElement, findElement } from "./networkElements.ts";
 import { checkNoteBody, mayResolveThread, mayWriteNotes, type NoteReader } from "./reviewNotePermissions.ts";
 
 export type NoteOutcome = { ok: true; message: string; threadId: number } | { ok: false; status: 400 | 401 | 403 | 404; error: string };
@@ -65,8 +65,8 @@ export async function startThread(
   }
   const threadId = await insertReviewThread(db, {
     networkId: input.network.id,
-    elementId: element?.id ?? null,
-    elementName: element?.name ?? null,
+    elementId: element?.element.id ?? null,
+    elementName: element?.element.name ?? null,
     revision: input.network.current_revision,
     authorId: input.user.id,
     body: checked.body,
@@ -75,11 +75,11 @@ export async function startThread(
   await notifyOwners(db, {
     network: input.network,
     author: input.user,
-    pinnedTo: element ? elementLabel(element) : "the sheet",
+    pinnedTo: element ? describeElement(element).replace(/^\S+/, (word) => word.toLowerCase()) : "the sheet",
     body: checked.body,
     reply: false,
   });
-  return { ok: true, message: element ? `Note pinned to ${element.name}.` : "Note pinned to the sheet.", threadId };
+  return { ok: true, message: element ? `Note pinned to ${element.element.name}.` : "Note pinned to the sheet.", threadId };
 }
 
 async function threadOf(db: Db, network: NetworkRow, threadId: number) {
@@ -103,7 +103,7 @@ export async function replyToThread(
   await notifyOwners(db, {
     network: input.network,
     author: input.user,
-    pinnedTo: thread.element_id ? `"${thread.element_name ?? thread.element_id}" (${thread.element_id})` : "the sheet",
+    pinnedTo: thread.element_id ? `"${thread.element_name ?? "an element since removed"}"` : "the sheet",
     body: checked.body,
     reply: true,
   });

@@ -2,7 +2,7 @@
 // removed and changed, each change field by field with its unit ("Length: 48 km → 52 km").
 // Pure: the revisions page, the API and the tests call it with two validated documents.
 import type { Network } from "#solver/schema.ts";
-import { ELEMENT_COLLECTIONS, KIND_OF_COLLECTION, type ElementCollection } from "./networkElements.ts";
+import { ELEMENT_COLLECTIONS, KIND_LABEL, KIND_OF_COLLECTION, type ElementCollection } from "./networkElements.ts";
 
 type Value = string | number | boolean | null | undefined;
 
@@ -137,7 +137,7 @@ function fieldChange(field: string, from: Value, to: Value, texts?: { fromText: 
 function busText(network: Network, busId: Value): string {
   if (typeof busId !== "string") return "(none)";
   const bus = network.buses.find((b) => b.id === busId);
-  return bus ? `${bus.name} (${bus.id})` : busId;
+  return bus ? bus.name : `a bus not in this revision`;
 }
 
 function positionText(element: AnyElement): string {
@@ -181,7 +181,7 @@ export function diffRevisions(before: Network, after: Network): RevisionDiff {
     if (before[field] !== after[field]) diff.network.push(fieldChange(field, before[field], after[field]));
   }
   for (const collection of ELEMENT_COLLECTIONS) {
-    const kind = KIND_OF_COLLECTION[collection];
+    const kind = KIND_LABEL[KIND_OF_COLLECTION[collection]];
     const beforeById = new Map((before[collection] as AnyElement[]).map((e) => [e.id, e]));
     const afterById = new Map((after[collection] as AnyElement[]).map((e) => [e.id, e]));
     for (const [id, element] of beforeById) {

@@ -243,7 +243,7 @@ test("Share, the shared view, Review notes, Revisions and the mail fake pass an 
   await notes.getByLabel("Note", { exact: true }).fill("Is 47.6 km the surveyed route length?");
   await notes.getByRole("button", { name: "Add note" }).click();
   await expect(notes.getByRole("status")).toHaveText("Note pinned to Fell crossing 66 kV.");
-  await expect(page.getByRole("button", { name: /1 open review note on l-fell/ })).toBeVisible();
+  await expect(page.getByRole("button", { name: /1 open review note on Fell crossing 66 kV/ })).toBeVisible();
   await expect(notes.locator(".ks-panel-sub")).toHaveText("1 open · 0 resolved");
   await lookAt(page, testInfo, "review-notes.png");
 

@@ -1,7 +1,7 @@
 // The voltage of each alternative along the chain, bus by bus from the source to one end, over
 // each bus's allowed band: where a candidate voltage sags or lifts the far end out of its band.
 import { Area, CartesianGrid, ComposedChart, Label, Line, XAxis, YAxis } from "recharts";
-import { busesFromSource, chainEndBuses } from "#app/components/report/singleLineLayout.ts";
+import { chainEnds, chainTo } from "#solver/topology.ts";
 import type { Ladder } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
 import { axisLabel, axisTick, gridStroke, Marker, Sized, styleOfAlternative } from "./chartParts.tsx";
@@ -16,7 +16,7 @@ const BAND_EDGE = "var(--color-ok, #2e7031)";
  * one lowest in voltage in the recommended alternative (else the first that solved).
  */
 export function defaultProfileEnd(ladder: Ladder, network: Network): string | undefined {
-  const ends = chainEndBuses(network);
+  const ends = chainEnds(network);
   const shown = ladder.alternatives[ladder.cheapest?.index ?? ladder.alternatives.findIndex((a) => a.converged)];
   if (!shown || !shown.converged) return ends[0];
   const vPu = new Map(shown.result.loadFlow.buses.map((b) => [b.id, b.vPu]));
@@ -36,7 +36,7 @@ export function ProfilePlot({
   width?: number;
   height?: number;
 }) {
-  const path = endBusId ? busesFromSource(network, endBusId) : [];
+  const path = endBusId ? chainTo(network, endBusId) : [];
   const carried = ladder.alternatives.map((a, index) => ({ a, index })).filter(({ a }) => a.converged);
   const rows = path.map((busId) => {
     const bus = network.buses.find((b) => b.id === busId)!;

@@ -8,6 +8,7 @@ import { moneyInputSchema, type MoneyInput } from "#solver/economics.ts";
 import { candidateVoltagesKV } from "#solver/iec60038.ts";
 import { findSection, ladderRequestSchema, MAX_ALTERNATIVES, MAX_CANDIDATE_KV, type AlternativeOverrides, type Conductor, type LadderRequest } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
+import { sectionGroups } from "#solver/section.ts";
 
 export interface AlternativeDraft {
   /** "" keeps the conductor as drawn; otherwise a library type's id, or SAVED_CONDUCTOR. */
@@ -90,13 +91,16 @@ export function draftForSection(network: Network, sectionBus: string, money: Mon
   return { sectionBus, voltagesKV, alternatives: Object.fromEntries(voltagesKV.map((kv) => [voltageKey(kv), emptyAlternative()])), money };
 }
 
-/** The first bus of the first section that has lines: where a link to re-rate usually is. */
+/**
+ * The first bus of the first section that has lines and a transformer: where a link to re-rate
+ * usually is. Every section is found in one pass, so this stays linear in the network's size.
+ */
 export function defaultSectionBus(network: Network): string {
-  for (const line of network.lines) {
-    const section = findSection(network, line.fromBus);
-    if (section && section.facingWindings.length > 0) return line.fromBus;
-  }
-  return network.lines[0]?.fromBus ?? network.buses[0].id;
+  const { groupOf } = sectionGroups(network);
+  const bounded = new Set<number | undefined>();
+  for (const t of network.transformers) bounded.add(groupOf(t.hvBus)).add(groupOf(t.lvBus));
+  const line = network.lines.find((l) => groupOf(l.fromBus) !== undefined && bounded.has(groupOf(l.fromBus)));
+  return line?.fromBus ?? network.lines[0]?.fromBus ?? network.buses[0].id;
 }
 
 /** A saved (or posted) request as the form shows it. */

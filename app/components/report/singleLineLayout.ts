@@ -354,20 +354,3 @@ function isOnLoadTapChanger(network: Network, transformerId: string): boolean {
   const t = network.transformers.find((tr) => tr.id === transformerId)!;
   return t.tapMinPct !== undefined || t.tapMaxPct !== undefined;
 }
-
-/** Bus ids from the source along the drawing's tree to `endBusId` (the chain a profile is drawn along). */
-export function busesFromSource(network: Network, endBusId: string): string[] {
-  const layout = layoutSingleLine(network);
-  const parent = new Map(layout.branches.map((b) => [b.rightBusId, b.leftBusId]));
-  if (!layout.buses.some((b) => b.id === endBusId)) return [];
-  const path = [endBusId];
-  while (parent.has(path[0])) path.unshift(parent.get(path[0])!);
-  return path;
-}
-
-/** Buses at the far ends of the drawing's tree: where a profile along the chain ends. */
-export function chainEndBuses(network: Network): string[] {
-  const layout = layoutSingleLine(network);
-  const feeding = new Set(layout.branches.map((b) => b.leftBusId));
-  return layout.buses.filter((b) => !feeding.has(b.id) && b.column > 0).map((b) => b.id);
-}

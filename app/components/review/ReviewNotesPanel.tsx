@@ -8,7 +8,7 @@ import { Link, useFetcher } from "react-router";
 import { useNodes, ViewportPortal } from "@xyflow/react";
 import { useSheet, useSheetActions } from "#app/components/sheet/sheetStore.ts";
 import { formatDateTime } from "#app/lib/format.ts";
-import { elementsOf } from "#app/lib/networkElements.ts";
+import { elementsOf, kindWord } from "#app/lib/networkElements.ts";
 import { NOTE_BODY_MAX } from "#app/lib/fieldSchemas.ts";
 import { openCountsByElement } from "#app/lib/reviewNotePermissions.ts";
 import "./review.css";
@@ -66,7 +66,7 @@ function NoteBadges({ counts, onPick }: { counts: Record<string, number>; onPick
               title={`${count} open review ${count === 1 ? "note" : "notes"}`}
             >
               <span aria-hidden="true">✎</span> {count}
-              <span className="sr-only"> open review {count === 1 ? "note" : "notes"} on {node.id}</span>
+              <span className="sr-only"> open review {count === 1 ? "note" : "notes"} on {(node.data as { element?: { name?: string } }).element?.name ?? "this element"}</span>
             </button>
           );
         })}
@@ -161,7 +161,7 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
   const formRef = useRef<HTMLFormElement>(null);
   const posting = fetcher.state !== "idle";
 
-  const selected = selection.length === 1 && elements.some((e) => e.id === selection[0]) ? selection[0] : "";
+  const selected = selection.length === 1 && elements.some((e) => e.element.id === selection[0]) ? selection[0] : "";
   useEffect(() => setPinTo(selected), [selected]);
   useEffect(() => {
     if (fetcher.state === "idle" && fetcher.data?.ok) formRef.current?.reset();
@@ -170,7 +170,7 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
   const open = threads.filter((t) => !t.resolvedAt).length;
   const resolvedCount = threads.length - open;
   const shown = threads.filter((t) => (filter === null || (t.elementId ?? "") === filter) && (showResolved || !t.resolvedAt));
-  const filterName = filter === null ? null : filter === "" ? "the sheet" : (elements.find((e) => e.id === filter)?.name ?? filter);
+  const filterName = filter === null ? null : filter === "" ? "the sheet" : (elements.find((e) => e.element.id === filter)?.element.name ?? "an element since removed");
 
   const pick = (elementId: string) => {
     setFilter(elementId);
@@ -196,8 +196,8 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
             <select id="ks-note-pin" name="elementId" className="input" value={pinTo} onChange={(e) => setPinTo(e.target.value)}>
               <option value="">The sheet as a whole</option>
               {elements.map((e) => (
-                <option key={e.id} value={e.id}>
-                  {e.kind}: {e.name}
+                <option key={e.element.id} value={e.element.id}>
+                  {kindWord(e)}: {e.element.name}
                 </option>
               ))}
             </select>

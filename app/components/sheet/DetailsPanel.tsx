@@ -8,15 +8,8 @@ import { checkField, fieldsFor, type FieldDef } from "./elementFields.ts";
 import { applyConductorType, applyTransformerType } from "./equipmentApply.ts";
 import { ConductorPicker, TransformerTypePicker, type EquipmentTypes } from "./EquipmentPicker.tsx";
 import { QuantityField, ReadOnlyValue, SelectField, TextField } from "./fields.tsx";
-import {
-  describeElement,
-  indexDocument,
-  parseWireId,
-  terminalField,
-  wireId,
-  type AnyElement,
-  type ElementEntry,
-} from "./flowModel.ts";
+import { parseWireId, terminalField, wireId } from "./flowModel.ts";
+import { describeElement, indexElements, type AnyElement, type ElementEntry } from "#app/lib/networkElements.ts";
 import { perUnitNotes } from "./perUnitNotes.ts";
 import { deleteItems } from "./sheetEdits.ts";
 import { useSheet, useSheetActions } from "./sheetStore.ts";
@@ -244,7 +237,7 @@ export function DetailsPanel({ library = {} }: { library?: EquipmentTypes }) {
   const selection = useSheet((s) => s.selection);
   const readOnly = useSheet((s) => s.readOnly);
   const actions = useSheetActions();
-  const entries = useMemo(() => indexDocument(doc), [doc]);
+  const entries = useMemo(() => indexElements(doc), [doc]);
   const issues = useMemo(() => documentIssues(doc), [doc]);
   const selected = selection.filter((id) => entries.has(id) || parseWireId(id));
 

@@ -3,7 +3,7 @@
 import { useId, useMemo, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Network } from "#solver/schema.ts";
-import { chainEnds, chainTo } from "./chainPath.ts";
+import { chainEnds, chainTo } from "#solver/topology.ts";
 import { fixed } from "./readingFormat.ts";
 import { statusCue, voltageStatus } from "./readingStatus.ts";
 import type { Readings } from "./sheetStore.ts";

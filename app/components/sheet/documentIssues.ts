@@ -1,17 +1,8 @@
 // Why a sheet's document cannot be saved or solved, in the planner's words and tied to the
 // element concerned, so Checks can select it and Details can show the message by its field.
 import { validateNetwork, type Network } from "#solver/schema.ts";
-import {
-  collectionKey,
-  describeElement,
-  indexDocument,
-  terminalBus,
-  terminalField,
-  terminalsOf,
-  type AnyElement,
-  type ElementKind,
-  type TerminalId,
-} from "./flowModel.ts";
+import { terminalBus, terminalField, terminalsOf, type TerminalId } from "./flowModel.ts";
+import { COLLECTION_OF_KIND, describeElement, indexElements, type AnyElement, type ElementKind } from "#app/lib/networkElements.ts";
 
 export interface SheetIssue {
   /** The element concerned, when there is one. */
@@ -29,7 +20,7 @@ const terminalWords: Record<TerminalId, string> = {
   to: "its to-end",
 };
 
-const kindByCollection = Object.fromEntries(Object.entries(collectionKey).map(([kind, key]) => [key, kind])) as Record<
+const kindByCollection = Object.fromEntries(Object.entries(COLLECTION_OF_KIND).map(([kind, key]) => [key, kind])) as Record<
   string,
   ElementKind
 >;
@@ -38,7 +29,7 @@ const kindByCollection = Object.fromEntries(Object.entries(collectionKey).map(([
 export function documentIssues(doc: Network): SheetIssue[] {
   const issues: SheetIssue[] = [];
   const loose = new Set<string>();
-  for (const [id, entry] of indexDocument(doc)) {
+  for (const [id, entry] of indexElements(doc)) {
     if (entry.kind === "bus") continue;
     for (const terminal of terminalsOf(entry.kind)) {
       if (terminalBus(entry, terminal) !== "") continue;
@@ -55,7 +46,7 @@ export function documentIssues(doc: Network): SheetIssue[] {
   for (const issue of validated.issues) {
     const match = /^(\w+)\[(\d+)\](?:\.(\w+))?/.exec(issue.path);
     const kind = match ? kindByCollection[match[1]] : undefined;
-    const element = kind ? (doc[collectionKey[kind]] as AnyElement[])[Number(match![2])] : undefined;
+    const element = kind ? (doc[COLLECTION_OF_KIND[kind]] as AnyElement[])[Number(match![2])] : undefined;
     if (element && match![3] && loose.has(`${element.id}.${match![3]}`)) continue;
     const field = match?.[3];
     // The cross-element rules already name their element; shape errors name only a path.

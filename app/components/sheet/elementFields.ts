@@ -11,7 +11,8 @@ import {
   type Source,
 } from "#solver/schema.ts";
 import type { QuantityKind } from "#app/lib/unitFormat.ts";
-import type { AnyElement, ElementKind, TerminalId } from "./flowModel.ts";
+import type { TerminalId } from "./flowModel.ts";
+import { type AnyElement, type ElementKind } from "#app/lib/networkElements.ts";
 
 export type FieldDef =
   | { type: "text"; key: string; label: string }

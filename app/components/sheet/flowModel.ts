@@ -13,25 +13,24 @@
 // offset the element takes a default place beside its bus, so a document opened anywhere, or
 // imported from a file, is drawn sensibly, and moving a bus carries its elements with it.
 import { Position, type Edge, type Node } from "@xyflow/react";
-import type { Bus, Line, Load, Network, Shunt, Source, Transformer } from "#solver/schema.ts";
+import type { Bus, Network } from "#solver/schema.ts";
+import {
+  COLLECTION_OF_KIND,
+  describeElement,
+  indexElements,
+  type AnyElement,
+  type ElementEntry,
+  type ElementKind,
+} from "#app/lib/networkElements.ts";
 
-export type ElementKind = "bus" | "source" | "transformer" | "line" | "load" | "shunt";
 export type TerminalId = "t" | "hv" | "lv" | "from" | "to";
 export type Side = "left" | "right";
 export interface XY {
   x: number;
   y: number;
 }
-export type AnyElement = Bus | Source | Transformer | Line | Load | Shunt;
 /** Offsets of non-bus elements from their anchor, by element id. */
 export type SheetLayout = Record<string, XY>;
-
-export interface ElementEntry {
-  kind: ElementKind;
-  element: AnyElement;
-  /** Position in its collection of the document. */
-  index: number;
-}
 
 export const GRID_PX = 20;
 /** Default spacing of buses without a position in the document. */
@@ -43,15 +42,6 @@ const ATTACHMENT_SLOT_PX = 120;
 const ATTACHMENT_OFFSET_PX = 120;
 const TERMINAL_HANDLE_PX = 12;
 const DETOUR_PX = 14;
-
-export const collectionKey = {
-  bus: "buses",
-  source: "sources",
-  transformer: "transformers",
-  line: "lines",
-  load: "loads",
-  shunt: "shunts",
-} as const satisfies Record<ElementKind, keyof Network>;
 
 export const terminalField = {
   t: "bus",
@@ -73,16 +63,6 @@ export function terminalsOf(kind: ElementKind): TerminalId[] {
 export function terminalBus(entry: ElementEntry, terminal: TerminalId): string {
   const value = (entry.element as unknown as Record<string, unknown>)[terminalField[terminal]];
   return typeof value === "string" ? value : "";
-}
-
-export function indexDocument(doc: Network): Map<string, ElementEntry> {
-  const entries = new Map<string, ElementEntry>();
-  for (const kind of Object.keys(collectionKey) as ElementKind[]) {
-    (doc[collectionKey[kind]] as AnyElement[]).forEach((element, index) => {
-      if (!entries.has(element.id)) entries.set(element.id, { kind, element, index });
-    });
-  }
-  return entries;
 }
 
 export function wireId(elementId: string, terminal: TerminalId): string {
@@ -234,7 +214,7 @@ export function terminalPoint(kind: Exclude<ElementKind, "bus">, center: XY, sid
 
 /** Lay out the whole sheet: node centers, terminal sides, busbar lengths and wire routes. */
 export function sheetGeometry(doc: Network, layout: SheetLayout, overrides?: Record<string, XY>): SheetGeometry {
-  const entries = indexDocument(doc);
+  const entries = indexElements(doc);
   const busCenters = busCenterMap(doc);
   if (overrides) for (const id of busCenters.keys()) if (overrides[id]) busCenters.set(id, overrides[id]);
   const defaults = defaultOffsets(entries, busCenters, layout);
@@ -311,25 +291,6 @@ export interface WireData extends Record<string, unknown> {
 }
 
 export type WireEdge = Edge<WireData, "wire">;
-
-const kindWords: Record<ElementKind, string> = {
-  bus: "Busbar",
-  source: "Source",
-  transformer: "Transformer",
-  line: "Line",
-  load: "Load",
-  shunt: "Shunt capacitor",
-};
-
-export function kindWord(entry: ElementEntry): string {
-  if (entry.kind === "source") return (entry.element as Source).kind === "grid" ? "Grid infeed" : "Generator";
-  if (entry.kind === "line") return (entry.element as Line).kind === "cable" ? "Cable" : "Overhead line";
-  return kindWords[entry.kind];
-}
-
-export function describeElement(entry: ElementEntry): string {
-  return `${kindWord(entry)} "${entry.element.name}"`;
-}
 
 export interface FlowOptions {
   selection?: ReadonlySet<string>;
@@ -438,7 +399,7 @@ export interface SheetContent {
  * offsets are re-measured from their new anchors.
  */
 export function keepDrawnPositions(before: SheetGeometry, next: SheetContent, ids: Iterable<string>): SheetLayout {
-  const entries = indexDocument(next.document);
+  const entries = indexElements(next.document);
   const busCenters = busCenterMap(next.document);
   let layout = next.layout;
   for (const id of ids) {
@@ -466,7 +427,7 @@ export function applyMoves(state: SheetContent, moves: Record<string, XY>): Shee
       buses: state.document.buses.map((b) => (moves[b.id] ? { ...b, x: round(moves[b.id].x), y: round(moves[b.id].y) } : b)),
     };
   }
-  const entries = indexDocument(document);
+  const entries = indexElements(document);
   const busCenters = busCenterMap(document);
   let layout = state.layout;
   for (const [id, position] of Object.entries(moves)) {
@@ -481,7 +442,7 @@ export function applyMoves(state: SheetContent, moves: Record<string, XY>): Shee
 
 /** Replace one element of the document (same id), keeping everything else by reference. */
 export function replaceElement(doc: Network, entry: ElementEntry, element: AnyElement): Network {
-  const key = collectionKey[entry.kind];
+  const key = COLLECTION_OF_KIND[entry.kind];
   const list = [...(doc[key] as AnyElement[])];
   list[entry.index] = element;
   return { ...doc, [key]: list } as Network;

@@ -7,7 +7,7 @@ import {
   transformerSeriesImpedancePu,
 } from "#solver/perUnit.ts";
 import type { Bus, Line, Network, Source, Transformer } from "#solver/schema.ts";
-import type { AnyElement, ElementKind } from "./flowModel.ts";
+import { type AnyElement, type ElementKind } from "#app/lib/networkElements.ts";
 
 const sig = (v: number) => (Number.isFinite(v) ? String(Number(v.toPrecision(4))) : "–");
 const complex = (r: number, x: number) => `${sig(r)} + j${sig(x)}`;

@@ -2,25 +2,8 @@
 // place a part, connect or disconnect a terminal, delete, copy and paste.
 import { withoutCaseReferences } from "#app/lib/operatingCases.ts";
 import { WINDING_TOLERANCE, type Bus, type Network, type Source, type Transformer } from "#solver/schema.ts";
-import {
-  anchorOf,
-  busCenterMap,
-  collectionKey,
-  indexDocument,
-  keepDrawnPositions,
-  parseWireId,
-  setTerminalBus,
-  sheetGeometry,
-  terminalBus,
-  terminalField,
-  terminalsOf,
-  type AnyElement,
-  type ElementEntry,
-  type ElementKind,
-  type SheetContent,
-  type TerminalId,
-  type XY,
-} from "./flowModel.ts";
+import { anchorOf, busCenterMap, keepDrawnPositions, parseWireId, setTerminalBus, sheetGeometry, terminalBus, terminalField, terminalsOf, type SheetContent, type TerminalId, type XY } from "./flowModel.ts";
+import { COLLECTION_OF_KIND, indexElements, type AnyElement, type ElementEntry, type ElementKind } from "#app/lib/networkElements.ts";
 
 export type PartKind = "busbar" | "grid" | "generator" | "transformer" | "overhead" | "cable" | "load" | "capacitor";
 
@@ -66,7 +49,7 @@ export function elementKindOfPart(part: PartKind): ElementKind {
 }
 
 function allIds(doc: Network): Set<string> {
-  return new Set(indexDocument(doc).keys());
+  return new Set(indexElements(doc).keys());
 }
 
 function freshId(taken: Set<string>, base: string, first = 1): string {
@@ -80,7 +63,7 @@ function freshId(taken: Set<string>, base: string, first = 1): string {
 }
 
 function freshName(doc: Network, kind: ElementKind, base: string): string {
-  const names = new Set((doc[collectionKey[kind]] as AnyElement[]).map((e) => e.name));
+  const names = new Set((doc[COLLECTION_OF_KIND[kind]] as AnyElement[]).map((e) => e.name));
   for (let n = 1; ; n++) if (!names.has(`${base} ${n}`)) return `${base} ${n}`;
 }
 
@@ -128,7 +111,7 @@ export function newPartElement(doc: Network, part: PartKind, id: string): AnyEle
 }
 
 function insert(doc: Network, kind: ElementKind, element: AnyElement): Network {
-  const key = collectionKey[kind];
+  const key = COLLECTION_OF_KIND[kind];
   return { ...doc, [key]: [...(doc[key] as AnyElement[]), element] } as Network;
 }
 
@@ -189,7 +172,7 @@ function adjustToBus(entry: ElementEntry, terminal: TerminalId, bus: Bus): { ele
 
 /** Wire a terminal to a busbar (replacing any wire it had), keeping the element where it is drawn. */
 export function connectTerminal(content: SheetContent, elementId: string, terminal: TerminalId, busId: string): EditResult {
-  const entries = indexDocument(content.document);
+  const entries = indexElements(content.document);
   const entry = entries.get(elementId);
   const busEntry = entries.get(busId);
   if (!entry || entry.kind === "bus" || !terminalsOf(entry.kind).includes(terminal) || busEntry?.kind !== "bus")
@@ -204,7 +187,7 @@ export function connectTerminal(content: SheetContent, elementId: string, termin
 
 /** Delete elements and wires (by wire id); wires to a deleted busbar come loose, nothing else goes. */
 export function deleteItems(content: SheetContent, ids: Iterable<string>): SheetContent {
-  const entries = indexDocument(content.document);
+  const entries = indexElements(content.document);
   const doomed = new Set<string>();
   const cut: { elementId: string; terminal: TerminalId }[] = [];
   for (const id of ids) {
@@ -224,13 +207,13 @@ export function deleteItems(content: SheetContent, ids: Iterable<string>): Sheet
   const loosened = new Set<string>();
   for (const { elementId, terminal } of cut) {
     if (doomed.has(elementId)) continue;
-    const entry = indexDocument(document).get(elementId)!;
+    const entry = indexElements(document).get(elementId)!;
     document = setTerminalBus(document, entry, terminal, "");
     loosened.add(elementId);
   }
   const removed = { ...document };
-  for (const kind of Object.keys(collectionKey) as ElementKind[]) {
-    const key = collectionKey[kind];
+  for (const kind of Object.keys(COLLECTION_OF_KIND) as ElementKind[]) {
+    const key = COLLECTION_OF_KIND[kind];
     const list = document[key] as AnyElement[];
     if (list.some((e) => doomed.has(e.id))) (removed as Record<string, unknown>)[key] = list.filter((e) => !doomed.has(e.id));
   }
@@ -280,7 +263,7 @@ export function pasteClipboard(content: SheetContent, clipboard: Clipboard, shif
     }
     document = insert(document, item.kind, copy as unknown as AnyElement);
   }
-  const entries = indexDocument(document);
+  const entries = indexElements(document);
   const busCenters = busCenterMap(document);
   const layout = { ...content.layout };
   for (const [id, center] of centers) {

@@ -9,17 +9,8 @@ import { temporal, type TemporalState } from "zundo";
 import type { Network } from "#solver/schema.ts";
 import type { Check, SolveResult } from "#solver/results.ts";
 import type { SheetIssue } from "./documentIssues.ts";
-import {
-  applyMoves,
-  indexDocument,
-  parseWireId,
-  replaceElement,
-  type AnyElement,
-  type SheetContent,
-  type SheetLayout,
-  type TerminalId,
-  type XY,
-} from "./flowModel.ts";
+import { applyMoves, parseWireId, replaceElement, type SheetContent, type SheetLayout, type TerminalId, type XY } from "./flowModel.ts";
+import { indexElements, type AnyElement } from "#app/lib/networkElements.ts";
 import {
   connectTerminal,
   copyItems,
@@ -154,7 +145,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
           },
           connect: (elementId, terminal, busId) => apply(connectTerminal(content(), elementId, terminal, busId)),
           updateElement: (id, element) => {
-            const entry = indexDocument(get().document).get(id);
+            const entry = indexElements(get().document).get(id);
             if (!entry) return;
             apply({ document: replaceElement(get().document, entry, element), layout: get().layout });
           },
@@ -184,7 +175,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
             });
           },
           select: (ids) => set({ selection: ids }),
-          selectAll: () => set({ selection: [...indexDocument(get().document).keys()] }),
+          selectAll: () => set({ selection: [...indexElements(get().document).keys()] }),
           focusElement: (id) => {
             const wire = parseWireId(id);
             const target = wire ? wire.elementId : id;

@@ -3,6 +3,7 @@
 // id, or by name when the file has no id column) updates it; any other row adds a load. The
 // preview lists every row error and the resulting change; the change applies only when there are
 // none and the document still validates.
+import { ELEMENT_COLLECTIONS } from "#solver/elements.ts";
 import { validateNetwork, type Bus, type Load, type Network } from "#solver/schema.ts";
 import {
   cellOf,
@@ -123,7 +124,7 @@ function slug(name: string): string {
 
 function allIds(network: Network): Set<string> {
   const ids = new Set<string>();
-  for (const key of ["buses", "sources", "transformers", "lines", "loads", "shunts"] as const)
+  for (const key of ELEMENT_COLLECTIONS)
     for (const element of network[key]) ids.add(element.id);
   return ids;
 }

@@ -25,7 +25,7 @@ import {
   type StudyDraft,
 } from "#app/components/ladder/studyDraft.ts";
 import { VoltageChips } from "#app/components/ladder/VoltageChips.tsx";
-import { chainEndBuses } from "#app/components/report/singleLineLayout.ts";
+import { chainEnds } from "#solver/topology.ts";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireNetwork } from "#app/lib/access.server.ts";
@@ -182,7 +182,7 @@ function LadderStudy() {
   };
 
   const errorList = Object.entries(errors);
-  const ends = chainEndBuses(network);
+  const ends = chainEnds(network);
   const endBusId = shown ? (profileEnd && ends.includes(profileEnd) ? profileEnd : defaultProfileEnd(shown.ladder, network)) : undefined;
 
   return (

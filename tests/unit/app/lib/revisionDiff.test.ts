@@ -64,7 +64,7 @@ describe("diffRevisions", () => {
     const diff = diffRevisions(before, after);
     const byId = new Map(diff.changed.map((c) => [c.id, c.changes]));
     expect(byId.get("ld-town")).toEqual([
-      expect.objectContaining({ field: "bus", fromText: "Calder Flats town 11 kV (b-town)", toText: "Calder Flats 11 kV (b-calder-11)" }),
+      expect.objectContaining({ field: "bus", fromText: "Calder Flats town 11 kV", toText: "Calder Flats 11 kV" }),
     ]);
     expect(byId.get("b-tarn-11")).toEqual([expect.objectContaining({ field: "breakingKA", fromText: "25 kA", toText: "(none)", to: undefined })]);
     expect(byId.get("l-town")).toEqual([expect.objectContaining({ field: "bMicroSiemensPerKm", fromText: "(none)", toText: "2.8 µS/km" })]);

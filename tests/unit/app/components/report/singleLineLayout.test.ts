@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { busesFromSource, chainEndBuses, COLUMN_WIDTH, layoutSingleLine, ROW_HEIGHT } from "#app/components/report/singleLineLayout.ts";
-import { chainTo } from "#app/components/sheet/chainPath.ts";
+import { COLUMN_WIDTH, layoutSingleLine, ROW_HEIGHT } from "#app/components/report/singleLineLayout.ts";
+import { chainEnds, chainTo } from "#solver/topology.ts";
 import { validateNetwork, type Network } from "#solver/schema.ts";
 
 const fixturesDir = new URL("../../../../fixtures/", import.meta.url);
@@ -50,9 +50,14 @@ describe("the single-line drawing of the hydro demo", () => {
     expect(branch("t-calder")).toMatchObject({ leftBusId: "b-calder-66", rightBusId: "b-calder-11", hvOnLeft: true });
   });
 
-  it("finds the chain from the source to each end as the sheet's own path search does", () => {
-    expect(chainEndBuses(network)).toEqual(["b-mine", "b-town"]);
-    for (const end of chainEndBuses(network)) expect(busesFromSource(network, end)).toEqual(chainTo(network, end));
+  it("draws the chain a profile follows from the source to each end left to right, branch by branch", () => {
+    expect(chainEnds(network)).toEqual(["b-mine", "b-town"]);
+    const drawn = new Set(layout.branches.map((b) => `${b.leftBusId}>${b.rightBusId}`));
+    for (const end of chainEnds(network)) {
+      const chain = chainTo(network, end);
+      expect(chain[0]).toBe("b-tarn-11");
+      for (let i = 1; i < chain.length; i++) expect(drawn.has(`${chain[i - 1]}>${chain[i]}`)).toBe(true);
+    }
   });
 });
 

@@ -11,7 +11,8 @@ import {
   validateNetwork,
   type Network,
 } from "#solver/schema.ts";
-import { documentToFlow, indexDocument, replaceElement, sheetGeometry, type SheetContent } from "#app/components/sheet/flowModel.ts";
+import { documentToFlow, replaceElement, sheetGeometry, type SheetContent } from "#app/components/sheet/flowModel.ts";
+import { indexElements } from "#app/lib/networkElements.ts";
 import {
   connectTerminal,
   copyItems,
@@ -136,7 +137,7 @@ describe("copy and paste", () => {
     expect(newBus.id).not.toBe("b-mine");
     expect(newLoad.bus).toBe(newBus.id);
     expect(newBus).toMatchObject({ x: 1000, y: -80, nominalKV: 11 });
-    const ids = [...indexDocument(pasted.document).keys()];
+    const ids = [...indexElements(pasted.document).keys()];
     expect(new Set(ids).size).toBe(ids.length);
   });
 
@@ -159,7 +160,7 @@ describe("drawing the hydro chain from the parts shelf", () => {
       return placed.id;
     };
     const set = (id: string, values: Record<string, unknown>) => {
-      const entry = indexDocument(content.document).get(id)!;
+      const entry = indexElements(content.document).get(id)!;
       content = { ...content, document: replaceElement(content.document, entry, { ...entry.element, ...values } as never) };
     };
     const connect = (id: string, terminal: Parameters<typeof connectTerminal>[2], bus: string) => {
@@ -203,7 +204,7 @@ describe("random edits (property)", () => {
       fc.property(fc.array(step, { maxLength: 30 }), (steps) => {
         let content: SheetContent = { document: demo(), layout: {} };
         for (const s of steps) {
-          const ids = [...indexDocument(content.document).keys()];
+          const ids = [...indexElements(content.document).keys()];
           if (s.op === "place") content = placePart(content, s.part, { x: s.x, y: 0 });
           else if (s.op === "delete" && ids.length) content = deleteItems(content, [ids[s.a % ids.length]]);
           else if (s.op === "paste" && ids.length) {
@@ -215,7 +216,7 @@ describe("random edits (property)", () => {
             for (const t of ["t", "hv", "from"] as const) content = connectTerminal(content, id, t, bus);
           }
         }
-        const all = [...indexDocument(content.document).keys()];
+        const all = [...indexElements(content.document).keys()];
         // Every element collection; the operating cases are not elements.
         const count = Object.entries(content.document)
           .filter(([key, list]) => Array.isArray(list) && key !== "cases")

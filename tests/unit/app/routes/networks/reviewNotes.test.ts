@@ -163,7 +163,7 @@ describe("mail to the team's owners about new notes", () => {
     const toOwner = await receivedMail({ to: people.owner.email });
     expect(toOwner).toHaveLength(1);
     expect(toOwner[0].subject).toBe(`${people.editLinkUser.name} wrote a review note on "Alerts main"`);
-    expect(toOwner[0].text).toContain('shunt "Calder Flats capacitor bank" (c-calder)');
+    expect(toOwner[0].text).toContain('shunt capacitor "Calder Flats capacitor bank"');
     expect(toOwner[0].text).toContain("Is 2 Mvar enough at peak?");
     expect(toOwner[0].links).toEqual([`${ORIGIN}/networks/${world.networkId}`]);
     expect(await receivedMail({ to: quietOwner.email })).toEqual([]);

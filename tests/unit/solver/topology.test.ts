@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { validateNetwork, type Network } from "#solver/schema.ts";
-import { chainEnds, chainTo } from "#app/components/sheet/chainPath.ts";
+import { chainEnds, chainTo } from "#solver/topology.ts";
 
 function load(file: string): Network {
   const parsed = validateNetwork(JSON.parse(readFileSync(`tests/fixtures/${file}`, "utf8")));
