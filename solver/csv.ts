@@ -1,5 +1,7 @@
 // Results as RFC 4180 CSV: comma-separated, CRLF line ends, fields with a comma, quote or line
 // break in double quotes with inner quotes doubled. Units are in the header names.
+import { roundForCsv } from "#solver/quantities.ts";
+import { branchColumns, branchRows, busColumns, busRows, faultColumns, faultRows, type BusRow, type FaultRow, type ResultColumn } from "#solver/resultTables.ts";
 import type { SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
 
@@ -24,55 +26,38 @@ export function toCsv(header: readonly string[], rows: readonly Cell[][]): strin
   return [header, ...rows].map((row) => row.map(csvField).join(",")).join("\r\n") + "\r\n";
 }
 
+/** A table of the shared results columns, each number at the CSV's precision. */
+function columnsCsv<Row>(columns: readonly ResultColumn<Row>[], rows: readonly Row[]): string {
+  const header = columns.map((c) => c.csv ?? c.key);
+  const cells = rows.map((row) =>
+    columns.map((c) => {
+      const value = c.value(row);
+      return typeof value === "number" ? roundForCsv(value) : value;
+    }),
+  );
+  return toCsv(header, cells);
+}
+
 export function busesCsv(network: Network, result: SolveResult): string {
-  const readings = new Map(result.loadFlow.buses.map((b) => [b.id, b]));
-  const faults = new Map((result.faults?.buses ?? []).map((f) => [f.id, f]));
-  const withFaults = result.faults !== undefined;
-  const header = ["bus_id", "bus_name", "nominal_kV", "voltage_pu", "voltage_kV", "angle_deg"];
-  if (withFaults) header.push("ik3_kA", "sk3_MVA", "ip3_kA", "ik1_kA", "r_over_x", "fault_note");
-  const rows: Cell[][] = [];
-  for (const bus of network.buses) {
-    const r = readings.get(bus.id);
-    if (!r) continue;
-    const row: Cell[] = [bus.id, bus.name, bus.nominalKV, r.vPu, r.vKV, r.angleDeg];
-    if (withFaults) {
-      const f = faults.get(bus.id);
-      row.push(f?.ik3kA, f?.ik3MVA, f?.ip3kA, f?.ik1kA, f?.rOverX, f?.note);
-    }
-    rows.push(row);
-  }
-  return toCsv(header, rows);
+  const c = busColumns;
+  const rows = busRows(network, result);
+  if (result.faults === undefined) return columnsCsv([c.id, c.name, c.nominalKV, c.vPu, c.vKV, c.angleDeg], rows);
+  const faults = new Map(faultRows(network, result).map((f) => [f.id, f]));
+  const f = faultColumns;
+  const withFault = (column: ResultColumn<FaultRow>): ResultColumn<BusRow> => ({
+    ...column,
+    value: (row) => {
+      const fault = faults.get(row.id);
+      return fault ? column.value(fault) : undefined;
+    },
+  });
+  return columnsCsv([c.id, c.name, c.nominalKV, c.vPu, c.vKV, c.angleDeg, ...[f.ik3kA, f.ik3MVA, f.ip3kA, f.ik1kA, f.rOverX, f.note].map(withFault)], rows);
 }
 
 export function branchesCsv(network: Network, result: SolveResult): string {
-  const names = new Map<string, string>([...network.lines, ...network.transformers].map((e) => [e.id, e.name]));
-  const header = [
-    "branch_id",
-    "branch_name",
-    "kind",
-    "from_bus",
-    "to_bus",
-    "p_from_MW",
-    "q_from_Mvar",
-    "p_to_MW",
-    "q_to_Mvar",
-    "loss_kW",
-    "current_A",
-    "loading_pct",
-  ];
-  const rows: Cell[][] = result.loadFlow.branches.map((b) => [
-    b.id,
-    names.get(b.id),
-    b.kind,
-    b.fromBus,
-    b.toBus,
-    b.pFromMW,
-    b.qFromMvar,
-    b.pToMW,
-    b.qToMvar,
-    b.lossKW,
-    b.currentA,
-    b.loadingPct,
-  ]);
-  return toCsv(header, rows);
+  const c = branchColumns;
+  return columnsCsv(
+    [c.id, c.name, c.kind, c.fromBus, c.toBus, c.pFromMW, c.qFromMvar, c.pToMW, c.qToMvar, c.lossKW, c.currentA, c.loadingPct, c.fromCurrentA, c.toCurrentA],
+    branchRows(network, result),
+  );
 }

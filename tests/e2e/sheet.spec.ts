@@ -3,6 +3,7 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page, type TestInfo } from "@playwright/test";
 import { solveNetwork } from "../../solver/index.ts";
+import { readingNumber } from "../../app/lib/format.ts";
 import { signIn } from "./accounts.ts";
 
 function failOnConsoleErrors(page: Page) {
@@ -161,7 +162,7 @@ test("an editor draws the hydro chain from a blank sheet with the UI only; the l
   const solved = outcome.result.loadFlow.buses.find((b) => b.id === loadBus.id)!;
   expect(await busReadingKV(page, loadBus.id)).toBeCloseTo(solved.vKV, 2);
   await page.getByRole("tab", { name: "Buses" }).click();
-  await expect(page.getByRole("row", { name: /Calder Flats 11 kV/ })).toContainText(solved.vKV.toFixed(3));
+  await expect(page.getByRole("row", { name: /Calder Flats 11 kV/ })).toContainText(readingNumber(solved.vKV, "kV"));
   noErrors();
 });
 

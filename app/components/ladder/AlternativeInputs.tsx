@@ -6,7 +6,7 @@ import { FieldError } from "#app/components/FormField.tsx";
 import { capitalCost, costAtVoltage, moneyInputSchema, type MoneyInput } from "#solver/economics.ts";
 import type { Section } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
-import { fixed, kvText } from "./ladderText.ts";
+import { fixed, kvText } from "#app/lib/format.ts";
 import { conductorOptions, emptyAlternative, SAVED_CONDUCTOR, voltageKey, type AlternativeDraft, type FieldErrors, type StudyDraft } from "./studyDraft.ts";
 
 const signedPct = (value: number) => (value > 0 ? `+${value}` : value < 0 ? `−${-value}` : "0");

@@ -3,7 +3,7 @@
 import { Bar, BarChart, CartesianGrid, Label, LabelList, XAxis, YAxis } from "recharts";
 import type { Ladder } from "#solver/ladder.ts";
 import { axisLabel, axisTick, gridStroke, Sized } from "./chartParts.tsx";
-import { kvText, millionsText, moneyText } from "./ladderText.ts";
+import { kvText, millionsText, moneyText } from "#app/lib/format.ts";
 
 const CAPITAL_COLOUR = "#5f7f94";
 const LOSSES_COLOUR = "#c9a04e";

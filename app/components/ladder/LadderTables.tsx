@@ -3,7 +3,9 @@
 import type { ReactNode } from "react";
 import type { Ladder, LadderAlternative } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
-import { checkLine, fixed, kvText, moneyText, verdictCue, verdictOf, verdictWords } from "./ladderText.ts";
+import { verdictCue, verdictOf, verdictWords } from "./ladderText.ts";
+import { checkLine } from "#app/lib/checkText.ts";
+import { fixed, kvText, moneyText } from "#app/lib/format.ts";
 
 type Cell = (a: LadderAlternative, index: number) => ReactNode;
 

@@ -4,7 +4,7 @@
 import { CartesianGrid, ComposedChart, Label, Line, ReferenceLine, Scatter, XAxis, YAxis } from "recharts";
 import type { Ladder } from "#solver/ladder.ts";
 import { axisLabel, axisTick, gridStroke, Marker, Sized, type AlternativeStyle } from "./chartParts.tsx";
-import { fixed, kvText } from "./ladderText.ts";
+import { fixed, kvText } from "#app/lib/format.ts";
 
 const SECTION_STYLE: AlternativeStyle = { colour: "#1f5f7a", marker: "circle" };
 const ALL_STYLE: AlternativeStyle = { colour: "#9a6a12", marker: "square" };

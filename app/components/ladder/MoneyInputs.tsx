@@ -3,7 +3,7 @@
 // same inputs that the study report prints.
 import { FormField } from "#app/components/FormField.tsx";
 import { lossLoadFactor, presentWorthFactor, type CostPoint, type MoneyInput } from "#solver/economics.ts";
-import { fixed, kvText } from "./ladderText.ts";
+import { fixed, kvText } from "#app/lib/format.ts";
 import type { FieldErrors, MoneyDraft, MoneyField } from "./studyDraft.ts";
 
 const FIELDS: { field: MoneyField; label: (currency: string) => string; hint: string }[] = [

@@ -6,7 +6,7 @@ import type { Ladder } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
 import { axisLabel, axisTick, gridStroke, Marker, Sized, styleOfAlternative } from "./chartParts.tsx";
 import { LegendMark } from "./LossPlot.tsx";
-import { fixed, kvText } from "./ladderText.ts";
+import { fixed, kvText } from "#app/lib/format.ts";
 
 const BAND_FILL = "var(--color-ok-wash, #e6f0e3)";
 const BAND_EDGE = "var(--color-ok, #2e7031)";

@@ -5,7 +5,7 @@ import { FieldError } from "#app/components/FormField.tsx";
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
 import type { Section } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
-import { fixed, kvText } from "./ladderText.ts";
+import { fixed, kvText } from "#app/lib/format.ts";
 
 export function SectionPicker({
   network,

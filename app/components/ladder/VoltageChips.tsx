@@ -3,7 +3,7 @@
 import { useId, useState, type FormEvent } from "react";
 import { FieldError } from "#app/components/FormField.tsx";
 import { CANDIDATE_RANGE_FACTOR, standardVoltage } from "#solver/iec60038.ts";
-import { kvText } from "./ladderText.ts";
+import { kvText } from "#app/lib/format.ts";
 import { readCandidateVoltage } from "./studyDraft.ts";
 
 export function VoltageChips({

@@ -1,83 +1,94 @@
-// The study report's tables of the solved network: buses, branches, fault levels and checks,
-// every quantity with its unit and every status with an icon and words.
-import { statusCue, upperLimitStatus, voltageStatus, type LimitStatus } from "#app/components/sheet/readingStatus.ts";
-import { checkLine, fixed, kvText } from "#app/components/ladder/ladderText.ts";
-import { DataTable, type DataTableProps } from "#app/components/DataTable.tsx";
-import type { BranchReading, SolveResult } from "#solver/results.ts";
-import type { Bus, Network } from "#solver/schema.ts";
-
-function Status({ status }: { status: LimitStatus | undefined }) {
-  if (!status) return <span className="ks-muted">no limit given</span>;
-  const cue = statusCue[status];
-  return (
-    <span className={`ks-status ks-status-${status}`}>
-      <span aria-hidden="true">{cue.icon}</span> {cue.words}
-    </span>
-  );
-}
-
-const nameOf = (network: Network, id: string) => network.buses.find((b) => b.id === id)?.name ?? id;
+// The study report's tables of the solved network: buses, branches, fault levels and checks, built
+// from the same rows and columns as the sheet's results and the CSV, every quantity with its unit
+// and every status with an icon and words.
+import { StatusText } from "#app/components/StatusText.tsx";
+import { DataTable, type Column } from "#app/components/DataTable.tsx";
+import { checkLine } from "#app/lib/checkText.ts";
+import { fixed, readingAgainstLimit, readingNumber, readingText } from "#app/lib/format.ts";
+import { statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
+import { QUANTITY_UNIT } from "#solver/quantities.ts";
+import {
+  BRANCH_KIND_WORDS,
+  branchColumns,
+  branchRows,
+  busColumns,
+  busRows,
+  faultColumns,
+  faultRows,
+  windingCurrents,
+  type BranchRow,
+  type BusRow,
+  type FaultRow,
+  type ResultColumn,
+} from "#solver/resultTables.ts";
+import type { SolveResult } from "#solver/results.ts";
+import type { Network } from "#solver/schema.ts";
 
 const REPORT_TABLE = "data-table ks-report-table";
 
+/** A shared results column as a report column; `cell` overrides how its value is written. */
+function shared<T>(column: ResultColumn<T>, cell?: (row: T) => React.ReactNode): Column<T> {
+  const quantity = column.quantity;
+  return {
+    header: column.header,
+    unit: quantity ? QUANTITY_UNIT[quantity] || undefined : undefined,
+    numeric: quantity !== undefined,
+    cell: cell ?? ((row) => (quantity ? readingNumber(column.value(row) as number | null, quantity) : String(column.value(row) ?? ""))),
+  };
+}
+
 export function BusTable({ network, result }: { network: Network; result: SolveResult }) {
-  const readings = new Map(result.loadFlow.buses.map((b) => [b.id, b]));
-  const columns: DataTableProps<Bus>["columns"] = [
-    { header: "Bus", cell: (bus) => bus.name },
-    { header: <>U<sub>n</sub></>, unit: "kV", numeric: true, cell: (bus) => fixed(bus.nominalKV, 2) },
-    { header: "V", unit: "pu", numeric: true, cell: (bus) => fixed(readings.get(bus.id)?.vPu, 4) },
-    { header: "V", unit: "kV", numeric: true, cell: (bus) => fixed(readings.get(bus.id)?.vKV, 2) },
-    { header: "Angle", unit: "°", numeric: true, cell: (bus) => fixed(readings.get(bus.id)?.angleDeg, 2) },
-    { header: "Band", unit: "pu", numeric: true, cell: (bus) => `${fixed(bus.vMinPu, 2)}–${fixed(bus.vMaxPu, 2)}` },
-    {
-      header: "Status",
-      cell: (bus) => {
-        const r = readings.get(bus.id);
-        return r ? <Status status={voltageStatus(r.vPu, bus.vMinPu, bus.vMaxPu)} /> : "–";
-      },
-    },
-  ];
-  return <DataTable className={REPORT_TABLE} caption="Bus voltages" columns={columns} rows={network.buses} rowKey={(bus) => bus.id} />;
+  const c = busColumns;
+  return (
+    <DataTable<BusRow>
+      className={REPORT_TABLE}
+      caption="Bus voltages"
+      columns={[
+        shared(c.name),
+        shared(c.vPu, (r) => readingAgainstLimit(r.vPu, [r.vMinPu, r.vMaxPu], "pu")),
+        { header: "Status", cell: (r) => <StatusText status={voltageStatus(r.vPu, r.vMinPu, r.vMaxPu)} /> },
+        shared(c.vKV),
+        shared(c.angleDeg),
+        { ...shared(c.nominalKV), header: <>U<sub>n</sub></> },
+        { header: "Band", unit: "pu", numeric: true, cell: (r) => `${fixed(r.vMinPu, 2)}–${fixed(r.vMaxPu, 2)}` },
+      ]}
+      rows={busRows(network, result)}
+      rowKey={(r) => r.id}
+    />
+  );
 }
 
 export function BranchTable({ network, result }: { network: Network; result: SolveResult }) {
-  const names = new Map([...network.lines, ...network.transformers].map((e) => [e.id, e.name]));
-  const kinds = new Map<string, string>([
-    ...network.lines.map((l): [string, string] => [l.id, l.kind === "cable" ? "cable" : "overhead line"]),
-    ...network.transformers.map((t): [string, string] => [t.id, "transformer"]),
-  ]);
-  const columns: DataTableProps<BranchReading>["columns"] = [
-    {
-      header: "Branch",
-      cell: (b) => (
-        <>
-          {names.get(b.id) ?? b.id}
-          <span className="ks-cell-note">{kinds.get(b.id)}</span>
-        </>
-      ),
-    },
-    { header: "From → to", cell: (b) => `${nameOf(network, b.fromBus)} → ${nameOf(network, b.toBus)}` },
-    { header: "P", unit: "MW", numeric: true, cell: (b) => fixed(b.pFromMW, 3) },
-    { header: "Q", unit: "Mvar", numeric: true, cell: (b) => fixed(b.qFromMvar, 3) },
-    { header: "I", unit: "A", numeric: true, cell: (b) => fixed(b.currentA, 1) },
-    { header: "Loading", unit: "%", numeric: true, cell: (b) => fixed(b.loadingPct, 1) },
-    { header: "Losses", unit: "kW", numeric: true, cell: (b) => fixed(b.lossKW, 1) },
-    { header: "Status", cell: (b) => <Status status={upperLimitStatus(b.loadingPct, b.loadingPct === null ? undefined : 100)} /> },
-  ];
+  const c = branchColumns;
+  const totals = result.loadFlow.totals;
   return (
-    <DataTable
+    <DataTable<BranchRow>
       className={REPORT_TABLE}
-      caption="Branch flows and losses (flows at the first-named end)"
-      columns={columns}
-      rows={result.loadFlow.branches}
-      rowKey={(b) => b.id}
+      caption="Branch flows and losses (each branch in the direction its active power flows; a transformer's current per winding)"
+      columns={[
+        shared(c.name, (r) => (
+          <>
+            {r.name}
+            <span className="ks-cell-note">{BRANCH_KIND_WORDS[r.kind]}</span>
+          </>
+        )),
+        shared(c.loadingPct, (r) => readingAgainstLimit(r.loadingPct, [100], "pct")),
+        { header: "Status", cell: (r) => <StatusText status={r.loadingPct === null ? undefined : upperLimitStatus(r.loadingPct, 100, "pct")} /> },
+        shared(c.pSendMW),
+        shared(c.qSendMvar),
+        shared(c.currentA, (r) => windingCurrents(r, (amps) => readingNumber(amps, "A"))),
+        shared(c.lossKW),
+        shared(c.route),
+      ]}
+      rows={branchRows(network, result)}
+      rowKey={(r) => r.id}
       foot={
         <tr>
           <th scope="row" colSpan={6}>
-            Losses in all (generation {fixed(result.loadFlow.totals.generationMW, 3)} MW, load {fixed(result.loadFlow.totals.loadMW, 3)} MW)
+            Losses in all (generation {readingText(totals.generationMW, "MW")}, load {readingText(totals.loadMW, "MW")})
           </th>
-          <td className="num">{fixed(result.loadFlow.totals.lossMW * 1000, 1)}</td>
-          <td>{fixed(result.loadFlow.totals.lossPct, 2)} % of generation</td>
+          <td className="num">{readingNumber(totals.lossMW * 1000, "kW")}</td>
+          <td>{readingNumber(totals.lossPct, "pct")} % of generation</td>
         </tr>
       }
     />
@@ -85,56 +96,41 @@ export function BranchTable({ network, result }: { network: Network; result: Sol
 }
 
 export function FaultTable({ network, result }: { network: Network; result: SolveResult }) {
-  const faults = new Map((result.faults?.buses ?? []).map((f) => [f.id, f]));
-  const fault = (bus: Bus) => faults.get(bus.id);
-  const columns: DataTableProps<Bus>["columns"] = [
-    {
-      header: "Bus",
-      cell: (bus) => (
-        <>
-          {bus.name}
-          <span className="ks-cell-note">{kvText(bus.nominalKV)}</span>
-        </>
-      ),
-    },
-    { header: "I″k3", unit: "kA", numeric: true, cell: (bus) => fixed(fault(bus)?.ik3kA, 2) },
-    { header: "S″k3", unit: "MVA", numeric: true, cell: (bus) => fixed(fault(bus)?.ik3MVA, 0) },
-    { header: <>i<sub>p</sub></>, unit: "kA", numeric: true, cell: (bus) => fixed(fault(bus)?.ip3kA, 2) },
-    {
-      header: "I″k1",
-      unit: "kA",
-      numeric: true,
-      cell: (bus) => {
-        const f = fault(bus);
-        return (
-          <>
-            {fixed(f?.ik1kA, 2)}
-            {f?.note ? <span className="ks-cell-note">{f.note}</span> : null}
-          </>
-        );
-      },
-    },
-    { header: "R/X", numeric: true, cell: (bus) => fixed(fault(bus)?.rOverX, 3) },
-    { header: "Breaking", unit: "kA", numeric: true, cell: (bus) => fixed(bus.breakingKA, 1) },
-    {
-      header: "Status",
-      cell: (bus) => {
-        const f = fault(bus);
-        return f ? <Status status={upperLimitStatus(Math.max(f.ik3kA, f.ik1kA), bus.breakingKA)} /> : "–";
-      },
-    },
-  ];
+  const c = faultColumns;
+  const againstBreaking = (kA: number | null, r: FaultRow) => (kA === null ? "unearthed" : readingAgainstLimit(kA, [r.breakingKA], "kA"));
   return (
-    <DataTable
+    <DataTable<FaultRow>
       className={REPORT_TABLE}
       caption={
         <>
           Initial short-circuit currents by IEC 60909-0 (maximum: c<sub>max</sub> 1.10 above 1 kV, 1.05 at or below)
         </>
       }
-      columns={columns}
-      rows={network.buses}
-      rowKey={(bus) => bus.id}
+      columns={[
+        {
+          header: "Bus",
+          cell: (r) => (
+            <>
+              {r.name}
+              <span className="ks-cell-note">{readingText(r.nominalKV, "kV")}</span>
+            </>
+          ),
+        },
+        shared(c.ik3kA, (r) => againstBreaking(r.ik3kA, r)),
+        shared(c.ik1kA, (r) => (
+          <>
+            {againstBreaking(r.ik1kA, r)}
+            {r.note ? <span className="ks-cell-note">{r.note}</span> : null}
+          </>
+        )),
+        { header: "Status", cell: (r) => <StatusText status={upperLimitStatus(Math.max(r.ik3kA, r.ik1kA ?? 0), r.breakingKA, "kA")} /> },
+        shared(c.breakingKA),
+        shared(c.ik3MVA),
+        { ...shared(c.ip3kA), header: <>i<sub>p</sub></> },
+        shared(c.rOverX),
+      ]}
+      rows={faultRows(network, result)}
+      rowKey={(r) => r.id}
     />
   );
 }

@@ -1,6 +1,6 @@
 // What each alternative of the saved study was asked to change beyond its voltage, as the
 // report prints it: conductor, taps and capital entries, or "as drawn".
-import { fixed, kvText, moneyText } from "#app/components/ladder/ladderText.ts";
+import { fixed, kvText, moneyText } from "#app/lib/format.ts";
 import type { AlternativeOverrides, Ladder } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
 

@@ -1,8 +1,8 @@
 // Checks: every limit the solved network breaks, or why it cannot be solved. Clicking an entry
 // selects the element on the sheet.
 import type { SheetIssue } from "./documentIssues.ts";
-import { fixed } from "./readingFormat.ts";
-import { statusCue } from "./readingStatus.ts";
+import { fixed } from "#app/lib/format.ts";
+import { statusCue } from "#app/lib/limitStatus.ts";
 import { useSheet, useSheetActions } from "./sheetStore.ts";
 
 function IssueList({ issues, lead }: { issues: SheetIssue[]; lead: string }) {

@@ -10,8 +10,27 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import type { Network } from "#solver/schema.ts";
-import { fixed } from "./readingFormat.ts";
-import { statusCue, upperLimitStatus, voltageStatus, type LimitStatus } from "./readingStatus.ts";
+import { StatusText } from "#app/components/StatusText.tsx";
+import { fixed, readingAgainstLimit, readingNumber } from "#app/lib/format.ts";
+import { statusSeverity, upperLimitStatus, voltageStatus, type LimitStatus } from "#app/lib/limitStatus.ts";
+import { QUANTITY_UNIT } from "#solver/quantities.ts";
+import {
+  BRANCH_KIND_WORDS,
+  branchColumns,
+  branchRows,
+  busColumns,
+  busRows,
+  faultColumns,
+  faultRows,
+  sourceColumns,
+  sourceRows,
+  windingCurrents,
+  type BranchRow,
+  type BusRow,
+  type FaultRow,
+  type ResultColumn,
+  type SourceRow,
+} from "#solver/resultTables.ts";
 import { useSheet, type Readings } from "./sheetStore.ts";
 
 const VoltageProfile = lazy(() => import("./VoltageProfile.tsx"));
@@ -22,42 +41,41 @@ export const RESULTS_CAUTION =
 interface ColumnMeta {
   numeric?: boolean;
   unit?: string;
+  /** The row's name: kept in view while the table scrolls sideways. */
+  sticky?: boolean;
 }
 
-const severity: Record<LimitStatus, number> = { within: 0, near: 1, beyond: 2 };
-
-function StatusCell({ status }: { status: LimitStatus | undefined }) {
-  if (!status) return <span className="ks-muted">no limit</span>;
-  const cue = statusCue[status];
-  return (
-    <span className={`ks-status-text ${cue.className}`}>
-      <span aria-hidden="true">{cue.icon}</span> {cue.words}
-    </span>
-  );
-}
-
-function num<T>(key: keyof T & string, header: string, unit: string, digits: number): ColumnDef<T> {
+/** A shared results column as a sortable column: figures at their quantity's precision. */
+function shared<T>(column: ResultColumn<T>, cell?: (row: T) => ReactNode): ColumnDef<T> {
+  const numeric = column.quantity !== undefined;
   return {
-    id: key,
-    accessorFn: (row) => row[key] as number | null,
-    header,
-    meta: { numeric: true, unit } satisfies ColumnMeta,
-    cell: (info) => fixed(info.getValue() as number | null, digits),
+    id: column.key,
+    accessorFn: (row) => column.value(row) ?? (numeric ? null : ""),
+    header: column.header,
+    meta: { numeric, unit: column.quantity ? QUANTITY_UNIT[column.quantity] : undefined } satisfies ColumnMeta,
+    cell: (info) => (cell ? cell(info.row.original) : numeric ? readingNumber(info.getValue() as number | null, column.quantity!) : String(info.getValue() ?? "")),
     sortUndefined: "last",
   };
 }
 
-function statusColumn<T extends { status: LimitStatus | undefined }>(): ColumnDef<T> {
+function named<T>(column: ResultColumn<T>): ColumnDef<T> {
+  return { ...shared(column), meta: { sticky: true } satisfies ColumnMeta };
+}
+
+function statusColumn<T>(statusOf: (row: T) => LimitStatus | undefined): ColumnDef<T> {
   return {
     id: "status",
-    accessorFn: (row) => (row.status ? severity[row.status] : -1),
+    accessorFn: (row) => {
+      const status = statusOf(row);
+      return status ? statusSeverity[status] : -1;
+    },
     header: "Status",
-    cell: (info) => <StatusCell status={info.row.original.status} />,
+    cell: (info) => <StatusText status={statusOf(info.row.original)} none="no limit" />,
   };
 }
 
-function text<T>(key: keyof T & string, header: string): ColumnDef<T> {
-  return { id: key, accessorFn: (row) => String(row[key] ?? ""), header };
+function cellClass(meta: ColumnMeta | undefined): string | undefined {
+  return [meta?.numeric ? "num" : "", meta?.sticky ? "ks-sticky-name" : ""].filter(Boolean).join(" ") || undefined;
 }
 
 function ResultsTable<T>({ caption, data, columns }: { caption: string; data: T[]; columns: ColumnDef<T>[] }) {
@@ -83,7 +101,7 @@ function ResultsTable<T>({ caption, data, columns }: { caption: string; data: T[
                 return (
                   <th
                     key={header.id}
-                    className={meta?.numeric ? "num" : undefined}
+                    className={cellClass(meta)}
                     aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
                     scope="col"
                   >
@@ -106,7 +124,7 @@ function ResultsTable<T>({ caption, data, columns }: { caption: string; data: T[
               {row.getVisibleCells().map((cell) => {
                 const meta = cell.column.columnDef.meta as ColumnMeta | undefined;
                 return (
-                  <td key={cell.id} className={meta?.numeric ? "num" : undefined}>
+                  <td key={cell.id} className={cellClass(meta)}>
                     {flexRender(cell.column.columnDef.cell, cell.getContext())}
                   </td>
                 );
@@ -119,143 +137,62 @@ function ResultsTable<T>({ caption, data, columns }: { caption: string; data: T[
   );
 }
 
-interface BusRow {
-  name: string;
-  nominalKV: number;
-  vKV: number;
-  vPu: number;
-  angleDeg: number;
-  band: string;
-  status: LimitStatus | undefined;
-}
-interface BranchRow {
-  name: string;
-  kind: string;
-  from: string;
-  to: string;
-  pFromMW: number;
-  qFromMvar: number;
-  pToMW: number;
-  qToMvar: number;
-  lossKW: number;
-  currentA: number;
-  loadingPct: number | null;
-  status: LimitStatus | undefined;
-}
-interface SourceRow {
-  name: string;
-  bus: string;
-  kind: string;
-  control: string;
-  pMW: number;
-  qMvar: number;
-}
-interface FaultRow {
-  name: string;
-  nominalKV: number;
-  ik3kA: number;
-  ik3MVA: number;
-  ip3kA: number;
-  ik1kA: number;
-  rOverX: number;
-  breakingKA: number | null;
-  status: LimitStatus | undefined;
-  note: string;
-}
+const bus = busColumns;
+const busTable: ColumnDef<BusRow>[] = [
+  named(bus.name),
+  shared(bus.vPu, (r) => readingAgainstLimit(r.vPu, [r.vMinPu, r.vMaxPu], "pu")),
+  statusColumn((r) => voltageStatus(r.vPu, r.vMinPu, r.vMaxPu)),
+  shared(bus.vKV),
+  shared(bus.angleDeg),
+  shared(bus.nominalKV),
+  { id: "band", accessorFn: (r) => `${r.vMinPu}–${r.vMaxPu}`, header: "Band (pu)" },
+];
 
-const busColumns: ColumnDef<BusRow>[] = [
-  text("name", "Bus"),
-  num("nominalKV", "Nominal", "kV", 1),
-  num("vKV", "Voltage", "kV", 3),
-  num("vPu", "Voltage", "pu", 4),
-  num("angleDeg", "Angle", "°", 2),
-  text("band", "Band (pu)"),
-  statusColumn(),
+const branch = branchColumns;
+const loadingStatus = (r: BranchRow) => (r.loadingPct === null ? undefined : upperLimitStatus(r.loadingPct, 100, "pct"));
+const branchTable: ColumnDef<BranchRow>[] = [
+  named(branch.name),
+  shared(branch.loadingPct, (r) => readingAgainstLimit(r.loadingPct, [100], "pct")),
+  statusColumn(loadingStatus),
+  shared(branch.pSendMW),
+  shared(branch.qSendMvar),
+  shared(branch.currentA, (r) => windingCurrents(r, (amps) => readingNumber(amps, "A"))),
+  shared(branch.lossKW),
+  shared(branch.route),
+  shared(branch.pReceiveMW),
+  shared(branch.qReceiveMvar),
+  { id: "kind", accessorFn: (r) => BRANCH_KIND_WORDS[r.kind], header: "Kind" },
 ];
-const branchColumns: ColumnDef<BranchRow>[] = [
-  text("name", "Branch"),
-  text("kind", "Kind"),
-  text("from", "From"),
-  text("to", "To"),
-  num("pFromMW", "P from", "MW", 3),
-  num("qFromMvar", "Q from", "Mvar", 3),
-  num("pToMW", "P to", "MW", 3),
-  num("qToMvar", "Q to", "Mvar", 3),
-  num("lossKW", "Loss", "kW", 1),
-  num("currentA", "Current", "A", 1),
-  num("loadingPct", "Loading", "%", 1),
-  statusColumn(),
+
+const source = sourceColumns;
+const sourceTable: ColumnDef<SourceRow>[] = [
+  named(source.name),
+  shared(source.pMW),
+  shared(source.qMvar),
+  shared(source.busName),
+  shared(source.kind),
+  shared(source.control),
 ];
-const sourceColumns: ColumnDef<SourceRow>[] = [
-  text("name", "Source"),
-  text("bus", "Bus"),
-  text("kind", "Kind"),
-  text("control", "Control"),
-  num("pMW", "P", "MW", 3),
-  num("qMvar", "Q", "Mvar", 3),
-];
-const faultColumns: ColumnDef<FaultRow>[] = [
-  text("name", "Bus"),
-  num("nominalKV", "Nominal", "kV", 1),
-  num("ik3kA", "I″k3", "kA", 3),
-  num("ik3MVA", "S″k3", "MVA", 1),
-  num("ip3kA", "ip", "kA", 3),
-  num("ik1kA", "I″k1", "kA", 3),
-  num("rOverX", "R/X", "", 3),
-  num("breakingKA", "Breaking", "kA", 1),
-  statusColumn(),
-  text("note", "Note"),
+
+const fault = faultColumns;
+const faultStatus = (r: FaultRow) => upperLimitStatus(Math.max(r.ik3kA, r.ik1kA ?? 0), r.breakingKA, "kA");
+const againstBreaking = (kA: number | null, r: FaultRow) => (kA === null ? "unearthed" : readingAgainstLimit(kA, [r.breakingKA], "kA"));
+const faultTable: ColumnDef<FaultRow>[] = [
+  named({ key: "name", header: "Bus", value: (r) => r.name }),
+  shared(fault.ik3kA, (r) => againstBreaking(r.ik3kA, r)),
+  shared(fault.ik1kA, (r) => againstBreaking(r.ik1kA, r)),
+  statusColumn(faultStatus),
+  shared(fault.breakingKA),
+  shared(fault.ik3MVA),
+  shared(fault.ip3kA),
+  shared(fault.rOverX),
+  shared({ key: "nominalKV", header: "Nominal", quantity: "kV", value: (r) => r.nominalKV }),
+  shared(fault.note),
 ];
 
 function rowsFor(doc: Network, readings: Readings) {
-  const busName = (id: string) => doc.buses.find((b) => b.id === id)?.name ?? id;
-  const buses: BusRow[] = doc.buses.flatMap((bus) => {
-    const r = readings.buses.get(bus.id);
-    if (!r) return [];
-    return [{ name: bus.name, nominalKV: bus.nominalKV, vKV: r.vKV, vPu: r.vPu, angleDeg: r.angleDeg, band: `${bus.vMinPu}–${bus.vMaxPu}`, status: voltageStatus(r.vPu, bus.vMinPu, bus.vMaxPu) }];
-  });
-  const branches: BranchRow[] = [...doc.transformers, ...doc.lines].flatMap((element) => {
-    const r = readings.branches.get(element.id);
-    if (!r) return [];
-    const isLine = "lengthKm" in element;
-    const rated = isLine ? element.ampacityA !== undefined : true;
-    return [{
-      name: element.name,
-      kind: isLine ? (element.kind === "cable" ? "cable" : "overhead line") : "transformer",
-      from: busName(r.fromBus),
-      to: busName(r.toBus),
-      pFromMW: r.pFromMW,
-      qFromMvar: r.qFromMvar,
-      pToMW: r.pToMW,
-      qToMvar: r.qToMvar,
-      lossKW: r.lossKW,
-      currentA: r.currentA,
-      loadingPct: r.loadingPct,
-      status: rated ? upperLimitStatus(r.loadingPct, 100) : undefined,
-    }];
-  });
-  const sources: SourceRow[] = doc.sources.flatMap((s) => {
-    const r = readings.sources.get(s.id);
-    if (!r) return [];
-    return [{ name: s.name, bus: busName(s.bus), kind: s.kind === "grid" ? "grid infeed" : "generator", control: s.control, pMW: r.pMW, qMvar: r.qMvar }];
-  });
-  const faults: FaultRow[] = doc.buses.flatMap((bus) => {
-    const f = readings.faults.get(bus.id);
-    if (!f) return [];
-    return [{
-      name: bus.name,
-      nominalKV: bus.nominalKV,
-      ik3kA: f.ik3kA,
-      ik3MVA: f.ik3MVA,
-      ip3kA: f.ip3kA,
-      ik1kA: f.ik1kA,
-      rOverX: f.rOverX,
-      breakingKA: bus.breakingKA ?? null,
-      status: upperLimitStatus(Math.max(f.ik3kA, f.ik1kA), bus.breakingKA),
-      note: f.note ?? "",
-    }];
-  });
-  return { buses, branches, sources, faults };
+  const result = readings.result;
+  return { buses: busRows(doc, result), branches: branchRows(doc, result), sources: sourceRows(doc, result), faults: faultRows(doc, result) };
 }
 
 type TabId = "buses" | "branches" | "sources" | "totals" | "faults" | "profile";
@@ -321,7 +258,7 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   } else if (active === "buses") {
     panel = (
       <>
-        <ResultsTable caption="Bus voltages" data={rows.buses} columns={busColumns} />
+        <ResultsTable caption="Bus voltages" data={rows.buses} columns={busTable} />
         <div className="ks-results-foot">
           <CsvLink table="buses" csvBase={csvFrom} revision={savedRevision} />
           <p className="ks-muted">
@@ -334,15 +271,19 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   } else if (active === "branches") {
     panel = (
       <>
-        <ResultsTable caption="Branch flows" data={rows.branches} columns={branchColumns} />
+        <ResultsTable caption="Branch flows" data={rows.branches} columns={branchTable} />
         <div className="ks-results-foot">
           <CsvLink table="branches" csvBase={csvFrom} revision={savedRevision} />
-          <p className="ks-muted">P and Q are measured into the branch at each end; loss is I²R for lines, copper plus core for transformers.</p>
+          <p className="ks-muted">
+            Each branch is listed in the direction its active power flows, as the drawing's arrows show: P and Q enter at the
+            first bus named, P out and Q out leave at the second. A transformer's current is given for each winding. Loss is
+            I²R for lines, copper plus core for transformers. The CSV keeps the network file's own from and to ends.
+          </p>
         </div>
       </>
     );
   } else if (active === "sources") {
-    panel = <ResultsTable caption="Source outputs" data={rows.sources} columns={sourceColumns} />;
+    panel = <ResultsTable caption="Source outputs" data={rows.sources} columns={sourceTable} />;
   } else if (active === "totals") {
     const totals = readings.result.loadFlow.totals;
     panel = (
@@ -359,7 +300,7 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   } else if (active === "faults") {
     panel = rows.faults.length ? (
       <>
-        <ResultsTable caption="Fault levels by IEC 60909-0" data={rows.faults} columns={faultColumns} />
+        <ResultsTable caption="Fault levels by IEC 60909-0" data={rows.faults} columns={faultTable} />
         <p className="ks-muted ks-results-foot">
           IEC 60909-0 equivalent voltage source at each bus, c max; the status compares the larger of I″k3 and I″k1 with the
           switchgear breaking current.

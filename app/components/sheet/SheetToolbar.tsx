@@ -1,5 +1,5 @@
 // The bar above the sheet: history, layout and view actions, the save state, the voltage legend.
-import { fixed } from "./readingFormat.ts";
+import { fixed } from "#app/lib/format.ts";
 import { afterNextPaint } from "./shortcuts.ts";
 import { useSheet, useSheetActions, useSheetHistory, type SaveStatus } from "./sheetStore.ts";
 import { voltageClasses } from "./voltageClasses.ts";

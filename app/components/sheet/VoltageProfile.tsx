@@ -4,8 +4,8 @@ import { useId, useMemo, useState } from "react";
 import { Area, CartesianGrid, ComposedChart, Line, ResponsiveContainer, Tooltip, XAxis, YAxis } from "recharts";
 import type { Network } from "#solver/schema.ts";
 import { chainEnds, chainTo } from "#solver/topology.ts";
-import { fixed } from "./readingFormat.ts";
-import { statusCue, voltageStatus } from "./readingStatus.ts";
+import { fixed } from "#app/lib/format.ts";
+import { statusCue, voltageStatus } from "#app/lib/limitStatus.ts";
 import type { Readings } from "./sheetStore.ts";
 
 export default function VoltageProfile({ document, readings }: { document: Network; readings: Readings }) {

@@ -4,8 +4,10 @@ import { memo, type ReactNode } from "react";
 import { Handle, Position, useConnection, type NodeProps } from "@xyflow/react";
 import type { Bus, Line, Load, Shunt, Source, Transformer } from "#solver/schema.ts";
 import type { SheetNode, Side, TerminalId } from "./flowModel.ts";
-import { fixed, flowArrow } from "./readingFormat.ts";
-import { statusCue, upperLimitStatus, voltageStatus, type LimitStatus } from "./readingStatus.ts";
+import { flowArrow } from "./readingFormat.ts";
+import { readingAgainstLimit, readingNumber } from "#app/lib/format.ts";
+import { UNEARTHED_NOTE } from "#solver/faults/index.ts";
+import { type LimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
 import { useSheet } from "./sheetStore.ts";
 import {
   CapacitorSymbol,
@@ -69,7 +71,8 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
   const barTopPx = data.height / 2 + bar.top;
   const barLengthPx = bar.bottom - bar.top;
   const vStatus = reading ? voltageStatus(reading.vPu, bus.vMinPu, bus.vMaxPu) : undefined;
-  const faultStatus = fault ? upperLimitStatus(Math.max(fault.ik3kA, fault.ik1kA), bus.breakingKA) : undefined;
+  const faultStatus = fault ? upperLimitStatus(Math.max(fault.ik3kA, fault.ik1kA), bus.breakingKA, "kA") : undefined;
+  const unearthed = fault?.note === UNEARTHED_NOTE;
   return (
     <div className="ks-node ks-bus" style={{ width: data.width, height: data.height }}>
       <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
@@ -90,16 +93,17 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
             {reading ? (
               <>
                 <div className={vStatus ? statusCue[vStatus].className : undefined}>
-                  {fixed(reading.vKV, 2)} kV <StatusMark status={vStatus} />
+                  {readingNumber(reading.vKV, "kV")} kV <StatusMark status={vStatus} />
                 </div>
                 <div>
-                  {fixed(reading.vPu, 3)} pu ∠ {fixed(reading.angleDeg, 1)}°
+                  {readingAgainstLimit(reading.vPu, [bus.vMinPu, bus.vMaxPu], "pu")} pu ∠ {readingNumber(reading.angleDeg, "deg")}°
                 </div>
               </>
             ) : null}
             {fault ? (
               <div className={`ks-fault ${faultStatus ? statusCue[faultStatus].className : ""}`}>
-                Ik3 {fixed(fault.ik3kA, 2)} · Ik1 {fixed(fault.ik1kA, 2)} kA <StatusMark status={faultStatus} />
+                I″k3 {readingAgainstLimit(fault.ik3kA, [bus.breakingKA], "kA")} kA · I″k1 {unearthed ? "unearthed" : `${readingAgainstLimit(fault.ik1kA, [bus.breakingKA], "kA")} kA`}{" "}
+                <StatusMark status={faultStatus} />
               </div>
             ) : null}
           </ReadingBlock>
@@ -114,21 +118,21 @@ function BranchReadings({ id, fromSide, reversed, ratedLoading }: { id: string; 
   if (!reading) return null;
   // The reading's from-end may be the element's other terminal (a transformer reads HV to LV).
   const side: Side = reversed ? (fromSide === "left" ? "right" : "left") : fromSide;
-  const loading = ratedLoading ? upperLimitStatus(reading.loadingPct, 100) : undefined;
+  const loading = ratedLoading ? upperLimitStatus(reading.loadingPct, 100, "pct") : undefined;
   return (
     <ReadingBlock>
       <div>
         <span aria-label={`active power ${reading.pFromMW >= 0 ? "forward" : "reverse"}`}>{flowArrow(reading.pFromMW, side)}</span>{" "}
-        {fixed(Math.abs(reading.pFromMW), 2)} MW{" "}
+        {readingNumber(Math.abs(reading.pFromMW), "MW")} MW{" "}
         <span aria-label={`reactive power ${reading.qFromMvar >= 0 ? "forward" : "reverse"}`}>{flowArrow(reading.qFromMvar, side)}</span>{" "}
-        {fixed(Math.abs(reading.qFromMvar), 2)} Mvar
+        {readingNumber(Math.abs(reading.qFromMvar), "Mvar")} Mvar
       </div>
       <div className={loading ? statusCue[loading].className : undefined}>
-        loss {fixed(reading.lossKW, reading.lossKW < 100 ? 1 : 0)} kW
+        loss {readingNumber(reading.lossKW, "kW")} kW
         {reading.loadingPct !== null ? (
           <>
             {" "}
-            · {fixed(reading.loadingPct, 0)} % <StatusMark status={loading} />
+            · {readingAgainstLimit(reading.loadingPct, [100], "pct")} % <StatusMark status={loading} />
           </>
         ) : null}
       </div>
@@ -208,7 +212,7 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
       {reading ? (
         <ReadingBlock>
           <div>
-            {fixed(reading.pMW, 2)} MW · {fixed(reading.qMvar, 2)} Mvar
+            {readingNumber(reading.pMW, "MW")} MW · {readingNumber(reading.qMvar, "Mvar")} Mvar
           </div>
         </ReadingBlock>
       ) : null}

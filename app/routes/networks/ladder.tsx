@@ -4,7 +4,7 @@ import type { Route } from "./+types/ladder";
 import { AlternativeInputs } from "#app/components/ladder/AlternativeInputs.tsx";
 import { CostPlot } from "#app/components/ladder/CostPlot.tsx";
 import { LadderComparison, SensitivityTable } from "#app/components/ladder/LadderTables.tsx";
-import { kvText } from "#app/components/ladder/ladderText.ts";
+import { kvText } from "#app/lib/format.ts";
 import { LossPlot } from "#app/components/ladder/LossPlot.tsx";
 import { MoneyInputs, UnitCostNote } from "#app/components/ladder/MoneyInputs.tsx";
 import { defaultProfileEnd, ProfilePlot } from "#app/components/ladder/ProfilePlot.tsx";

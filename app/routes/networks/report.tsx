@@ -2,7 +2,7 @@ import { Link } from "react-router";
 import type { Route } from "./+types/report";
 import { CostPlot } from "#app/components/ladder/CostPlot.tsx";
 import { LadderComparison, SensitivityTable } from "#app/components/ladder/LadderTables.tsx";
-import { fixed, kvText } from "#app/components/ladder/ladderText.ts";
+import { fixed, kvText } from "#app/lib/format.ts";
 import { LossPlot } from "#app/components/ladder/LossPlot.tsx";
 import { MoneySummary, UnitCostNote } from "#app/components/ladder/MoneyInputs.tsx";
 import { defaultProfileEnd, ProfilePlot } from "#app/components/ladder/ProfilePlot.tsx";

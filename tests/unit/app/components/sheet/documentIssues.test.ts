@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { validateNetwork, type Network } from "#solver/schema.ts";
 import { documentIssues } from "#app/components/sheet/documentIssues.ts";
 import { placePart } from "#app/components/sheet/sheetEdits.ts";
-import { NEAR_LIMIT_FRACTION, upperLimitStatus, voltageStatus, worstStatus } from "#app/components/sheet/readingStatus.ts";
+import { NEAR_LIMIT_FRACTION, upperLimitStatus, voltageStatus, worstStatus } from "#app/lib/limitStatus.ts";
 
 function demo(): Network {
   const parsed = validateNetwork(JSON.parse(readFileSync("tests/fixtures/tarn-head-calder-flats.json", "utf8")));
@@ -58,11 +58,11 @@ describe("reading status (near a limit = within 2 % of it)", () => {
   });
 
   it("grades loading and fault current against an upper limit", () => {
-    expect(upperLimitStatus(97, 100)).toBe("within");
-    expect(upperLimitStatus(98, 100)).toBe("near");
-    expect(upperLimitStatus(100.5, 100)).toBe("beyond");
-    expect(upperLimitStatus(null, 100)).toBeUndefined();
-    expect(upperLimitStatus(12, undefined)).toBeUndefined();
+    expect(upperLimitStatus(97, 100, "pct")).toBe("within");
+    expect(upperLimitStatus(98, 100, "pct")).toBe("near");
+    expect(upperLimitStatus(100.5, 100, "pct")).toBe("beyond");
+    expect(upperLimitStatus(null, 100, "pct")).toBeUndefined();
+    expect(upperLimitStatus(12, undefined, "pct")).toBeUndefined();
   });
 
   it("takes the worst of several", () => {
