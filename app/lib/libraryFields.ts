@@ -2,6 +2,7 @@
 // from the reading of the form so the page does not load the unit parser into the browser.
 import type { LibraryTypeKind } from "./libraryTypes.ts";
 import type { QuantityKind } from "./units.ts";
+import { FIELD_CATALOGUE, type CatalogueKey } from "./fieldCatalogue.ts";
 
 export interface LibraryField {
   name: string;
@@ -12,23 +13,29 @@ export interface LibraryField {
   hint?: string;
 }
 
+/** A quantity field labelled and unit-ed as the network file's field of the same name. */
+function quantity(name: CatalogueKey, options: Pick<LibraryField, "optional" | "hint"> = {}): LibraryField {
+  const entry: { label: string; quantity?: QuantityKind } = FIELD_CATALOGUE[name];
+  return { name, label: entry.label, kind: entry.quantity, ...options };
+}
+
 export const libraryFields: Record<LibraryTypeKind, LibraryField[]> = {
   transformer: [
-    { name: "ratedMVA", label: "Rated power", kind: "MVA", hint: "e.g. 25 MVA or 630 kVA" },
-    { name: "hvKV", label: "HV winding", kind: "kV" },
-    { name: "lvKV", label: "LV winding", kind: "kV" },
-    { name: "impedancePct", label: "Impedance u_k", kind: "pct" },
-    { name: "loadLossKW", label: "Load (copper) loss", kind: "kW", optional: true },
-    { name: "noLoadLossKW", label: "No-load (core) loss", kind: "kW", optional: true },
-    { name: "xOverR", label: "X/R", kind: "ratio", optional: true, hint: "used when the load loss is not given" },
+    quantity("ratedMVA", { hint: "e.g. 25 MVA or 630 kVA" }),
+    quantity("hvKV"),
+    quantity("lvKV"),
+    quantity("impedancePct"),
+    quantity("loadLossKW", { optional: true }),
+    quantity("noLoadLossKW", { optional: true }),
+    quantity("xOverR", { optional: true, hint: "used when the load loss is not given" }),
     { name: "vectorGroup", label: "Vector group", optional: true, hint: "e.g. YNd11, Dyn11" },
   ],
   conductor: [
     { name: "kind", label: "Construction", choices: ["overhead", "cable"] },
     { name: "frequencyHz", label: "Impedances given at", choices: ["50", "60"], hint: "Hz" },
-    { name: "rOhmPerKm", label: "Resistance R", kind: "ohmPerKm" },
-    { name: "xOhmPerKm", label: "Reactance X", kind: "ohmPerKm" },
-    { name: "bMicroSiemensPerKm", label: "Susceptance B", kind: "microSiemensPerKm", optional: true },
-    { name: "ampacityA", label: "Ampacity", kind: "A" },
+    quantity("rOhmPerKm"),
+    quantity("xOhmPerKm"),
+    quantity("bMicroSiemensPerKm", { optional: true }),
+    quantity("ampacityA"),
   ],
 };

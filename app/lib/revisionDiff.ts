@@ -2,6 +2,8 @@
 // removed and changed, each change field by field with its unit ("Length: 48 km → 52 km").
 // Pure: the revisions page, the API and the tests call it with two validated documents.
 import type { Network } from "#solver/schema.ts";
+import { QUANTITY_UNIT } from "#solver/quantities.ts";
+import { catalogueField, FIELD_CATALOGUE } from "./fieldCatalogue.ts";
 import { ELEMENT_COLLECTIONS, KIND_LABEL, KIND_OF_COLLECTION, type ElementCollection } from "./networkElements.ts";
 
 type Value = string | number | boolean | null | undefined;
@@ -38,75 +40,10 @@ export interface RevisionDiff {
   unchanged: number;
 }
 
-const UNIT_BY_SUFFIX: readonly [RegExp, string][] = [
-  [/MicroSiemensPerKm$/, "µS/km"],
-  [/OhmPerKm$/, "Ω/km"],
-  [/MVA$/, "MVA"],
-  [/Mvar$/, "Mvar"],
-  [/MW$/, "MW"],
-  [/KW$/, "kW"],
-  [/KV$/, "kV"],
-  [/KA$/, "kA"],
-  [/Pct$/, "%"],
-  [/Pu$/, "pu"],
-  [/Km$/, "km"],
-  [/Deg$/, "°"],
-  [/Hz$/, "Hz"],
-  [/^ampacityA$/, "A"],
-];
-
 export function unitOfField(field: string): string | null {
-  return UNIT_BY_SUFFIX.find(([pattern]) => pattern.test(field))?.[1] ?? null;
+  const entry = catalogueField(field);
+  return entry?.unit ?? (entry?.quantity ? QUANTITY_UNIT[entry.quantity] || null : null);
 }
-
-const LABELS: Record<string, string> = {
-  name: "Name",
-  frequencyHz: "Frequency",
-  baseMVA: "Power base",
-  nominalKV: "Nominal voltage",
-  vMinPu: "Lowest allowed voltage",
-  vMaxPu: "Highest allowed voltage",
-  breakingKA: "Switchgear breaking current",
-  position: "Place on the sheet",
-  bus: "Bus",
-  kind: "Kind",
-  control: "Control",
-  voltagePu: "Voltage set point",
-  angleDeg: "Voltage angle",
-  pMW: "Active power",
-  qMvar: "Reactive power",
-  qMinMvar: "Lowest reactive power",
-  qMaxMvar: "Highest reactive power",
-  shortCircuitMVA: "Short-circuit power",
-  xOverR: "X/R",
-  z0OverZ1: "Z0/Z1",
-  ratedMVA: "Rated power",
-  ratedKV: "Rated voltage",
-  xdSubtransientPct: "Subtransient reactance x\"d",
-  ratedPowerFactor: "Rated power factor",
-  hvBus: "HV bus",
-  lvBus: "LV bus",
-  hvKV: "HV winding voltage",
-  lvKV: "LV winding voltage",
-  impedancePct: "Short-circuit impedance uk",
-  loadLossKW: "Load loss",
-  noLoadLossKW: "No-load loss",
-  tapPct: "Tap position",
-  tapMinPct: "Lowest tap",
-  tapMaxPct: "Highest tap",
-  tapStepPct: "Tap step",
-  vectorGroup: "Vector group",
-  fromBus: "From bus",
-  toBus: "To bus",
-  lengthKm: "Length",
-  rOhmPerKm: "Resistance R'",
-  xOhmPerKm: "Reactance X'",
-  bMicroSiemensPerKm: "Susceptance B'",
-  r0OhmPerKm: "Zero-sequence resistance R0'",
-  x0OhmPerKm: "Zero-sequence reactance X0'",
-  ampacityA: "Ampacity",
-  model: "Load model",
-};
 
 const BUS_REFERENCES = new Set(["bus", "hvBus", "lvBus", "fromBus", "toBus"]);
 /** x and y are one fact to a reader (where the symbol sits), shown as one change. */
@@ -125,7 +62,7 @@ function fieldChange(field: string, from: Value, to: Value, texts?: { fromText: 
   const unit = unitOfField(field);
   return {
     field,
-    label: LABELS[field] ?? field,
+    label: catalogueField(field)?.label ?? field,
     unit,
     from,
     to,
@@ -144,8 +81,8 @@ function positionText(element: AnyElement): string {
   return element.x === undefined && element.y === undefined ? "(not placed)" : `x ${element.x ?? "–"}, y ${element.y ?? "–"}`;
 }
 
-/** Field order: the label table's order (the document's reading order), then any others by name. */
-const FIELD_ORDER = new Map(Object.keys(LABELS).map((field, i) => [field, i]));
+/** Field order: the catalogue's order (the document's reading order), then any others by name. */
+const FIELD_ORDER = new Map(Object.keys(FIELD_CATALOGUE).map((field, i) => [field, i]));
 function byFieldOrder(a: string, b: string): number {
   return (FIELD_ORDER.get(a) ?? 1000) - (FIELD_ORDER.get(b) ?? 1000) || a.localeCompare(b);
 }

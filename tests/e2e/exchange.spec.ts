@@ -129,7 +129,7 @@ test("team library: the owner adds a type, a viewer only reads", async ({ page, 
   await section.getByLabel("Rated power (MVA)").fill("20 MVA");
   await section.getByLabel("HV winding (kV)").fill("66");
   await section.getByLabel("LV winding (kV)").fill("11");
-  await section.getByLabel("Impedance u_k (%)").fill("10");
+  await section.getByLabel("Short-circuit impedance uₖ (%)").fill("10");
   await section.getByRole("button", { name: "Add type" }).click();
   await expect(page.getByText('Saved "Calder 20 MVA".')).toBeVisible();
   await expect(page.getByRole("cell", { name: "Calder 20 MVA", exact: true })).toBeVisible();

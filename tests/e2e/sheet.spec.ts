@@ -91,7 +91,7 @@ test("an editor draws the hydro chain from a blank sheet with the UI only; the l
   await page.keyboard.press("4"); // step-up transformer, terminals connected with the mouse below
   await setField(page, "Name", "Tarn Head step-up");
   await setField(page, "Rated power", "25 MVA");
-  await setField(page, "Short-circuit impedance u_k", "8.5 %");
+  await setField(page, "Short-circuit impedance uₖ", "8.5 %");
   await setField(page, "Load (copper) loss at rated current", "118 kW");
   await setField(page, "Vector group", "YNd11");
   await sheet.click({ position: { x: 10, y: 10 } });
@@ -135,7 +135,7 @@ test("an editor draws the hydro chain from a blank sheet with the UI only; the l
   await page.locator(".ks-details").getByLabel("HV busbar", { exact: true }).selectOption({ label: "Calder Flats 66 kV · 66 kV" });
   await page.locator(".ks-details").getByLabel("LV busbar", { exact: true }).selectOption({ label: "Calder Flats 11 kV · 11 kV" });
   await setField(page, "Rated power", "25 MVA");
-  await setField(page, "Short-circuit impedance u_k", "8.5 %");
+  await setField(page, "Short-circuit impedance uₖ", "8.5 %");
   await setField(page, "Load (copper) loss at rated current", "115 kW");
   await setField(page, "Tap (HV winding)", "-7.5 %");
 

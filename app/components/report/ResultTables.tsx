@@ -26,6 +26,15 @@ import type { Network } from "#solver/schema.ts";
 
 const REPORT_TABLE = "data-table ks-report-table";
 
+/** A wide table scrolls sideways in its own box on screen, its first column (the names) kept in view. */
+function Scroll({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <div className="ks-table-scroll ks-report-scroll" tabIndex={0} role="region" aria-label={label}>
+      {children}
+    </div>
+  );
+}
+
 /** A shared results column as a report column; `cell` overrides how its value is written. */
 function shared<T>(column: ResultColumn<T>, cell?: (row: T) => React.ReactNode): Column<T> {
   const quantity = column.quantity;
@@ -40,21 +49,23 @@ function shared<T>(column: ResultColumn<T>, cell?: (row: T) => React.ReactNode):
 export function BusTable({ network, result }: { network: Network; result: SolveResult }) {
   const c = busColumns;
   return (
-    <DataTable<BusRow>
-      className={REPORT_TABLE}
-      caption="Bus voltages"
-      columns={[
-        shared(c.name),
-        shared(c.vPu, (r) => readingAgainstLimit(r.vPu, [r.vMinPu, r.vMaxPu], "pu")),
-        { header: "Status", cell: (r) => <StatusText status={voltageStatus(r.vPu, r.vMinPu, r.vMaxPu)} /> },
-        shared(c.vKV),
-        shared(c.angleDeg),
-        { ...shared(c.nominalKV), header: <>U<sub>n</sub></> },
-        { header: "Band", unit: "pu", numeric: true, cell: (r) => `${fixed(r.vMinPu, 2)}–${fixed(r.vMaxPu, 2)}` },
-      ]}
-      rows={busRows(network, result)}
-      rowKey={(r) => r.id}
-    />
+    <Scroll label="Bus voltages">
+      <DataTable<BusRow>
+        className={REPORT_TABLE}
+        caption="Bus voltages"
+        columns={[
+          shared(c.name),
+          shared(c.vPu, (r) => readingAgainstLimit(r.vPu, [r.vMinPu, r.vMaxPu], "pu")),
+          { header: "Status", cell: (r) => <StatusText status={voltageStatus(r.vPu, r.vMinPu, r.vMaxPu)} /> },
+          shared(c.vKV),
+          shared(c.angleDeg),
+          { ...shared(c.nominalKV), header: <>U<sub>n</sub></> },
+          { header: "Band", unit: "pu", numeric: true, cell: (r) => `${fixed(r.vMinPu, 2)}–${fixed(r.vMaxPu, 2)}` },
+        ]}
+        rows={busRows(network, result)}
+        rowKey={(r) => r.id}
+      />
+    </Scroll>
   );
 }
 
@@ -62,36 +73,38 @@ export function BranchTable({ network, result }: { network: Network; result: Sol
   const c = branchColumns;
   const totals = result.loadFlow.totals;
   return (
-    <DataTable<BranchRow>
-      className={REPORT_TABLE}
-      caption="Branch flows and losses (each branch in the direction its active power flows; a transformer's current per winding)"
-      columns={[
-        shared(c.name, (r) => (
-          <>
-            {r.name}
-            <span className="ks-cell-note">{BRANCH_KIND_WORDS[r.kind]}</span>
-          </>
-        )),
-        shared(c.loadingPct, (r) => readingAgainstLimit(r.loadingPct, [100], "pct")),
-        { header: "Status", cell: (r) => <StatusText status={r.loadingPct === null ? undefined : upperLimitStatus(r.loadingPct, 100, "pct")} /> },
-        shared(c.pSendMW),
-        shared(c.qSendMvar),
-        shared(c.currentA, (r) => windingCurrents(r, (amps) => readingNumber(amps, "A"))),
-        shared(c.lossKW),
-        shared(c.route),
-      ]}
-      rows={branchRows(network, result)}
-      rowKey={(r) => r.id}
-      foot={
-        <tr>
-          <th scope="row" colSpan={6}>
-            Losses in all (generation {readingText(totals.generationMW, "MW")}, load {readingText(totals.loadMW, "MW")})
-          </th>
-          <td className="num">{readingNumber(totals.lossMW * 1000, "kW")}</td>
-          <td>{readingNumber(totals.lossPct, "pct")} % of generation</td>
-        </tr>
-      }
-    />
+    <Scroll label="Branch flows and losses">
+      <DataTable<BranchRow>
+        className={REPORT_TABLE}
+        caption="Branch flows and losses (each branch in the direction its active power flows; a transformer's current per winding)"
+        columns={[
+          shared(c.name, (r) => (
+            <>
+              {r.name}
+              <span className="ks-cell-note">{BRANCH_KIND_WORDS[r.kind]}</span>
+            </>
+          )),
+          shared(c.loadingPct, (r) => readingAgainstLimit(r.loadingPct, [100], "pct")),
+          { header: "Status", cell: (r) => <StatusText status={r.loadingPct === null ? undefined : upperLimitStatus(r.loadingPct, 100, "pct")} /> },
+          shared(c.pSendMW),
+          shared(c.qSendMvar),
+          shared(c.currentA, (r) => windingCurrents(r, (amps) => readingNumber(amps, "A"))),
+          shared(c.lossKW),
+          shared(c.route),
+        ]}
+        rows={branchRows(network, result)}
+        rowKey={(r) => r.id}
+        foot={
+          <tr>
+            <th scope="row" colSpan={6}>
+              Losses in all (generation {readingText(totals.generationMW, "MW")}, load {readingText(totals.loadMW, "MW")})
+            </th>
+            <td className="num">{readingNumber(totals.lossMW * 1000, "kW")}</td>
+            <td>{readingNumber(totals.lossPct, "pct")} % of generation</td>
+          </tr>
+        }
+      />
+    </Scroll>
   );
 }
 
@@ -99,39 +112,41 @@ export function FaultTable({ network, result }: { network: Network; result: Solv
   const c = faultColumns;
   const againstBreaking = (kA: number | null, r: FaultRow) => (kA === null ? "unearthed" : readingAgainstLimit(kA, [r.breakingKA], "kA"));
   return (
-    <DataTable<FaultRow>
-      className={REPORT_TABLE}
-      caption={
-        <>
-          Initial short-circuit currents by IEC 60909-0 (maximum: c<sub>max</sub> 1.10 above 1 kV, 1.05 at or below)
-        </>
-      }
-      columns={[
-        {
-          header: "Bus",
-          cell: (r) => (
-            <>
-              {r.name}
-              <span className="ks-cell-note">{readingText(r.nominalKV, "kV")}</span>
-            </>
-          ),
-        },
-        shared(c.ik3kA, (r) => againstBreaking(r.ik3kA, r)),
-        shared(c.ik1kA, (r) => (
+    <Scroll label="Short-circuit currents">
+      <DataTable<FaultRow>
+        className={REPORT_TABLE}
+        caption={
           <>
-            {againstBreaking(r.ik1kA, r)}
-            {r.note ? <span className="ks-cell-note">{r.note}</span> : null}
+            Initial short-circuit currents by IEC 60909-0 (maximum: c<sub>max</sub> 1.10 above 1 kV, 1.05 at or below)
           </>
-        )),
-        { header: "Status", cell: (r) => <StatusText status={upperLimitStatus(Math.max(r.ik3kA, r.ik1kA ?? 0), r.breakingKA, "kA")} /> },
-        shared(c.breakingKA),
-        shared(c.ik3MVA),
-        { ...shared(c.ip3kA), header: <>i<sub>p</sub></> },
-        shared(c.rOverX),
-      ]}
-      rows={faultRows(network, result)}
-      rowKey={(r) => r.id}
-    />
+        }
+        columns={[
+          {
+            header: "Bus",
+            cell: (r) => (
+              <>
+                {r.name}
+                <span className="ks-cell-note">{readingText(r.nominalKV, "kV")}</span>
+              </>
+            ),
+          },
+          shared(c.ik3kA, (r) => againstBreaking(r.ik3kA, r)),
+          shared(c.ik1kA, (r) => (
+            <>
+              {againstBreaking(r.ik1kA, r)}
+              {r.note ? <span className="ks-cell-note">{r.note}</span> : null}
+            </>
+          )),
+          { header: "Status", cell: (r) => <StatusText status={upperLimitStatus(Math.max(r.ik3kA, r.ik1kA ?? 0), r.breakingKA, "kA")} /> },
+          shared(c.breakingKA),
+          shared(c.ik3MVA),
+          { ...shared(c.ip3kA), header: <>i<sub>p</sub></> },
+          shared(c.rOverX),
+        ]}
+        rows={faultRows(network, result)}
+        rowKey={(r) => r.id}
+      />
+    </Scroll>
   );
 }
 

@@ -114,7 +114,7 @@ interface Edge {
 function branchDetails(network: Network, edge: Edge): string[] {
   if (edge.kind === "transformer") {
     const t = network.transformers.find((tr) => tr.id === edge.id)!;
-    return [`${num(t.ratedMVA)} MVA, ${num(t.hvKV)}/${num(t.lvKV)} kV`, `uk ${num(t.impedancePct, 2)} %, ${t.vectorGroup}, tap ${signed(t.tapPct)} %`];
+    return [`${num(t.ratedMVA)} MVA, ${num(t.hvKV)}/${num(t.lvKV)} kV`, `uₖ ${num(t.impedancePct, 2)} %, ${t.vectorGroup}, tap ${signed(t.tapPct)} %`];
   }
   const l = network.lines.find((ln) => ln.id === edge.id)!;
   return [`${num(l.lengthKm)} km ${l.kind === "cable" ? "cable" : "overhead"}`, `${num(l.rOhmPerKm, 4)} + j${num(l.xOhmPerKm, 4)} Ω/km`];

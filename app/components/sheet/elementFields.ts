@@ -11,6 +11,7 @@ import {
   type Source,
 } from "#solver/schema.ts";
 import type { QuantityKind } from "#app/lib/unitFormat.ts";
+import { FIELD_CATALOGUE, type CatalogueField, type CatalogueKey } from "#app/lib/fieldCatalogue.ts";
 import type { TerminalId } from "./flowModel.ts";
 import { type AnyElement, type ElementKind } from "#app/lib/networkElements.ts";
 
@@ -31,15 +32,21 @@ export const elementSchemas: Record<ElementKind, z.ZodType> = {
 
 const name: FieldDef = { type: "text", key: "name", label: "Name" };
 
+/** A quantity field labelled and unit-ed as the field catalogue says. */
+function quantity(key: CatalogueKey, options: { optional?: boolean; hint?: string; label?: string } = {}): FieldDef {
+  const entry: CatalogueField = FIELD_CATALOGUE[key];
+  return { type: "quantity", key, label: options.label ?? entry.label, unit: entry.quantity!, optional: options.optional, hint: options.hint };
+}
+
 export function fieldsFor(kind: ElementKind, element: AnyElement): FieldDef[] {
   switch (kind) {
     case "bus":
       return [
         name,
-        { type: "quantity", key: "nominalKV", label: "Nominal voltage", unit: "kV" },
-        { type: "quantity", key: "vMinPu", label: "Lowest voltage allowed", unit: "pu" },
-        { type: "quantity", key: "vMaxPu", label: "Highest voltage allowed", unit: "pu" },
-        { type: "quantity", key: "breakingKA", label: "Switchgear breaking current", unit: "kA", optional: true },
+        quantity("nominalKV"),
+        quantity("vMinPu"),
+        quantity("vMaxPu"),
+        quantity("breakingKA", { optional: true }),
       ];
     case "source":
       return sourceFields(element as Source);
@@ -48,19 +55,19 @@ export function fieldsFor(kind: ElementKind, element: AnyElement): FieldDef[] {
         name,
         { type: "bus", key: "hvBus", label: "HV busbar", terminal: "hv" },
         { type: "bus", key: "lvBus", label: "LV busbar", terminal: "lv" },
-        { type: "quantity", key: "ratedMVA", label: "Rated power", unit: "MVA" },
-        { type: "quantity", key: "hvKV", label: "HV winding", unit: "kV" },
-        { type: "quantity", key: "lvKV", label: "LV winding", unit: "kV" },
-        { type: "quantity", key: "impedancePct", label: "Short-circuit impedance u_k", unit: "pct" },
-        { type: "quantity", key: "xOverR", label: "X/R", unit: "ratio", optional: true, hint: "used when the load loss is not given" },
-        { type: "quantity", key: "loadLossKW", label: "Load (copper) loss at rated current", unit: "kW", optional: true },
-        { type: "quantity", key: "noLoadLossKW", label: "No-load (core) loss", unit: "kW", optional: true },
-        { type: "quantity", key: "tapPct", label: "Tap (HV winding)", unit: "pct", hint: "+2.5 % means 2.5 % more HV turns" },
-        { type: "quantity", key: "tapMinPct", label: "Lowest tap", unit: "pct", optional: true },
-        { type: "quantity", key: "tapMaxPct", label: "Highest tap", unit: "pct", optional: true },
-        { type: "quantity", key: "tapStepPct", label: "Tap step", unit: "pct", optional: true },
+        quantity("ratedMVA"),
+        quantity("hvKV"),
+        quantity("lvKV"),
+        quantity("impedancePct"),
+        quantity("xOverR", { optional: true, hint: "used when the load loss is not given" }),
+        quantity("loadLossKW", { optional: true }),
+        quantity("noLoadLossKW", { optional: true }),
+        quantity("tapPct", { hint: "+2.5 % means 2.5 % more HV turns" }),
+        quantity("tapMinPct", { optional: true }),
+        quantity("tapMaxPct", { optional: true }),
+        quantity("tapStepPct", { optional: true }),
         { type: "text", key: "vectorGroup", label: "Vector group" },
-        { type: "quantity", key: "z0OverZ1", label: "Z0/Z1", unit: "ratio", optional: true },
+        quantity("z0OverZ1", { optional: true }),
       ];
     case "line":
       return [
@@ -76,20 +83,20 @@ export function fieldsFor(kind: ElementKind, element: AnyElement): FieldDef[] {
         },
         { type: "bus", key: "fromBus", label: "From busbar", terminal: "from" },
         { type: "bus", key: "toBus", label: "To busbar", terminal: "to" },
-        { type: "quantity", key: "lengthKm", label: "Length", unit: "km" },
-        { type: "quantity", key: "rOhmPerKm", label: "Resistance r", unit: "ohmPerKm" },
-        { type: "quantity", key: "xOhmPerKm", label: "Reactance x", unit: "ohmPerKm" },
-        { type: "quantity", key: "bMicroSiemensPerKm", label: "Shunt susceptance b", unit: "microSiemensPerKm", optional: true },
-        { type: "quantity", key: "ampacityA", label: "Ampacity", unit: "A", optional: true },
-        { type: "quantity", key: "r0OhmPerKm", label: "Zero-sequence r0", unit: "ohmPerKm", optional: true, hint: "3 × r when empty" },
-        { type: "quantity", key: "x0OhmPerKm", label: "Zero-sequence x0", unit: "ohmPerKm", optional: true, hint: "3 × x when empty" },
+        quantity("lengthKm"),
+        quantity("rOhmPerKm"),
+        quantity("xOhmPerKm"),
+        quantity("bMicroSiemensPerKm", { optional: true }),
+        quantity("ampacityA", { optional: true }),
+        quantity("r0OhmPerKm", { optional: true, hint: "3 × r when empty" }),
+        quantity("x0OhmPerKm", { optional: true, hint: "3 × x when empty" }),
       ];
     case "load":
       return [
         name,
         { type: "bus", key: "bus", label: "Busbar", terminal: "t" },
-        { type: "quantity", key: "pMW", label: "Active power P", unit: "MW" },
-        { type: "quantity", key: "qMvar", label: "Reactive power Q", unit: "Mvar" },
+        quantity("pMW"),
+        quantity("qMvar"),
         {
           type: "choice",
           key: "model",
@@ -105,7 +112,7 @@ export function fieldsFor(kind: ElementKind, element: AnyElement): FieldDef[] {
       return [
         name,
         { type: "bus", key: "bus", label: "Busbar", terminal: "t" },
-        { type: "quantity", key: "qMvar", label: "Reactive power at 1 pu", unit: "Mvar", hint: "positive for a capacitor" },
+        quantity("qMvar", { label: "Reactive power at 1 pu", hint: "positive for a capacitor" }),
       ];
   }
 }
@@ -134,28 +141,28 @@ function sourceFields(source: Source): FieldDef[] {
       ],
     },
   ];
-  if (source.control !== "pq") fields.push({ type: "quantity", key: "voltagePu", label: "Voltage set point", unit: "pu" });
-  if (source.control === "slack") fields.push({ type: "quantity", key: "angleDeg", label: "Angle", unit: "deg" });
-  if (source.control !== "slack") fields.push({ type: "quantity", key: "pMW", label: "Active power P", unit: "MW" });
-  if (source.control === "pq") fields.push({ type: "quantity", key: "qMvar", label: "Reactive power Q", unit: "Mvar" });
+  if (source.control !== "pq") fields.push(quantity("voltagePu"));
+  if (source.control === "slack") fields.push(quantity("angleDeg"));
+  if (source.control !== "slack") fields.push(quantity("pMW"));
+  if (source.control === "pq") fields.push(quantity("qMvar"));
   if (source.control === "pv")
     fields.push(
-      { type: "quantity", key: "qMinMvar", label: "Lowest Q", unit: "Mvar", optional: true },
-      { type: "quantity", key: "qMaxMvar", label: "Highest Q", unit: "Mvar", optional: true },
+      quantity("qMinMvar", { optional: true }),
+      quantity("qMaxMvar", { optional: true }),
     );
   if (source.kind === "grid")
     fields.push(
-      { type: "quantity", key: "shortCircuitMVA", label: "Short-circuit power S″kQ", unit: "MVA" },
-      { type: "quantity", key: "xOverR", label: "X/R", unit: "ratio", optional: true },
-      { type: "quantity", key: "z0OverZ1", label: "Z0/Z1", unit: "ratio", optional: true },
+      quantity("shortCircuitMVA"),
+      quantity("xOverR", { optional: true }),
+      quantity("z0OverZ1", { optional: true }),
     );
   else
     fields.push(
-      { type: "quantity", key: "ratedMVA", label: "Rated power", unit: "MVA" },
-      { type: "quantity", key: "ratedKV", label: "Rated voltage", unit: "kV", optional: true },
-      { type: "quantity", key: "xdSubtransientPct", label: "Subtransient reactance x″d", unit: "pct" },
-      { type: "quantity", key: "xOverR", label: "X/R", unit: "ratio", optional: true },
-      { type: "quantity", key: "ratedPowerFactor", label: "Rated power factor", unit: "ratio", optional: true },
+      quantity("ratedMVA"),
+      quantity("ratedKV", { optional: true }),
+      quantity("xdSubtransientPct"),
+      quantity("xOverR", { optional: true }),
+      quantity("ratedPowerFactor", { optional: true }),
     );
   return fields;
 }

@@ -13,6 +13,7 @@ import type { RowError } from "#app/lib/imports/csvTable.ts";
 import { previewLibraryCsv, type LibraryTypeChange } from "#app/lib/imports/libraryCsv.ts";
 import { removeLibraryType, saveLibraryTypes, teamHasLibraryType, teamLibrary, type LibraryEntry } from "#app/lib/library.server.ts";
 import { libraryFields, type LibraryField } from "#app/lib/libraryFields.ts";
+import { unitLabel } from "#app/lib/unitFormat.ts";
 import { readTypeForm } from "#app/lib/libraryForm.ts";
 import type { LibraryTypeKind } from "#app/lib/libraryTypes.ts";
 import { roleAllows } from "#app/lib/permissions.server.ts";
@@ -114,8 +115,7 @@ function fieldValue(entry: LibraryEntry | undefined, name: string): string {
 }
 
 function unitOf(field: LibraryField): string {
-  const units: Record<string, string> = { MVA: "MVA", kV: "kV", pct: "%", kW: "kW", ohmPerKm: "Ω/km", microSiemensPerKm: "µS/km", A: "A" };
-  return field.kind ? (units[field.kind] ?? "") : "";
+  return field.kind ? unitLabel(field.kind) : "";
 }
 
 function TypeForm({ kind, entry, result }: { kind: LibraryTypeKind; entry?: LibraryEntry; result?: ActionResult }) {

@@ -1,0 +1,66 @@
+// Every field of the network file as a person reads it: its label and the quantity (hence unit)
+// it holds, defined once for Details on the sheet, the team library's forms, revision differences
+// and the report. A field a form shows differently (a hint, optional) says so where it is used.
+import type { Quantity } from "#solver/quantities.ts";
+
+export interface CatalogueField {
+  label: string;
+  quantity?: Quantity;
+  /** A unit that is not one of the readings' quantities (the network's frequency). */
+  unit?: string;
+}
+
+export const FIELD_CATALOGUE = {
+  name: { label: "Name" },
+  frequencyHz: { label: "Frequency", unit: "Hz" },
+  baseMVA: { label: "Power base", quantity: "MVA" },
+  nominalKV: { label: "Nominal voltage", quantity: "kV" },
+  vMinPu: { label: "Lowest voltage allowed", quantity: "pu" },
+  vMaxPu: { label: "Highest voltage allowed", quantity: "pu" },
+  breakingKA: { label: "Switchgear breaking current", quantity: "kA" },
+  position: { label: "Place on the sheet" },
+  bus: { label: "Busbar" },
+  kind: { label: "Kind" },
+  control: { label: "Control" },
+  voltagePu: { label: "Voltage set point", quantity: "pu" },
+  angleDeg: { label: "Angle", quantity: "deg" },
+  pMW: { label: "Active power P", quantity: "MW" },
+  qMvar: { label: "Reactive power Q", quantity: "Mvar" },
+  qMinMvar: { label: "Lowest Q", quantity: "Mvar" },
+  qMaxMvar: { label: "Highest Q", quantity: "Mvar" },
+  shortCircuitMVA: { label: "Short-circuit power S″kQ", quantity: "MVA" },
+  xOverR: { label: "X/R", quantity: "ratio" },
+  z0OverZ1: { label: "Z0/Z1", quantity: "ratio" },
+  ratedMVA: { label: "Rated power", quantity: "MVA" },
+  ratedKV: { label: "Rated voltage", quantity: "kV" },
+  xdSubtransientPct: { label: "Subtransient reactance x″d", quantity: "pct" },
+  ratedPowerFactor: { label: "Rated power factor", quantity: "ratio" },
+  hvBus: { label: "HV busbar" },
+  lvBus: { label: "LV busbar" },
+  hvKV: { label: "HV winding", quantity: "kV" },
+  lvKV: { label: "LV winding", quantity: "kV" },
+  impedancePct: { label: "Short-circuit impedance uₖ", quantity: "pct" },
+  loadLossKW: { label: "Load (copper) loss at rated current", quantity: "kW" },
+  noLoadLossKW: { label: "No-load (core) loss", quantity: "kW" },
+  tapPct: { label: "Tap (HV winding)", quantity: "pct" },
+  tapMinPct: { label: "Lowest tap", quantity: "pct" },
+  tapMaxPct: { label: "Highest tap", quantity: "pct" },
+  tapStepPct: { label: "Tap step", quantity: "pct" },
+  vectorGroup: { label: "Vector group" },
+  fromBus: { label: "From busbar" },
+  toBus: { label: "To busbar" },
+  lengthKm: { label: "Length", quantity: "km" },
+  rOhmPerKm: { label: "Resistance r", quantity: "ohmPerKm" },
+  xOhmPerKm: { label: "Reactance x", quantity: "ohmPerKm" },
+  bMicroSiemensPerKm: { label: "Shunt susceptance b", quantity: "microSiemensPerKm" },
+  ampacityA: { label: "Ampacity", quantity: "A" },
+  r0OhmPerKm: { label: "Zero-sequence r0", quantity: "ohmPerKm" },
+  x0OhmPerKm: { label: "Zero-sequence x0", quantity: "ohmPerKm" },
+  model: { label: "Voltage dependence" },
+} satisfies Record<string, CatalogueField>;
+
+export type CatalogueKey = keyof typeof FIELD_CATALOGUE;
+
+export function catalogueField(key: string): CatalogueField | undefined {
+  return (FIELD_CATALOGUE as Record<string, CatalogueField>)[key];
+}
