@@ -74,6 +74,18 @@ export function roundTo(value: number, decimals: number): number {
   return rounded === 0 ? 0 : rounded;
 }
 
+/**
+ * The decimals a value is shown with beside limits it is judged against: more than its
+ * quantity's own where those would make it read as equal to a limit it is not equal to (451 A
+ * over 450 A reads 100.2 %, not 100 %), at most six.
+ */
+export function decimalsAgainstLimits(value: number, limits: readonly (number | undefined)[], quantity: Quantity): number {
+  let decimals = decimalsFor(value, SHOWN_PRECISION[quantity]);
+  const hides = (d: number) => limits.some((limit) => limit !== undefined && limit !== value && roundTo(value, d) === roundTo(limit, d));
+  while (decimals < 6 && hides(decimals)) decimals++;
+  return decimals;
+}
+
 /** The value a reader sees: what limits are judged on, so a flag never contradicts its number. */
 export function roundShown(value: number, quantity: Quantity): number {
   return roundTo(value, decimalsFor(value, SHOWN_PRECISION[quantity]));

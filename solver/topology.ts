@@ -132,3 +132,44 @@ export function connectedGroups(network: Topology, options: { linesOnly?: boolea
   }
   return { adjacency, group, count };
 }
+
+/**
+ * Each bus's distance in branches from the nearest slack source; a group without a slack counts
+ * from its first bus. The order a left-to-right arrangement follows.
+ */
+export function distanceFromSlack(network: Topology): Map<string, number> {
+  const adjacency = branchAdjacency(network);
+  const n = adjacency.busIds.length;
+  const distance = new Int32Array(n).fill(-1);
+  const queue = new Int32Array(n);
+  let head = 0;
+  let tail = 0;
+  const start = (at: number | undefined) => {
+    if (at === undefined || distance[at] !== -1) return;
+    distance[at] = 0;
+    queue[tail++] = at;
+  };
+  const spread = () => {
+    while (head < tail) {
+      const bus = queue[head++];
+      for (let k = adjacency.start[bus]; k < adjacency.start[bus + 1]; k++) {
+        const next = adjacency.neighbour[k];
+        if (distance[next] === -1) {
+          distance[next] = distance[bus] + 1;
+          queue[tail++] = next;
+        }
+      }
+    }
+  };
+  for (const id of slackBusIds(network)) start(adjacency.position.get(id));
+  spread();
+  for (let i = 0; i < n; i++) {
+    start(adjacency.position.get(adjacency.busIds[i]));
+    spread();
+  }
+  const byId = new Map<string, number>();
+  adjacency.busIds.forEach((id, i) => {
+    if (!byId.has(id)) byId.set(id, distance[i]);
+  });
+  return byId;
+}

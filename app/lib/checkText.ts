@@ -32,8 +32,16 @@ function valueText(check: Check): string {
   }
 }
 
+/** The element index of a network, built once however many checks are written about it. */
+const indexes = new WeakMap<Network, ReturnType<typeof indexElements>>();
+function elementsOf(network: Network): ReturnType<typeof indexElements> {
+  let index = indexes.get(network);
+  if (!index) indexes.set(network, (index = indexElements(network)));
+  return index;
+}
+
 /** One line per check: the element by name, what is wrong, and the value against its limit. */
 export function checkLine(check: Check, network: Network): string {
-  const name = indexElements(network).get(check.element)?.element.name ?? "an element";
+  const name = elementsOf(network).get(check.element)?.element.name ?? "an element";
   return check.kind === "not-converged" ? `${CHECK_WORDS[check.kind]} (${valueText(check)})` : `${name}: ${CHECK_WORDS[check.kind]}, ${valueText(check)}`;
 }

@@ -1,7 +1,7 @@
 // Number and date formatting fixed to one locale and UTC, so the server's render and the
 // browser's hydration print the same text. Readings take their precision from their quantity
 // (#solver/quantities.ts), so the sheet, the ladder and the report print a value alike.
-import { decimalsFor, QUANTITY_UNIT, roundTo, SHOWN_PRECISION, type Quantity } from "#solver/quantities.ts";
+import { decimalsAgainstLimits, decimalsFor, QUANTITY_UNIT, SHOWN_PRECISION, type Quantity } from "#solver/quantities.ts";
 const dateTime = new Intl.DateTimeFormat("en-GB", {
   day: "numeric",
   month: "short",
@@ -55,10 +55,7 @@ export function readingText(value: number | null | undefined, quantity: Quantity
  */
 export function readingAgainstLimit(value: number | null | undefined, limits: readonly (number | undefined)[], quantity: Quantity): string {
   if (value === null || value === undefined || !Number.isFinite(value)) return "–";
-  let decimals = decimalsFor(value, SHOWN_PRECISION[quantity]);
-  const hides = (d: number) => limits.some((limit) => limit !== undefined && limit !== value && roundTo(value, d) === roundTo(limit, d));
-  while (decimals < 6 && hides(decimals)) decimals++;
-  return fixed(value, decimals);
+  return fixed(value, decimalsAgainstLimits(value, limits, quantity));
 }
 
 export const kvText = (voltageKV: number) => `${Number(voltageKV.toPrecision(6))} kV`;

@@ -1,7 +1,7 @@
 // Status of a reading against its limit: within, near (within 2 % of the limit) or beyond, judged
 // on the value as shown (see readingAgainstLimit), so a flag never contradicts the number beside it.
 // Status is always shown with an icon and words as well as colour.
-import { roundShown, type Quantity } from "#solver/quantities.ts";
+import { decimalsAgainstLimits, roundTo, type Quantity } from "#solver/quantities.ts";
 
 export type LimitStatus = "within" | "near" | "beyond";
 
@@ -39,8 +39,7 @@ export function upperLimitStatus(value: number | null | undefined, limit: number
  * precision would make it equal to a limit it is not equal to.
  */
 function roundShownAgainst(value: number, limits: number[], quantity: Quantity): number {
-  const shown = roundShown(value, quantity);
-  return limits.some((limit) => shown === limit && value !== limit) ? value : shown;
+  return roundTo(value, decimalsAgainstLimits(value, limits, quantity));
 }
 
 export function worstStatus(statuses: (LimitStatus | undefined)[]): LimitStatus | undefined {

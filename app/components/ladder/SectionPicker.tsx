@@ -4,8 +4,9 @@ import { useId } from "react";
 import { FieldError } from "#app/components/FormField.tsx";
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
 import type { Section } from "#solver/ladder.ts";
-import type { Network } from "#solver/schema.ts";
-import { fixed, kvText } from "#app/lib/format.ts";
+import type { Line, Network } from "#solver/schema.ts";
+import { indexElements } from "#solver/elements.ts";
+import { kvText, readingText } from "#app/lib/format.ts";
 
 export function SectionPicker({
   network,
@@ -61,28 +62,32 @@ export function SectionPicker({
 }
 
 function SectionSummary({ network, section }: { network: Network; section: Section }) {
-  const name = (id: string, list: readonly { id: string; name: string }[]) => list.find((e) => e.id === id)?.name ?? id;
-  const lines = section.lineIds.map((id) => network.lines.find((l) => l.id === id)!);
+  const elements = indexElements(network);
+  const name = (id: string) => elements.get(id)?.element.name ?? "an element not in this revision";
+  const lines = section.lineIds.flatMap((id) => {
+    const entry = elements.get(id);
+    return entry?.kind === "line" ? [entry.element as Line] : [];
+  });
   return (
     <dl className="ks-section-summary" aria-live="polite">
       <dt>Present voltage</dt>
       <dd>{kvText(section.nominalKV)}</dd>
       <dt>Buses re-rated</dt>
-      <dd>{section.busIds.map((id) => name(id, network.buses)).join(", ")}</dd>
+      <dd>{section.busIds.map(name).join(", ")}</dd>
       <dt>Lines</dt>
       <dd>
         {lines.length === 0
           ? "none: only the windings change"
-          : lines.map((l) => `${l.name} (${fixed(l.lengthKm, 1)} km ${l.kind === "cable" ? "cable" : "overhead"})`).join(", ")}
+          : lines.map((l) => `${l.name} (${readingText(l.lengthKm, "km")} ${l.kind === "cable" ? "cable" : "overhead"})`).join(", ")}
       </dd>
       <dt>Windings re-rated</dt>
       <dd>
         {section.facingWindings.length === 0
           ? "none"
-          : section.facingWindings.map((w) => `${w.winding.toUpperCase()} of ${name(w.transformerId, network.transformers)}`).join(", ")}
+          : section.facingWindings.map((w) => `${w.winding.toUpperCase()} of ${name(w.transformerId)}`).join(", ")}
       </dd>
       <dt>Fault levels reported at</dt>
-      <dd>{section.endBusIds.map((id) => name(id, network.buses)).join(", ")}</dd>
+      <dd>{section.endBusIds.map(name).join(", ")}</dd>
     </dl>
   );
 }

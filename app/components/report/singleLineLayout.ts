@@ -111,17 +111,33 @@ interface Edge {
   b: string;
 }
 
-function branchDetails(network: Network, edge: Edge): string[] {
+type Transformer = Network["transformers"][number];
+type Line = Network["lines"][number];
+
+function branchDetails(transformers: Map<string, Transformer>, lines: Map<string, Line>, edge: Edge): string[] {
   if (edge.kind === "transformer") {
-    const t = network.transformers.find((tr) => tr.id === edge.id)!;
+    const t = transformers.get(edge.id)!;
     return [`${num(t.ratedMVA)} MVA, ${num(t.hvKV)}/${num(t.lvKV)} kV`, `uₖ ${num(t.impedancePct, 2)} %, ${t.vectorGroup}, tap ${signed(t.tapPct)} %`];
   }
-  const l = network.lines.find((ln) => ln.id === edge.id)!;
+  const l = lines.get(edge.id)!;
   return [`${num(l.lengthKm)} km ${l.kind === "cable" ? "cable" : "overhead"}`, `${num(l.rOhmPerKm, 4)} + j${num(l.xOhmPerKm, 4)} Ω/km`];
 }
 
+/** Appends to the list kept under `key`, making the list on first use: no copying per append. */
+function pushTo<K, V>(map: Map<K, V[]>, key: K, value: V): void {
+  const list = map.get(key);
+  if (list) list.push(value);
+  else map.set(key, [value]);
+}
+
+/**
+ * Linear in the size of the network: every walk is iterative (no recursion, so a chain of any
+ * length fits the stack) and every lookup goes through a map built once.
+ */
 export function layoutSingleLine(network: Network): SingleLineLayout {
   const busById = new Map(network.buses.map((b) => [b.id, b]));
+  const transformerById = new Map(network.transformers.map((t) => [t.id, t]));
+  const lineById = new Map(network.lines.map((l) => [l.id, l]));
   const edges: Edge[] = [
     ...network.transformers.map((t) => ({ id: t.id, name: t.name, kind: "transformer" as const, a: t.hvBus, b: t.lvBus })),
     ...network.lines.map((l) => ({ id: l.id, name: l.name, kind: l.kind, a: l.fromBus, b: l.toBus })),
@@ -129,8 +145,8 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
   // Branches in drawing order: as they lead away from the source, transformers and lines alike in file order.
   const edgesAt = new Map<string, Edge[]>();
   for (const e of edges) {
-    edgesAt.set(e.a, [...(edgesAt.get(e.a) ?? []), e]);
-    edgesAt.set(e.b, [...(edgesAt.get(e.b) ?? []), e]);
+    pushTo(edgesAt, e.a, e);
+    pushTo(edgesAt, e.b, e);
   }
 
   const slackBuses = network.sources.filter((s) => s.control === "slack" && busById.has(s.bus)).map((s) => s.bus);
@@ -146,14 +162,14 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
     rootOrder.push(root);
     column.set(root, 0);
     const queue = [root];
-    while (queue.length > 0) {
-      const bus = queue.shift()!;
+    for (let head = 0; head < queue.length; head++) {
+      const bus = queue[head];
       for (const edge of edgesAt.get(bus) ?? []) {
         const other = edge.a === bus ? edge.b : edge.a;
         if (column.has(other)) continue;
         column.set(other, column.get(bus)! + 1);
         treeEdge.add(edge.id);
-        children.set(bus, [...(children.get(bus) ?? []), { edge, child: other }]);
+        pushTo(children, bus, { edge, child: other });
         queue.push(other);
       }
     }
@@ -161,11 +177,11 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
 
   const leftSources = new Map<string, typeof network.sources>();
   const rightItems = new Map<string, { id: string; name: string; kind: AttachmentKind; details: string[] }[]>();
-  const addRight = (bus: string, item: { id: string; name: string; kind: AttachmentKind; details: string[] }) =>
-    rightItems.set(bus, [...(rightItems.get(bus) ?? []), item]);
+  const addRight = (bus: string, item: { id: string; name: string; kind: AttachmentKind; details: string[] }) => pushTo(rightItems, bus, item);
+  const isRoot = new Set(rootOrder);
   for (const s of network.sources) {
     if (!busById.has(s.bus)) continue;
-    if (rootOrder.includes(s.bus) && s.control === "slack") leftSources.set(s.bus, [...(leftSources.get(s.bus) ?? []), s]);
+    if (isRoot.has(s.bus) && s.control === "slack") pushTo(leftSources, s.bus, s);
     else addRight(s.bus, { id: s.id, name: s.name, kind: s.kind, details: sourceDetails(s) });
   }
   for (const ld of network.loads) {
@@ -181,23 +197,36 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
   const attachmentRow = new Map<string, number>();
   let nextRow = 0;
   // Depth first: a bus's children in turn, then what hangs off it; each takes rows from nextRow.
-  // The bus bar spans only the rows where something connects to it, not its subtree's.
-  const place = (bus: string) => {
-    const first = nextRow;
-    let last = first + Math.max(1, leftSources.get(bus)?.length ?? 0) - 1;
-    for (const { edge, child } of children.get(bus) ?? []) {
-      branchRow.set(edge.id, nextRow);
-      last = Math.max(last, nextRow);
-      place(child);
+  // The bus bar spans only the rows where something connects to it, not its subtree's. An
+  // explicit stack of the buses being placed stands in for recursion.
+  interface Placing {
+    bus: string;
+    first: number;
+    last: number;
+    nextChild: number;
+  }
+  const open = (bus: string): Placing => ({ bus, first: nextRow, last: nextRow + Math.max(1, leftSources.get(bus)?.length ?? 0) - 1, nextChild: 0 });
+  for (const root of rootOrder) {
+    const stack: Placing[] = [open(root)];
+    while (stack.length > 0) {
+      const top = stack[stack.length - 1];
+      const below = children.get(top.bus) ?? [];
+      if (top.nextChild < below.length) {
+        const { edge, child } = below[top.nextChild++];
+        branchRow.set(edge.id, nextRow);
+        top.last = Math.max(top.last, nextRow);
+        stack.push(open(child));
+        continue;
+      }
+      for (const item of rightItems.get(top.bus) ?? []) {
+        attachmentRow.set(item.id, nextRow);
+        top.last = Math.max(top.last, nextRow++);
+      }
+      nextRow = Math.max(nextRow, top.last + 1);
+      rowSpan.set(top.bus, { first: top.first, last: top.last });
+      stack.pop();
     }
-    for (const item of rightItems.get(bus) ?? []) {
-      attachmentRow.set(item.id, nextRow);
-      last = Math.max(last, nextRow++);
-    }
-    nextRow = Math.max(nextRow, last + 1);
-    rowSpan.set(bus, { first, last });
-  };
-  for (const root of rootOrder) place(root);
+  }
 
   const xOf = (bus: string) => LEFT_MARGIN + column.get(bus)! * COLUMN_WIDTH;
   const yOf = (row: number) => TOP_MARGIN + row * ROW_HEIGHT;
@@ -233,8 +262,8 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
         y: yOf(branchRow.get(edge.id)!),
         nameLines: wrapName(edge.name),
         hvOnLeft: edge.kind === "transformer" ? edge.a === bus : true,
-        tapChanger: edge.kind === "transformer" && isOnLoadTapChanger(network, edge.id),
-        details: branchDetails(network, edge),
+        tapChanger: edge.kind === "transformer" && isOnLoadTapChanger(transformerById.get(edge.id)!),
+        details: branchDetails(transformerById, lineById, edge),
       });
     }
   }
@@ -243,9 +272,10 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
 
   const lastRow = Math.max(0, nextRow - 1);
   const loopEdges = edges.filter((e) => !treeEdge.has(e.id));
+  const placedById = new Map(buses.map((b) => [b.id, b]));
   const loops: LoopBranch[] = loopEdges.map((e, i) => {
-    const from = buses.find((b) => b.id === e.a)!;
-    const to = buses.find((b) => b.id === e.b)!;
+    const from = placedById.get(e.a)!;
+    const to = placedById.get(e.b)!;
     return {
       id: e.id,
       name: e.name,
@@ -259,9 +289,9 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
       y: yOf(lastRow) + ROW_HEIGHT * (0.6 + i * 0.75),
       fromKV: from.nominalKV,
       toKV: to.nominalKV,
-      tapChanger: e.kind === "transformer" && isOnLoadTapChanger(network, e.id),
+      tapChanger: e.kind === "transformer" && isOnLoadTapChanger(transformerById.get(e.id)!),
       nameLines: wrapName(e.name),
-      details: branchDetails(network, e),
+      details: branchDetails(transformerById, lineById, e),
     };
   });
 
@@ -314,8 +344,15 @@ export function layoutSingleLine(network: Network): SingleLineLayout {
         : [a.x, a.x + ATTACHMENT_TEXT_OFFSET + labelWidth(a.nameLines, a.details)],
     ),
   ];
-  const minX = Math.min(...extents.map((e) => e[0])) - 8;
-  const maxX = Math.max(...extents.map((e) => e[1])) + 8;
+  // A loop, not Math.min(...list): spreading 100,000 arguments overflows the stack.
+  let minX = Infinity;
+  let maxX = -Infinity;
+  for (const [left, right] of extents) {
+    if (left < minX) minX = left;
+    if (right > maxX) maxX = right;
+  }
+  minX -= 8;
+  maxX += 8;
   const loopDepth = loops.length > 0 ? loops[loops.length - 1].y + 70 : 0;
   return {
     minX,
@@ -350,7 +387,6 @@ function sourceDetails(s: Network["sources"][number]): string[] {
 }
 
 /** A transformer with a tap range is drawn with the tap changer's arrow, as on the sheet. */
-function isOnLoadTapChanger(network: Network, transformerId: string): boolean {
-  const t = network.transformers.find((tr) => tr.id === transformerId)!;
+function isOnLoadTapChanger(t: Transformer): boolean {
   return t.tapMinPct !== undefined || t.tapMaxPct !== undefined;
 }

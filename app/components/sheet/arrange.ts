@@ -13,44 +13,9 @@ import {
   type SheetLayout,
   type XY,
 } from "./flowModel.ts";
+import { distanceFromSlack } from "#solver/topology.ts";
 
 const snap = (v: number) => Math.round(v / GRID_PX) * GRID_PX;
-
-/** Buses in order of distance (in branches) from the slack sources, which come first. */
-function distanceFromSlack(content: SheetContent): Map<string, number> {
-  const doc = content.document;
-  const neighbours = new Map<string, string[]>();
-  const link = (a: string, b: string) => {
-    if (!a || !b) return;
-    neighbours.set(a, [...(neighbours.get(a) ?? []), b]);
-    neighbours.set(b, [...(neighbours.get(b) ?? []), a]);
-  };
-  doc.lines.forEach((l) => link(l.fromBus, l.toBus));
-  doc.transformers.forEach((t) => link(t.hvBus, t.lvBus));
-  const distance = new Map<string, number>();
-  const queue: string[] = [];
-  const start = (busId: string) => {
-    if (!distance.has(busId) && doc.buses.some((b) => b.id === busId)) {
-      distance.set(busId, 0);
-      queue.push(busId);
-    }
-  };
-  doc.sources.filter((s) => s.control === "slack").forEach((s) => start(s.bus));
-  for (let round = 0; round < 2; round++) {
-    while (queue.length) {
-      const bus = queue.shift()!;
-      for (const next of neighbours.get(bus) ?? []) {
-        if (!distance.has(next)) {
-          distance.set(next, distance.get(bus)! + 1);
-          queue.push(next);
-        }
-      }
-    }
-    // Groups without a slack start from their first bus.
-    doc.buses.forEach((b) => start(b.id));
-  }
-  return distance;
-}
 
 export function arrangeLeftToRight(content: SheetContent): SheetContent {
   const geometry = sheetGeometry(content.document, content.layout);
@@ -63,7 +28,7 @@ export function arrangeLeftToRight(content: SheetContent): SheetContent {
     if (entry.kind === "bus") graph.setNode(id, { width: 24, height: Math.max(80, 40 * (wiresPerBus.get(id) ?? 0)) });
     else graph.setNode(id, { ...partSize(entry.kind), width: partSize(entry.kind).width + 40 });
   }
-  const distance = distanceFromSlack(content);
+  const distance = distanceFromSlack(content.document);
   for (const [id, entry] of geometry.entries) {
     if (entry.kind === "bus") continue;
     const buses = terminalsOf(entry.kind)

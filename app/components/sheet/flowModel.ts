@@ -145,19 +145,24 @@ function defaultOffsets(entries: Map<string, ElementEntry>, busCenters: Map<stri
     for (const busId of buses) occupy(busId, center.x < busCenters.get(busId)!.x ? "left" : "right", center.y);
   }
 
-  for (const { id, entry, busId } of waiting) {
+  // A bar whose slots are all taken stays full: later elements skip the search (a bus with
+  // thousands of loads would otherwise search every slot for each of them).
+  const full = new Set<string>();
+  nextElement: for (const { id, entry, busId } of waiting) {
+    if (full.has(busId)) continue;
     const bar = busCenters.get(busId)!;
     const preferred: Side = entry.kind === "source" ? "left" : "right";
     const other: Side = preferred === "left" ? "right" : "left";
-    placing: for (let k = 0; k < 64; k++) {
+    for (let k = 0; k < 64; k++) {
       const dy = k === 0 ? 0 : (k % 2 === 1 ? 1 : -1) * Math.ceil(k / 2) * ATTACHMENT_SLOT_PX;
       for (const side of [preferred, other]) {
         if (!isFree(busId, side, bar.y + dy)) continue;
         offsets.set(id, { x: side === "left" ? -ATTACHMENT_OFFSET_PX : ATTACHMENT_OFFSET_PX, y: dy });
         occupy(busId, side, bar.y + dy);
-        break placing;
+        continue nextElement;
       }
     }
+    full.add(busId);
   }
   return offsets;
 }

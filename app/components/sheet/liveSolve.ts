@@ -28,7 +28,11 @@ export function solveForSheet(document: Network): SolveState {
   const { result, network } = outcome;
   const converged = result.loadFlow.converged;
   const checksByElement = new Map<string, Check[]>();
-  for (const check of result.checks) checksByElement.set(check.element, [...(checksByElement.get(check.element) ?? []), check]);
+  for (const check of result.checks) {
+    const list = checksByElement.get(check.element);
+    if (list) list.push(check);
+    else checksByElement.set(check.element, [check]);
+  }
   const readings: Readings = {
     result,
     network,

@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import {
   canonicalRequest,
   conductorOptions,
+  defaultSectionBus,
   draftForSection,
   draftFromRequest,
   moveToSection,
@@ -15,6 +16,8 @@ import {
 } from "#app/components/ladder/studyDraft.ts";
 import { moneyInputSchema } from "#solver/economics.ts";
 import { validateNetwork, type Network } from "#solver/schema.ts";
+import { findSection } from "#solver/section.ts";
+import { chainNetwork } from "../../../largeNetworks.ts";
 
 function tarnHead(): Network {
   const checked = validateNetwork(JSON.parse(readFileSync(new URL("../../../../fixtures/tarn-head-calder-flats.json", import.meta.url), "utf8")));
@@ -134,5 +137,29 @@ describe("typed values", () => {
     expect(canonicalRequest(a)).toBe(canonicalRequest(b));
     expect(canonicalRequest({ ...a, voltagesKV: [66, 132] })).not.toBe(canonicalRequest(a));
     expect(canonicalRequest({ sectionBus: "" })).toBeUndefined();
+  });
+});
+
+describe("the section offered first", () => {
+  /** The definition, one section search per line: quadratic, so only for small networks. */
+  const byDefinition = (network: Network) =>
+    network.lines.find((l) => (findSection(network, l.fromBus)?.facingWindings.length ?? 0) > 0)?.fromBus ?? network.lines[0]?.fromBus ?? network.buses[0].id;
+
+  it.each(["tarn-head-calder-flats.json", "hollin-moor-solar.json"])("%s: the first line's section that meets a transformer", (file) => {
+    const network = JSON.parse(readFileSync(`tests/fixtures/${file}`, "utf8"));
+    const checked = validateNetwork(network);
+    if (!checked.ok) throw new Error(file);
+    expect(defaultSectionBus(checked.network)).toBe(byDefinition(checked.network));
+  });
+
+  it("is found in one pass on a 50,000-bus chain behind a separate two-bus link", { timeout: 300_000 }, () => {
+    const chain = chainNetwork(50_000);
+    const network: Network = {
+      ...chain,
+      buses: [...chain.buses, { id: "c0", name: "C0", nominalKV: 11, vMinPu: 0.9, vMaxPu: 1.1 }, { id: "c1", name: "C1", nominalKV: 11, vMinPu: 0.9, vMaxPu: 1.1 }, { id: "lv", name: "LV", nominalKV: 0.4, vMinPu: 0.9, vMaxPu: 1.1 }],
+      lines: [{ ...chain.lines[0], id: "link", fromBus: "c0", toBus: "c1" }, ...chain.lines],
+      transformers: [{ id: "t", name: "T", hvBus: "b49999", lvBus: "lv", ratedMVA: 1, hvKV: 11, lvKV: 0.4, impedancePct: 6, tapPct: 0, vectorGroup: "Dyn11" }],
+    };
+    expect(defaultSectionBus(network)).toBe("b0");
   });
 });

@@ -3,6 +3,7 @@ import { describe, expect, it } from "vitest";
 import { COLUMN_WIDTH, layoutSingleLine, ROW_HEIGHT } from "#app/components/report/singleLineLayout.ts";
 import { chainEnds, chainTo } from "#solver/topology.ts";
 import { validateNetwork, type Network } from "#solver/schema.ts";
+import { chainNetwork, crowdedBusNetwork, starNetwork } from "../../../largeNetworks.ts";
 
 const fixturesDir = new URL("../../../../fixtures/", import.meta.url);
 function fixture(file: string): Network {
@@ -90,5 +91,31 @@ describe("the single-line drawing of every fixture", () => {
       expect(loop.y).toBeGreaterThan(lowest);
       expect(loop.y).toBeLessThan(layout.height);
     }
+  });
+});
+
+// Built iteratively and with maps throughout: a 50,000-bus chain must neither overflow the stack
+// (the drawing used to recurse once per bus) nor take quadratic time.
+describe("the single-line drawing at scale", { timeout: 300_000 }, () => {
+  it("draws a 50,000-bus chain on one row, each bus one column further out", () => {
+    const layout = layoutSingleLine(chainNetwork(50_000));
+    expect(layout.buses).toHaveLength(50_000);
+    expect(layout.buses[49_999].column).toBe(49_999);
+    expect(new Set(layout.branches.map((b) => b.y)).size).toBe(1);
+    expect(layout.loops).toEqual([]);
+  });
+
+  it("draws a 50,000-spur star with each spur on a row of its own", () => {
+    const layout = layoutSingleLine(starNetwork(50_000));
+    const hub = layout.buses.find((b) => b.id === "b0")!;
+    expect([hub.firstRow, hub.lastRow]).toEqual([0, 49_999]);
+    expect(new Set(layout.branches.map((b) => b.y)).size).toBe(50_000);
+  });
+
+  it("hangs 20,000 loads off one bus, one row each", () => {
+    const layout = layoutSingleLine(crowdedBusNetwork(20_000));
+    const loads = layout.attachments.filter((a) => a.kind === "load");
+    expect(loads).toHaveLength(20_000);
+    expect(new Set(loads.map((a) => a.y)).size).toBe(20_000);
   });
 });

@@ -12,6 +12,7 @@ import {
   wireId,
   type SheetContent,
 } from "#app/components/sheet/flowModel.ts";
+import { chainNetwork, crowdedBusNetwork, starNetwork } from "../../../largeNetworks.ts";
 
 function demo(): Network {
   const parsed = validateNetwork(JSON.parse(readFileSync("tests/fixtures/tarn-head-calder-flats.json", "utf8")));
@@ -165,5 +166,27 @@ describe("placing from the keyboard", () => {
     expect(busAt(after, spot, 40)).toBeUndefined();
     // an empty corner is taken as it is
     expect(freeSpotNear(geometry, { x: 0, y: 600 }, { width: 60, height: 40 })).toEqual({ x: 0, y: 600 });
+  });
+});
+
+// The drawing's geometry is derived on every edit, so it must stay linear at any size.
+describe("document to flow at scale", () => {
+  // Generous time for a loaded machine: the check is the answer; quadratic work would need hours.
+  it("lays out a 50,000-bus chain and a 50,000-spur star: every element placed, one wire per reference", { timeout: 300_000 }, () => {
+    for (const network of [chainNetwork(50_000), starNetwork(50_000)]) {
+      const geometry = sheetGeometry(network, {});
+      const elements = network.buses.length + network.sources.length + network.lines.length + network.loads.length;
+      expect(geometry.centers.size).toBe(elements);
+      expect(geometry.wires).toHaveLength(network.sources.length + 2 * network.lines.length + network.loads.length);
+    }
+  });
+
+  it("places the loads of a bus with 20,000 of them, the first beside the bar and none on another's spot", { timeout: 300_000 }, () => {
+    const network = crowdedBusNetwork(20_000);
+    const geometry = sheetGeometry(network, {});
+    const bar = geometry.busCenters.get("b1")!;
+    expect(geometry.centers.get("ld0")).toEqual({ x: bar.x + 120, y: bar.y });
+    const spots = new Set(network.loads.slice(0, 100).map((l) => JSON.stringify(geometry.centers.get(l.id))));
+    expect(spots.size).toBe(100);
   });
 });
