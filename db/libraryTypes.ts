@@ -34,9 +34,13 @@ export interface LibraryTypeWrite {
   data: object;
   /** The saved type to overwrite; absent for a new one. */
   id?: number;
+  /** The overwritten type's updated_at as the writer last read it: a newer save wins nothing silently. */
+  basedOn?: string;
 }
 
-export type LibraryWriteResult = { ok: true; created: number; updated: number } | { ok: false; error: string };
+export type LibraryWriteResult =
+  | { ok: true; created: number; updated: number }
+  | { ok: false; reason: "name-taken" | "stale"; error: string };
 
 function isUniqueViolation(error: unknown): boolean {
   return error instanceof Error && /UNIQUE constraint failed/.test(error.message);
@@ -64,28 +68,40 @@ export async function writeLibraryTypes(
             .execute();
           created++;
         } else {
-          const result = await trx
+          let update = trx
             .updateTable("library_types")
             .set({ name: type.name, data, updated_at: now })
             .where("id", "=", type.id)
             .where("team_id", "=", input.teamId)
-            .where("kind", "=", type.kind)
-            .executeTakeFirst();
-          if (Number(result.numUpdatedRows) !== 1) throw new StaleType(type.name);
+            .where("kind", "=", type.kind);
+          if (type.basedOn !== undefined) update = update.where("updated_at", "=", type.basedOn);
+          const result = await update.executeTakeFirst();
+          if (Number(result.numUpdatedRows) !== 1) {
+            const still = await trx.selectFrom("library_types").select("id").where("id", "=", type.id).executeTakeFirst();
+            throw new StaleType(type.name, still !== undefined);
+          }
           updated++;
         }
       }
       return { ok: true as const, created, updated };
     });
   } catch (error) {
-    if (error instanceof StaleType) return { ok: false, error: `The type "${error.typeName}" was deleted meanwhile; nothing was saved. Read the file again.` };
-    if (isUniqueViolation(error)) return { ok: false, error: "Another type of that kind already has this name; nothing was saved." };
+    if (error instanceof StaleType) {
+      return error.changed
+        ? { ok: false, reason: "stale", error: `Someone saved "${error.typeName}" after you opened it; nothing was overwritten. Reload to see their version.` }
+        : { ok: false, reason: "stale", error: `The type "${error.typeName}" was deleted meanwhile; nothing was saved. Read the file again.` };
+    }
+    if (isUniqueViolation(error)) return { ok: false, reason: "name-taken", error: "Another type of that kind already has this name; nothing was saved." };
     throw error;
   }
 }
 
 class StaleType extends Error {
-  constructor(readonly typeName: string) {
+  constructor(
+    readonly typeName: string,
+    /** True when the type is still there but was saved since; false when it is gone. */
+    readonly changed = false,
+  ) {
     super(`library type ${typeName} is gone`);
   }
 }

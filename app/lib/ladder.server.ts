@@ -9,7 +9,7 @@ import { currentDocument } from "./networks.server.ts";
 
 export type LadderRun =
   | { ok: true; ladder: Ladder; revision: number; document: Network }
-  | { ok: false; status: 400 | 422; error: string; issues: ValidationIssue[] };
+  | { ok: false; status: 400 | 409 | 422; error: string; issues: ValidationIssue[] };
 
 /** The ladder for the network's current revision; every refusal is a status, a sentence and named fields. */
 export async function runLadderOnNetwork(db: Db, network: NetworkRow, request: unknown): Promise<LadderRun> {
@@ -64,19 +64,38 @@ export async function savedLadderStudy(db: Db, networkId: number): Promise<{ stu
   };
 }
 
-/** Run the ladder and, when it runs, keep its inputs (defaults filled in) as the network's study. */
-export async function saveLadderStudy(db: Db, network: NetworkRow, userId: number, request: unknown): Promise<LadderRun> {
+/**
+ * Run the ladder and, when it runs, keep its inputs (defaults filled in) as the network's study.
+ * `basedOn` is the saved study's updatedAt the page started from (null: none was saved): when
+ * someone else has saved since, nothing is overwritten and the answer is 409.
+ */
+export async function saveLadderStudy(
+  db: Db,
+  network: NetworkRow,
+  userId: number,
+  request: unknown,
+  basedOn: string | null,
+): Promise<LadderRun> {
   const run = await runLadderOnNetwork(db, network, request);
   if (!run.ok) return run;
   const parsed = ladderRequestSchema.parse(request);
-  await upsertLadderStudy(db, {
-    networkId: network.id,
-    sectionBus: parsed.sectionBus,
-    voltagesKV: parsed.voltagesKV,
-    overrides: parsed.overrides ?? null,
-    money: parsed.money,
-    networkRevision: network.current_revision,
-    userId,
+  const conflict = await db.transaction().execute(async (trx) => {
+    const current = await findLadderStudy(trx, network.id);
+    if ((current?.updatedAt ?? null) !== basedOn) return current ?? null;
+    await upsertLadderStudy(trx, {
+      networkId: network.id,
+      sectionBus: parsed.sectionBus,
+      voltagesKV: parsed.voltagesKV,
+      overrides: parsed.overrides ?? null,
+      money: parsed.money,
+      networkRevision: network.current_revision,
+      userId,
+    });
+    return undefined;
   });
+  if (conflict !== undefined) {
+    const who = conflict ? `${conflict.updatedByName ?? "Someone"} saved the study at ${conflict.updatedAt}` : "The saved study was removed";
+    return { ok: false, status: 409, error: `${who} after you opened this page; nothing was overwritten. Reload to see it, then save again.`, issues: [] };
+  }
   return run;
 }

@@ -70,7 +70,7 @@ type ActionAnswer =
 export async function action({ request, params }: Route.ActionArgs) {
   const { db, user, actor, network } = await requireNetwork(request, params, "view");
   const answer = (body: ActionAnswer, status = 200) => data(body, { status });
-  let body: { intent?: unknown; request?: unknown };
+  let body: { intent?: unknown; request?: unknown; basedOn?: unknown };
   try {
     body = (await request.json()) as typeof body;
   } catch {
@@ -83,7 +83,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     const editing = await networkAccess(db, actor, network.id, "edit");
     if (!editing.ok) return answer({ ok: false, intent, error: editing.error, issues: [] }, editing.status);
   }
-  const run = intent === "save" ? await saveLadderStudy(db, network, user.id, body.request) : await runLadderOnNetwork(db, network, body.request);
+  const run = intent === "save" ? await saveLadderStudy(db, network, user.id, body.request, typeof body.basedOn === "string" ? body.basedOn : null) : await runLadderOnNetwork(db, network, body.request);
   if (!run.ok) return answer({ ok: false, intent, error: run.error, issues: run.issues }, run.status);
   return answer({ ok: true, intent, ladder: run.ladder, request: body.request });
 }
@@ -173,7 +173,8 @@ function LadderStudy() {
       requestAnimationFrame(() => errorSummary.current?.focus());
       return;
     }
-    fetcher.submit({ intent, request } as never, { method: "post", encType: "application/json" });
+    // The saved study this page started from: saving over a newer one answers 409 instead.
+    fetcher.submit({ intent, request, basedOn: loaderData.saved?.updatedAt ?? null } as never, { method: "post", encType: "application/json" });
   };
 
   const update = (next: StudyDraft) => {

@@ -101,8 +101,11 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (id !== undefined && !(await teamHasLibraryType(db, team.id, id))) {
       return data<ActionResult>({ intent: "save-type", ok: false, message: "That type is not in this team's library any more.", formKey }, { status: 404 });
     }
-    const written = await saveLibraryTypes(db, { teamId: team.id, userId: user.id, types: [{ kind: read.kind, name: read.name, data: read.data, id }] });
-    if (!written.ok) return data<ActionResult>({ intent: "save-type", ok: false, message: written.error, fieldErrors: { name: "another type has this name" }, formKey }, { status: 409 });
+    const written = await saveLibraryTypes(db, { teamId: team.id, userId: user.id, types: [{ kind: read.kind, name: read.name, data: read.data, id, basedOn: id === undefined ? undefined : fields.basedOn }] });
+    if (!written.ok) {
+      const fieldErrors = written.reason === "name-taken" ? { name: "another type has this name" } : undefined;
+      return data<ActionResult>({ intent: "save-type", ok: false, message: written.error, fieldErrors, formKey }, { status: 409 });
+    }
     return { intent: "save-type", ok: true, message: `Saved "${read.name}".`, formKey } satisfies ActionResult;
   }
   return data<ActionResult>({ intent: "delete-type", ok: false, message: "Unknown request: the form named no known action." }, { status: 400 });
@@ -128,6 +131,7 @@ function TypeForm({ kind, entry, result }: { kind: LibraryTypeKind; entry?: Libr
       <input type="hidden" name="intent" value="save-type" />
       <input type="hidden" name="kind" value={kind} />
       {entry ? <input type="hidden" name="typeId" value={entry.id} /> : null}
+      {entry ? <input type="hidden" name="basedOn" value={entry.updatedAt} /> : null}
       <div className="sm:col-span-2">
         <label htmlFor={`${idPrefix}-name`} className="field-label">
           Name

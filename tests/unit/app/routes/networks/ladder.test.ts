@@ -85,11 +85,26 @@ describe("the ladder page", () => {
   });
 
   it("replaces the saved study on the next save instead of adding another", async () => {
-    await pagePost({ intent: "save", request: { ...study, voltagesKV: [66, 132] } }, cookies.editor);
+    const basedOn = async () => (await pageGet(cookies.editor)).body.saved?.updatedAt ?? null;
+    expect((await pagePost({ intent: "save", request: { ...study, voltagesKV: [66, 132] }, basedOn: await basedOn() }, cookies.editor)).status).toBe(200);
     const db = await getDb();
     const rows = await db.selectFrom("ladder_studies").select(["voltages_kv"]).where("network_id", "=", networkId).execute();
     expect(rows).toEqual([{ voltages_kv: "[66,132]" }]);
-    await pagePost({ intent: "save", request: study }, cookies.editor);
+    expect((await pagePost({ intent: "save", request: study, basedOn: await basedOn() }, cookies.editor)).status).toBe(200);
+  });
+
+  // Issue #13, finding 10: the saved study was last-write-wins.
+  it("refuses (409) a save that started from an older study, and keeps the newer one", async () => {
+    const { updatedAt } = (await pageGet(cookies.editor)).body.saved;
+    expect((await pagePost({ intent: "save", request: { ...study, voltagesKV: [132] }, basedOn: updatedAt }, cookies.owner)).status).toBe(200);
+    const late = await pagePost({ intent: "save", request: { ...study, voltagesKV: [33] }, basedOn: updatedAt }, cookies.editor);
+    expect(late.status).toBe(409);
+    expect(late.body.error).toMatch(/nothing was overwritten/);
+    const rows = await (await getDb()).selectFrom("ladder_studies").select(["voltages_kv"]).where("network_id", "=", networkId).execute();
+    expect(rows).toEqual([{ voltages_kv: "[132]" }]);
+    expect((await pagePost({ intent: "save", request: study, basedOn: null }, cookies.editor)).status).toBe(409);
+    const current = (await pageGet(cookies.editor)).body.saved.updatedAt;
+    expect((await pagePost({ intent: "save", request: study, basedOn: current }, cookies.editor)).status).toBe(200);
   });
 });
 

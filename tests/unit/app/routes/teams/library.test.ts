@@ -73,6 +73,18 @@ describe("team equipment library", () => {
     expect((await list()).types.some((t: { id: number }) => t.id === id)).toBe(false);
   });
 
+  // Issue #13, finding 10: library types were last-write-wins.
+  it("refuses (409) an edit made from an older copy of the type, and keeps the newer one", async () => {
+    await post({ ...transformer, name: "Shared type" });
+    const opened = (await list()).types.find((t: { name: string }) => t.name === "Shared type");
+    const edit = (name: string, impedancePct: string) => post({ ...transformer, name, typeId: String(opened.id), basedOn: opened.updatedAt, impedancePct });
+    expect((await edit("Shared type", "9")).body.ok).toBe(true);
+    const late = await edit("Shared type", "13");
+    expect(late.status).toBe(409);
+    expect(late.body.message).toMatch(/nothing was overwritten/);
+    expect((await list()).types.find((t: { id: number }) => t.id === opened.id)).toMatchObject({ data: { impedancePct: 9 } });
+  });
+
   it("imports a conductor CSV: preview saves nothing, apply saves every row, a re-import updates by name", async () => {
     const csv = "name,kind,rOhmPerKm,xOhmPerKm,ampacityA\nFell 300,overhead,0.0958,0.38,620\nCable 240,cable,0.125,0.11,430\n";
     const before = await rowCounts();
@@ -106,7 +118,7 @@ describe("team equipment library", () => {
         { kind: "conductor", name: "Gone meanwhile", data: { kind: "cable", frequencyHz: 50, rOhmPerKm: 0.1, xOhmPerKm: 0.1, ampacityA: 300 }, id: 999_999 },
       ],
     });
-    expect(result).toEqual({ ok: false, error: 'The type "Gone meanwhile" was deleted meanwhile; nothing was saved. Read the file again.' });
+    expect(result).toEqual({ ok: false, reason: "stale", error: 'The type "Gone meanwhile" was deleted meanwhile; nothing was saved. Read the file again.' });
     expect(await rowCounts()).toEqual(before);
   });
 });
