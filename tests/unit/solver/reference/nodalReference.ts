@@ -179,12 +179,16 @@ export function referenceLoadFlow(net: Network): ReferenceSolution {
   };
 
   const flatAngle = setAngle[role.indexOf("slack")] ?? 0;
-  const x: number[] = [];
-  for (let i = 0; i < n; i++) {
-    const vm = role[i] === "pq" ? 1 : setV[i];
-    const va = role[i] === "slack" ? setAngle[i] : flatAngle;
-    x.push(vm * Math.cos(va), vm * Math.sin(va));
-  }
+  const flatState = (): number[] => {
+    const state: number[] = [];
+    for (let i = 0; i < n; i++) {
+      const vm = regulating[i] || role[i] === "slack" ? setV[i] : 1;
+      const va = role[i] === "slack" ? setAngle[i] : flatAngle;
+      state.push(vm * Math.cos(va), vm * Math.sin(va));
+    }
+    return state;
+  };
+  const x: number[] = flatState();
 
   const newton = (): boolean => {
     for (let iteration = 0; iteration < 60; iteration++) {
@@ -216,6 +220,22 @@ export function referenceLoadFlow(net: Network): ReferenceSolution {
 
   const voltages = () => Array.from({ length: n }, (_, i) => complex(x[2 * i], x[2 * i + 1]));
   let converged = newton();
+  // A set-point no reactive output can hold (a voltage across a short resistive line that would
+  // need more real power than the bus has) leaves the regulating solve without a solution. Then
+  // every regulating bus is held at the reactive limit its output was heading for, the state is
+  // reset to a flat start, and the limit rounds below may release it again.
+  if (!converged) {
+    const s = injections(y, voltages());
+    for (let i = 0; i < n; i++) {
+      if (!regulating[i]) continue;
+      const output = s[i].im + loadAt(i, Math.hypot(x[2 * i], x[2 * i + 1])).im - fixedQ[i];
+      regulating[i] = false;
+      heldAtUpper[i] = Number.isFinite(output) ? output > (qLow[i] + qHigh[i]) / 2 : true;
+      held[i] = heldAtUpper[i] ? qHigh[i] : qLow[i];
+    }
+    x.splice(0, x.length, ...flatState());
+    converged = newton();
+  }
   // Reactive limits: a regulating bus beyond a limit is held there; it returns when its voltage allows.
   for (let round = 0; converged && round < 20; round++) {
     const s = injections(y, voltages());
