@@ -1,17 +1,17 @@
 // Network writes shared by the pages and the API: every document is validated by the network
 // file's schema before anything is stored, and every change is a new numbered revision.
 import type { Db } from "#db/database.ts";
-import { insertNetwork, writeRevision, markNetworkDeleted, readRevision, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
+import { appendRevision, insertNetwork, markNetworkDeleted, readRevision, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";
 import { findTeam } from "#db/teams.ts";
 import { revokeLinksOfNetwork } from "#db/shareLinks.ts";
 import { auditNetworkDeletion } from "./audit.server.ts";
 import { networkNameSchema } from "./fieldSchemas.ts";
-import { validateDraft, validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 
 export type CreateResult = { ok: true; network: NetworkRow; document: Network } | { ok: false; issues: ValidationIssue[] };
 export type SaveResult =
-  | { ok: true; revision: number; document: Network; foldedSaves: number; problems: ValidationIssue[] }
+  | { ok: true; revision: number; document: Network }
   | { ok: false; reason: "invalid"; issues: ValidationIssue[] }
   | { ok: false; reason: "stale"; currentRevision: number | null };
 
@@ -30,42 +30,21 @@ export async function createNetwork(
   return { ok: true, network, document: checked.network };
 }
 
-/** The document without where its buses are drawn: what an engineering change changes. */
-function withoutLayout(document: unknown): string {
-  if (!document || typeof document !== "object") return JSON.stringify(document);
-  const doc = document as { buses?: unknown };
-  const buses = Array.isArray(doc.buses)
-    ? doc.buses.map((bus) => (bus && typeof bus === "object" ? { ...(bus as object), x: undefined, y: undefined } : bus))
-    : doc.buses;
-  return JSON.stringify({ ...doc, buses });
-}
-
-/**
- * Save a document after `expectedRevision` if that is still current. A draft (the file's shape,
- * cross-element rules failing) is kept with its problems; only a wrong shape is refused. The
- * sheet's autosave passes `foldedSaves` so that one editing session stays one revision.
- */
+/** Save a document as the next revision if `expectedRevision` is still current. */
 export async function saveNetworkDocument(
   db: Db,
-  input: { networkId: number; expectedRevision: number; document: unknown; authorId: number; message?: string; foldedSaves?: number },
+  input: { networkId: number; expectedRevision: number; document: unknown; authorId: number; message?: string },
 ): Promise<SaveResult> {
-  const checked = validateDraft(input.document);
+  const checked = validateNetwork(input.document);
   if (!checked.ok) return { ok: false, reason: "invalid", issues: checked.issues };
-  const next = JSON.stringify(checked.network);
-  const nextEngineering = withoutLayout(checked.network);
-  const result = await writeRevision(db, {
+  const result = await appendRevision(db, {
     networkId: input.networkId,
     expectedRevision: input.expectedRevision,
     document: checked.network,
-    problems: checked.problems,
     authorId: input.authorId,
     message: input.message,
-    foldedSaves: input.foldedSaves,
-    layoutOnly: (previous) => JSON.stringify(previous) !== next && withoutLayout(previous) === nextEngineering,
   });
-  return result.ok
-    ? { ...result, document: checked.network, problems: checked.problems }
-    : { ok: false, reason: "stale", currentRevision: result.currentRevision };
+  return result.ok ? { ok: true, revision: result.revision, document: checked.network } : { ok: false, reason: "stale", currentRevision: result.currentRevision };
 }
 
 /** The current revision's document of a network, as stored (already validated when saved). */

@@ -61,17 +61,7 @@ function ReadingBlock({ children }: { children: ReactNode }) {
 
 const useReadOnly = () => useSheet((s) => s.readOnly);
 
-/** A draft's element outside the solved part: drawn faint, with the reason one click away in Checks. */
-function useLeftOut(id: string): boolean {
-  return useSheet((s) => s.solve.kind === "solved" && s.solve.readings.leftOut.has(id));
-}
-
-function LeftOutMark() {
-  return <span className="ks-left-out-mark">not solved: see Checks</span>;
-}
-
 function BusNodeView({ id, data }: NodeProps<SheetNode>) {
-  const leftOut = useLeftOut(id);
   const bus = data.element as Bus;
   const connecting = useConnection((c) => c.inProgress);
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.buses.get(id) : undefined));
@@ -84,8 +74,7 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
   const faultStatus = fault ? upperLimitStatus(Math.max(fault.ik3kA, fault.ik1kA), bus.breakingKA, "kA") : undefined;
   const unearthed = fault?.note === UNEARTHED_NOTE;
   return (
-    <div className={`ks-node ks-bus${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+    <div className="ks-node ks-bus" style={{ width: data.width, height: data.height }}>
       <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
         <div className="ks-node-label ks-bus-label">
           <span className="ks-bus-name">{bus.name}</span>
@@ -152,14 +141,12 @@ function BranchReadings({ id, fromSide, reversed, ratedLoading }: { id: string; 
 }
 
 function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
-  const leftOut = useLeftOut(id);
   const t = data.element as Transformer;
   const readOnly = useReadOnly();
   const hvSide = data.sides.hv ?? "left";
   const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
   return (
-    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
       <Label>
         {t.name}
         <span className="ks-node-sub">
@@ -182,15 +169,13 @@ function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
 }
 
 function LineNodeView({ id, data }: NodeProps<SheetNode>) {
-  const leftOut = useLeftOut(id);
   const line = data.element as Line;
   const readOnly = useReadOnly();
   const fromSide = data.sides.from ?? "left";
   const kv = data.terminalKV.from ?? data.terminalKV.to;
   const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
   return (
-    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
       <Label>
         {line.name}
         <span className="ks-node-sub">
@@ -211,15 +196,13 @@ function LineNodeView({ id, data }: NodeProps<SheetNode>) {
 }
 
 function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
-  const leftOut = useLeftOut(id);
   const source = data.element as Source;
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "right";
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.sources.get(id) : undefined));
   const Symbol = source.kind === "grid" ? GridInfeedSymbol : GeneratorSymbol;
   return (
-    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
       <Label>
         {source.name}
         <span className="ks-node-sub">{source.control === "slack" ? "slack" : source.control.toUpperCase()}</span>
@@ -237,14 +220,12 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
   );
 }
 
-function LoadNodeView({ id, data }: NodeProps<SheetNode>) {
-  const leftOut = useLeftOut(id);
+function LoadNodeView({ data }: NodeProps<SheetNode>) {
   const load = data.element as Load;
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "left";
   return (
-    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
       <Label>
         {load.name}
         <span className="ks-node-sub">
@@ -257,14 +238,12 @@ function LoadNodeView({ id, data }: NodeProps<SheetNode>) {
   );
 }
 
-function ShuntNodeView({ id, data }: NodeProps<SheetNode>) {
-  const leftOut = useLeftOut(id);
+function ShuntNodeView({ data }: NodeProps<SheetNode>) {
   const shunt = data.element as Shunt;
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "left";
   return (
-    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
       <Label>
         {shunt.name}
         <span className="ks-node-sub">{shunt.qMvar} Mvar</span>

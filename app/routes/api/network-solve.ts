@@ -3,7 +3,6 @@ import { apiError } from "#app/lib/api.server.ts";
 import { requireApiNetwork } from "#app/lib/access.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
 import { solveNetwork } from "#solver/index.ts";
-import { validateDraft } from "#solver/schema.ts";
 
 /** POST /api/networks/:id/solve: load flow, fault levels and checks for the saved revision. */
 export async function action({ request, params }: Route.ActionArgs) {
@@ -12,13 +11,6 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
   const { db, network } = await requireApiNetwork(request, params, "view");
   const { document } = await currentDocument(db, network);
-  const draft = validateDraft(document);
-  if (draft.ok && draft.problems.length) {
-    return Response.json(
-      { error: `Revision ${network.current_revision} is a draft, not a complete network yet; nothing was solved.`, problems: draft.problems },
-      { status: 422 },
-    );
-  }
   const outcome = solveNetwork(document);
   if (!outcome.ok) {
     return apiError(422, `Revision ${network.current_revision} no longer passes the network file's checks.`, outcome.issues);
