@@ -4,7 +4,11 @@
 import type { Db } from "#db/database.ts";
 import type { User } from "#db/schema.ts";
 import { insertTeamWithOwner } from "#db/teams.ts";
-import { findUserByEmail, insertUser } from "#db/users.ts";
+import { listApiTokens } from "#db/apiTokens.ts";
+import { teamsOfUser } from "#db/teams.ts";
+import { findUserByEmail, insertUser, normalizeEmail } from "#db/users.ts";
+import type { ReviewNoteMail } from "#db/schema.ts";
+import { reviewNoteMailSetting, saveReviewNoteMailSetting } from "#db/userSettings.ts";
 import { hashPassword } from "./password.server.ts";
 import { createRateLimiter } from "./rateLimit.server.ts";
 
@@ -49,4 +53,22 @@ export function signUpWait(address: string | null, now = Date.now()): number | n
 
 export function signUpWaitMessage(seconds: number): string {
   return `Too many new accounts from here in the last hour. Try again in ${Math.ceil(seconds / 60)} minutes.`;
+}
+
+export { normalizeEmail };
+
+/** Whether an address already has an account (the invitation page offers sign-in, not sign-up). */
+export async function accountExists(db: Db, email: string): Promise<boolean> {
+  return Boolean(await findUserByEmail(db, email));
+}
+
+/** What the account page shows: the person's teams, their API tokens and their mail setting. */
+export async function accountOverview(db: Db, userId: number) {
+  const [teams, tokens, reviewNoteMail] = await Promise.all([teamsOfUser(db, userId), listApiTokens(db, userId), reviewNoteMailSetting(db, userId)]);
+  return { teams, tokens, reviewNoteMail };
+}
+
+/** Turns the e-mail about new review notes on or off for one person. */
+export function setReviewNoteMail(db: Db, userId: number, value: ReviewNoteMail): Promise<void> {
+  return saveReviewNoteMailSetting(db, userId, value);
 }

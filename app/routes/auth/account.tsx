@@ -9,20 +9,14 @@ import { getDb } from "#app/lib/db.server.ts";
 import { sendEmailVerification } from "#app/lib/emailVerification.server.ts";
 import { mailAvailable } from "#app/lib/mail.server.ts";
 import { formatDate } from "#app/lib/format.ts";
-import { listApiTokens } from "#db/apiTokens.ts";
-import { teamsOfUser } from "#db/teams.ts";
-import { reviewNoteMailSetting } from "#db/userSettings.ts";
+import { accountOverview } from "#app/lib/accounts.server.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Account · Kilostep" }];
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const db = await getDb();
-  const [teams, tokens, reviewNoteMail] = await Promise.all([
-    teamsOfUser(db, user.id),
-    listApiTokens(db, user.id),
-    reviewNoteMailSetting(db, user.id),
-  ]);
+  const { teams, tokens, reviewNoteMail } = await accountOverview(db, user.id);
   return { name: user.name, email: user.email, verified: user.email_verified_at !== null, since: user.created_at, teams, tokens, reviewNoteMail };
 }
 

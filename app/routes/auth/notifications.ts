@@ -4,7 +4,7 @@ import { data } from "react-router";
 import type { Route } from "./+types/notifications";
 import { requireUser } from "#app/lib/auth.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
-import { saveReviewNoteMailSetting } from "#db/userSettings.ts";
+import { setReviewNoteMail } from "#app/lib/accounts.server.ts";
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request);
@@ -13,6 +13,6 @@ export async function action({ request }: Route.ActionArgs) {
   if (value !== "each" && value !== "off") {
     return data({ ok: false, message: 'Choose "each" or "off" for review note mail.' }, { status: 400 });
   }
-  await saveReviewNoteMailSetting(await getDb(), user.id, value);
+  await setReviewNoteMail(await getDb(), user.id, value);
   return { ok: true, message: value === "each" ? "You will get an e-mail for each new review note." : "Review note e-mails are off." };
 }

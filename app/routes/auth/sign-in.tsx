@@ -10,7 +10,7 @@ import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 import { startSession } from "#app/lib/session.server.ts";
 import { clientAddressOf } from "#app/lib/clientAddress.server.ts";
 import { beginSignInAttempt, isKnownBrowser, rememberBrowser, signInFailed, signInSucceeded, throttledMessage } from "#app/lib/signInThrottle.server.ts";
-import { normalizeEmail } from "#db/users.ts";
+import { normalizeEmail } from "#app/lib/accounts.server.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Kilostep" }];
 

@@ -6,14 +6,13 @@ import type { Route } from "./+types/invitation";
 import { FormField } from "#app/components/FormField.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
-import { createAccount, signUpWait, signUpWaitMessage } from "#app/lib/accounts.server.ts";
+import { accountExists, createAccount, signUpWait, signUpWaitMessage } from "#app/lib/accounts.server.ts";
 import { clientAddressOf } from "#app/lib/clientAddress.server.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { fieldErrors, formFields, MIN_PASSWORD_LENGTH, signUpSchema } from "#app/lib/forms.ts";
 import { acceptInvitation, openInvitation, type OpenedInvitation } from "#app/lib/invitations.server.ts";
 import { guardPageRequest } from "#app/lib/requestGuards.server.ts";
 import { getSessionUser, startSession } from "#app/lib/session.server.ts";
-import { findUserByEmail } from "#db/users.ts";
 
 export const meta: Route.MetaFunction = () => [{ title: "Team invitation · Kilostep" }, { name: "robots", content: "noindex" }];
 
@@ -30,7 +29,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (opened.state !== "live") return data({ kind: "closed" as const, sentence: CLOSED[opened.state] }, { status: opened.state === "unknown" ? 404 : 410 });
   const { invitation, team } = opened;
   const user = await getSessionUser(request);
-  const hasAccount = user ? true : Boolean(await findUserByEmail(db, invitation.email));
+  const hasAccount = user ? true : await accountExists(db, invitation.email);
   return {
     kind: "live" as const,
     teamName: team.name,
