@@ -51,6 +51,9 @@ async function keep(page: Page, testInfo: TestInfo, file: string) {
 
 test("an editor draws the hydro chain from a blank sheet with the UI only; the load bus reads what the solver reads", async ({ page }, testInfo) => {
   const noErrors = failOnConsoleErrors(page);
+  // The terminal drags below aim at screen points: a window tall enough for the whole sheet and
+  // Details means no scroll or refit moves a target between measuring it and dropping on it.
+  await page.setViewportSize({ width: 1440, height: 1100 });
   await signIn(page, "editor");
   const name = `Drawn hydro chain ${Date.now()}`;
   await page.getByLabel("Name", { exact: true }).fill(name);
