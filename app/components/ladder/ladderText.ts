@@ -53,6 +53,8 @@ const CHECK_WORDS: Record<CheckKind, string> = {
   "transformer-overload": "over its rating",
   "breaking-current": "fault current above breaking current",
   "not-converged": "load flow does not converge",
+  "minimum-fault-level": "minimum fault level below what is asked",
+  "weak-grid": "short-circuit ratio low for a converter plant",
 };
 
 function valueText(check: Check): string {
@@ -68,6 +70,10 @@ function valueText(check: Check): string {
       return `${fixed(check.value, 2)} kA > ${fixed(check.limit, 1)} kA`;
     case "not-converged":
       return `${fixed(check.value, 0)} % of the load solves`;
+    case "minimum-fault-level":
+      return `${fixed(check.value, 0)} MVA < ${fixed(check.limit, 0)} MVA`;
+    case "weak-grid":
+      return `SCR ${fixed(check.value, 2)} < ${fixed(check.limit, 1)}`;
   }
 }
 

@@ -237,7 +237,7 @@ function rowsFor(doc: Network, readings: Readings) {
   const sources: SourceRow[] = doc.sources.flatMap((s) => {
     const r = readings.sources.get(s.id);
     if (!r) return [];
-    return [{ name: s.name, bus: busName(s.bus), kind: s.kind === "grid" ? "grid infeed" : "generator", control: s.control, pMW: r.pMW, qMvar: r.qMvar }];
+    return [{ name: s.name, bus: busName(s.bus), kind: s.kind === "grid" ? "grid infeed" : s.kind === "converter" ? "converter plant" : "generator", control: s.control, pMW: r.pMW, qMvar: r.qMvar }];
   });
   const faults: FaultRow[] = doc.buses.flatMap((bus) => {
     const f = readings.faults.get(bus.id);
