@@ -41,3 +41,10 @@ export function parseId(value: string | null | undefined): number | null {
 export function issuesUnder(prefix: string, issues: ValidationIssue[]): ValidationIssue[] {
   return issues.map((issue) => ({ path: issue.path ? `${prefix}.${issue.path}` : prefix, message: issue.message }));
 }
+
+/** The sentence for a request its computation refused: the first problem, and how many more follow. */
+export function refusedRequestSentence(what: string, issues: readonly ValidationIssue[]): string {
+  const [first, ...more] = issues;
+  const firstText = first.path ? `${first.path} ${first.message}` : first.message;
+  return `The ${what} request cannot be run: ${firstText}${more.length > 0 ? ` (and ${more.length} more, listed in issues)` : ""}.`;
+}

@@ -6,6 +6,7 @@ import type { NetworkRow } from "#db/schema.ts";
 import { ladderRequestSchema, runLadder, type Ladder, type LadderRequest } from "#solver/ladder.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { currentDocument } from "./networks.server.ts";
+import { refusedRequestSentence } from "./api.server.ts";
 
 export type LadderRun =
   | { ok: true; ladder: Ladder; revision: number; document: Network }
@@ -25,12 +26,10 @@ export async function runLadderOnNetwork(db: Db, network: NetworkRow, request: u
   }
   const outcome = runLadder(checked.network, request);
   if (!outcome.ok) {
-    const [first, ...more] = outcome.issues;
-    const firstText = first.path ? `${first.path} ${first.message}` : first.message;
     return {
       ok: false,
       status: 400,
-      error: `The ladder request cannot be run: ${firstText}${more.length > 0 ? ` (and ${more.length} more, listed in issues)` : ""}.`,
+      error: refusedRequestSentence("ladder", outcome.issues),
       issues: outcome.issues,
     };
   }

@@ -7,6 +7,7 @@ import type { NetworkRow } from "#db/schema.ts";
 import { runStudy, type Study, type StudyControl } from "#solver/study/index.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { currentDocument } from "./networks.server.ts";
+import { refusedRequestSentence } from "./api.server.ts";
 
 export type StudyRun =
   | { ok: true; study: Study; revision: number; document: Network }
@@ -25,12 +26,10 @@ export async function runStudyOnNetwork(db: Db, network: NetworkRow, request: un
     };
   const outcome = await runStudy(checked.network, request, control);
   if (!outcome.ok) {
-    const [first, ...more] = outcome.issues;
-    const firstText = first.path ? `${first.path} ${first.message}` : first.message;
     return {
       ok: false,
       status: 400,
-      error: `The study request cannot be run: ${firstText}${more.length > 0 ? ` (and ${more.length} more, listed in issues)` : ""}.`,
+      error: refusedRequestSentence("study", outcome.issues),
       issues: outcome.issues,
     };
   }
