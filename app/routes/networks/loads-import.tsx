@@ -27,7 +27,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     id: network.id,
     name: network.name,
     revision: network.current_revision,
-    buses: document.buses.map((b) => ({ id: b.id, name: b.name, nominalKV: b.nominalKV })),
+    // A reminder of names, not a directory: a 10,000-bus network's list would only weigh the page down.
+    buses: document.buses.slice(0, SHOWN_BUSES).map((b) => ({ id: b.id, name: b.name, nominalKV: b.nominalKV })),
+    busCount: document.buses.length,
     loadCount: document.loads.length,
   };
 }
@@ -39,7 +41,10 @@ interface ImportOutcome {
   fileError?: string;
   rowErrors: RowError[];
   totalRowErrors: number;
+  /** The first SHOWN_CHANGES changes; a page of 20,000 rows helps nobody and outlasts the render budget. */
   changes: LoadChange[];
+  added: number;
+  updated: number;
   ignoredColumns: string[];
   /** The separator in words, e.g. "semicolon". */
   separator?: string;
@@ -49,10 +54,16 @@ interface ImportOutcome {
 
 function refused(message: string, revision: number, status = 400, fileName: string | null = null) {
   return data<ImportOutcome>(
-    { ok: false, stage: "preview", fileName, fileError: message, rowErrors: [], totalRowErrors: 0, changes: [], ignoredColumns: [], revision },
+    { ok: false, stage: "preview", fileName, fileError: message, rowErrors: [], totalRowErrors: 0, changes: [], added: 0, updated: 0, ignoredColumns: [], revision },
     { status },
   );
 }
+
+/** How many buses the page lists as a reminder of their names. */
+const SHOWN_BUSES = 300;
+
+/** How many changes the preview lists; the counts always cover the whole file. */
+export const SHOWN_CHANGES = 200;
 
 /** "preview" reads the file against the current revision; "apply" saves it as the next revision, all rows or none. */
 export async function action({ request, params }: Route.ActionArgs) {
@@ -60,6 +71,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const upload = await readUploadedFile(request, "A loads file");
   if (!upload.ok) return refused(upload.error, network.current_revision);
   const preview = previewLoadsCsv(upload.text, document, upload.byteLength);
+  const added = preview.changes.filter((c) => c.action === "new").length;
   const outcome: ImportOutcome = {
     ok: preview.ok,
     stage: "preview",
@@ -67,7 +79,9 @@ export async function action({ request, params }: Route.ActionArgs) {
     fileError: preview.fileError,
     rowErrors: preview.rowErrors,
     totalRowErrors: preview.totalRowErrors,
-    changes: preview.changes,
+    changes: preview.changes.slice(0, SHOWN_CHANGES),
+    added,
+    updated: preview.changes.length - added,
     ignoredColumns: preview.ignoredColumns,
     separator: preview.delimiter ? delimiterName(preview.delimiter) : undefined,
     revision: network.current_revision,
@@ -83,8 +97,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       409,
       upload.fileName,
     );
-  const added = preview.changes.filter((c) => c.action === "new").length;
-  const message = `Loads from ${upload.fileName || "a CSV file"}: ${added} added, ${preview.changes.length - added} updated`;
+  const message = `Loads from ${upload.fileName || "a CSV file"}: ${added} added, ${outcome.updated} updated`;
   const saved = await saveNetworkDocument(db, {
     networkId: network.id,
     expectedRevision: network.current_revision,
@@ -95,15 +108,17 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!saved.ok && saved.reason === "stale")
     return refused("Someone saved the network while the file was being applied. Nothing was saved; check the file again.", saved.currentRevision ?? network.current_revision, 409, upload.fileName);
   if (!saved.ok) return refused(saved.issues.map((i) => `${i.path}: ${i.message}`).join("; "), network.current_revision, 400, upload.fileName);
-  return { ...outcome, stage: "applied" as const, revision: saved.revision };
+  return { ...outcome, stage: "applied" as const, changes: [], revision: saved.revision };
 }
 
-function ChangeTable({ changes }: { changes: LoadChange[] }) {
+function ChangeTable({ changes, added, updated }: { changes: LoadChange[]; added: number; updated: number }) {
+  const total = added + updated;
   return (
     <div className="mt-3 overflow-x-auto">
       <table className="data-table">
         <caption className="text-left">
-          {changes.filter((c) => c.action === "new").length} new, {changes.filter((c) => c.action === "update").length} updated
+          {formatNumber(added)} new, {formatNumber(updated)} updated
+          {total > changes.length ? ` (the first ${changes.length} rows shown)` : ""}
         </caption>
         <thead>
           <tr>
@@ -150,7 +165,7 @@ function ChangeTable({ changes }: { changes: LoadChange[] }) {
 }
 
 export default function ImportLoads({ loaderData, actionData }: Route.ComponentProps) {
-  const { id, name, revision, buses, loadCount } = loaderData;
+  const { id, name, revision, buses, busCount, loadCount } = loaderData;
   const busy = useNavigation().state === "submitting";
   const outcome = actionData;
   return (
@@ -206,7 +221,9 @@ export default function ImportLoads({ loaderData, actionData }: Route.ComponentP
           </ul>
           <p className="mt-2">Commas, semicolons (with decimal commas) or tabs; the first row is the header.</p>
           <details className="mt-2">
-            <summary>Buses of this network</summary>
+            <summary>
+              Buses of this network{busCount > buses.length ? ` (the first ${buses.length} of ${formatNumber(busCount)})` : ""}
+            </summary>
             <ul className="mt-1">
               {buses.map((b) => (
                 <li key={b.id}>
@@ -226,7 +243,7 @@ export default function ImportLoads({ loaderData, actionData }: Route.ComponentP
           <div className="mt-3">
             {outcome.stage === "applied" ? (
               <Notice tone="ok">
-                Saved as revision {outcome.revision}. <Link to={`/networks/${id}`}>Open the sheet</Link>.
+                Saved as revision {outcome.revision}: {formatNumber(outcome.added)} loads added, {formatNumber(outcome.updated)} updated. <Link to={`/networks/${id}`}>Open the sheet</Link>.
               </Notice>
             ) : outcome.ok ? (
               <Notice tone="info">Nothing is saved yet. Check the changes below, then apply the same file.</Notice>
@@ -240,7 +257,7 @@ export default function ImportLoads({ loaderData, actionData }: Route.ComponentP
             <p className="mt-2 text-sm text-ink-muted">Not used: {outcome.ignoredColumns.map((c) => `"${c}"`).join(", ")}.</p>
           ) : null}
           <RowProblems errors={outcome.rowErrors} total={outcome.totalRowErrors} />
-          {outcome.ok && outcome.changes.length > 0 ? <ChangeTable changes={outcome.changes} /> : null}
+          {outcome.ok && outcome.changes.length > 0 ? <ChangeTable changes={outcome.changes} added={outcome.added} updated={outcome.updated} /> : null}
         </section>
       ) : null}
     </>

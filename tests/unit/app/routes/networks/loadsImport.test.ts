@@ -1,6 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "#app/lib/db.server.ts";
-import { action as importLoads, loader as importPage } from "#app/routes/networks/loads-import.tsx";
+import { action as importLoads, loader as importPage, SHOWN_CHANGES } from "#app/routes/networks/loads-import.tsx";
 import { findNetwork, readRevision } from "#db/networks.ts";
 import { call, getRequest } from "../harness.ts";
 import { makeTeam, networkFromFixture, rowCounts, uploadRequest, type TeamFixture } from "../teamFixtures.ts";
@@ -68,6 +68,26 @@ describe("loads CSV import into a network", () => {
     expect(stale.body.fileError).toMatch(/changed since the preview \(it is now at revision 2\)/);
     expect(await rowCounts()).toEqual(before);
   });
+
+  it("takes 20,000 rows: the answer lists the first changes and counts them all, so the page stays small enough to render", async () => {
+    const networkId = await networkFromFixture(team);
+    const rows = ["bus,name,P (kW),power factor"];
+    for (let i = 0; i < 20_000; i++) rows.push(`b-town,Feeder load ${i},${100 + (i % 50)},0.95`);
+    const csv = rows.join("\n");
+
+    const preview = await send(networkId, "preview", csv, 1);
+    expect(preview.status).toBe(200);
+    expect(preview.body).toMatchObject({ added: 20_000, updated: 0 });
+    expect(preview.body.changes).toHaveLength(SHOWN_CHANGES);
+    // Before the cap the preview carried every change (4.3 MB) and its page outlasted the render budget.
+    expect(JSON.stringify(preview.body).length).toBeLessThan(200_000);
+
+    const applied = await send(networkId, "apply", csv, 1);
+    expect(applied.status).toBe(200);
+    expect(applied.body).toMatchObject({ stage: "applied", revision: 2, added: 20_000, changes: [] });
+    const stored = (await readRevision(await getDb(), networkId, 2))!;
+    expect((stored.document as { loads: unknown[] }).loads).toHaveLength(20_002);
+  }, 60_000);
 
   it("is refused to a viewer (403)", async () => {
     const networkId = await networkFromFixture(team);
