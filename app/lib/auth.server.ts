@@ -55,7 +55,7 @@ export async function requireUser(request: Request): Promise<User> {
 export async function requireApiUser(request: Request): Promise<User> {
   const user = (await userFromApiToken(request)) ?? (await getSessionUser(request));
   if (user) {
-    guardApiRequest(request, user.id);
+    guardApiRequest(request);
     return user;
   }
   throw Response.json(

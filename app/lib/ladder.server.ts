@@ -3,37 +3,48 @@
 import type { Db } from "#db/database.ts";
 import { findLadderStudy, upsertLadderStudy } from "#db/ladderStudies.ts";
 import type { NetworkRow } from "#db/schema.ts";
-import { ladderRequestSchema, runLadder, type Ladder, type LadderRequest } from "#solver/ladder.ts";
-import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import { ladderRequestSchema, type Ladder, type LadderRequest } from "#solver/ladder.ts";
+import type { ValidationIssue } from "#solver/schema.ts";
+import { ladderOf } from "./compute/results.server.ts";
 import { currentDocument } from "./networks.server.ts";
 import { refusedRequestSentence } from "./api.server.ts";
+import type { Actor } from "./permissions.server.ts";
 
 export type LadderRun =
-  | { ok: true; ladder: Ladder; revision: number; document: Network }
+  | { ok: true; ladder: Ladder; revision: number }
   | { ok: false; status: 400 | 409 | 422; error: string; issues: ValidationIssue[] };
 
-/** The ladder for the network's current revision; every refusal is a status, a sentence and named fields. */
-export async function runLadderOnNetwork(db: Db, network: NetworkRow, request: unknown): Promise<LadderRun> {
-  const { document } = await currentDocument(db, network);
-  const checked = validateNetwork(document);
-  if (!checked.ok) {
+export type LadderJsonRun = { ok: true; json: string; revision: number } | Extract<LadderRun, { ok: false }>;
+
+/** The ladder's refusal: the stored revision no longer validating (422), or the request (400). */
+function refusal(network: NetworkRow, issues: ValidationIssue[]): Extract<LadderRun, { ok: false }> {
+  if (issues.some((i) => i.path === "network" || i.path.startsWith("network."))) {
     return {
       ok: false,
       status: 422,
       error: `Revision ${network.current_revision} no longer passes the network file's checks; fix the network before running the ladder.`,
-      issues: checked.issues,
+      issues: issues.map((i) => ({ path: i.path.replace(/^network\.?/, ""), message: i.message })),
     };
   }
-  const outcome = runLadder(checked.network, request);
-  if (!outcome.ok) {
-    return {
-      ok: false,
-      status: 400,
-      error: refusedRequestSentence("ladder", outcome.issues),
-      issues: outcome.issues,
-    };
-  }
-  return { ok: true, ladder: outcome.ladder, revision: network.current_revision, document: checked.network };
+  return { ok: false, status: 400, error: refusedRequestSentence("ladder", issues), issues };
+}
+
+/**
+ * The ladder for the network's current revision, run (and the document checked) on the compute
+ * pool, paid by `actor`'s budget; a refusal is a status, a sentence and named fields (a spent
+ * budget or a stopped run is thrown, see computeRefusal).
+ */
+export async function runLadderOnNetwork(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderRun> {
+  const { document } = await currentDocument(db, network);
+  const outcome = await ladderOf(document, request, actor, signal);
+  return outcome.ok ? { ok: true, ladder: outcome.ladder, revision: network.current_revision } : refusal(network, outcome.issues);
+}
+
+/** The same for the API, whose answer the worker writes as JSON text. */
+export async function ladderJsonOnNetwork(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderJsonRun> {
+  const { document } = await currentDocument(db, network);
+  const outcome = await ladderOf(document, request, actor, signal, "json");
+  return outcome.ok ? { ok: true, json: outcome.json, revision: network.current_revision } : refusal(network, outcome.issues);
 }
 
 export interface SavedLadderStudy {
@@ -71,11 +82,12 @@ export async function savedLadderStudy(db: Db, networkId: number): Promise<{ stu
 export async function saveLadderStudy(
   db: Db,
   network: NetworkRow,
-  userId: number,
+  actor: Actor & { kind: "user" },
   request: unknown,
   basedOn: string | null,
+  signal?: AbortSignal,
 ): Promise<LadderRun> {
-  const run = await runLadderOnNetwork(db, network, request);
+  const run = await runLadderOnNetwork(db, network, request, actor, signal);
   if (!run.ok) return run;
   const parsed = ladderRequestSchema.parse(request);
   const conflict = await db.transaction().execute(async (trx) => {
@@ -88,7 +100,7 @@ export async function saveLadderStudy(
       overrides: parsed.overrides ?? null,
       money: parsed.money,
       networkRevision: network.current_revision,
-      userId,
+      userId: actor.userId,
     });
     return undefined;
   });

@@ -1,20 +1,14 @@
 // Checks a request passes before a route does any work. They run where every route already
 // resolves its caller (requireUser for pages, requireApiUser for the API, and the sign-in and
 // sign-up actions), so no route can forget them: a write from another site's page is refused,
-// a body over the size limit is refused before it is read, and solving is rate-limited.
+// and a body over the size limit is refused before it is read. (What computing costs is paid
+// from one budget where the work is asked for: compute/budget.server.ts.)
 import { data } from "react-router";
 import { UPLOAD_LIMIT_BYTES } from "./imports/uploadLimits.ts";
 import { CROSS_ORIGIN_MESSAGE, isCrossOriginWrite } from "./originCheck.server.ts";
-import { createRateLimiter } from "./rateLimit.server.ts";
-import { env } from "./env.server.ts";
 
 /** A 5 MB file plus the multipart envelope and the form's other fields. */
 export const REQUEST_BODY_LIMIT_BYTES = UPLOAD_LIMIT_BYTES + 64 * 1024;
-
-/** Routes that run the solver: each answer costs real CPU, so each caller gets a budget. */
-const SOLVE_PATHS = [/^\/api\/solve\/?$/, /^\/api\/networks\/[^/]+\/(solve|ladder|study)\/?$/];
-
-const solveLimiter = createRateLimiter({ limit: env.solveRateLimitPerMinute, windowMs: 60_000 });
 
 interface Refusal {
   status: number;
@@ -79,19 +73,7 @@ export function guardPageRequest(request: Request): void {
 }
 
 /** For the API: a refusal is a thrown JSON answer in the API's error shape. */
-export function guardApiRequest(request: Request, userId: number): void {
-  const refusal = writeRefusal(request) ?? solveBudgetRefusal(request, userId);
+export function guardApiRequest(request: Request): void {
+  const refusal = writeRefusal(request);
   if (refusal) throw Response.json({ error: refusal.error }, { status: refusal.status, headers: refusal.headers });
-}
-
-function solveBudgetRefusal(request: Request, userId: number): Refusal | null {
-  const path = new URL(request.url).pathname;
-  if (request.method.toUpperCase() !== "POST" || !SOLVE_PATHS.some((pattern) => pattern.test(path))) return null;
-  const verdict = solveLimiter.hit(`user:${userId}`);
-  if (verdict.allowed) return null;
-  return {
-    status: 429,
-    error: `Too many solves: at most ${env.solveRateLimitPerMinute} a minute for one account. Wait ${verdict.retryAfterSeconds} s and try again.`,
-    headers: { "Retry-After": String(verdict.retryAfterSeconds) },
-  };
 }

@@ -2,26 +2,24 @@
 // view link alike: one function, so both give the same file for the same revision.
 import type { Db } from "#db/database.ts";
 import type { NetworkRow } from "#db/schema.ts";
+import { computeRefusal, revisionCsv } from "./compute/results.server.ts";
 import { downloadFileStem } from "./downloadName.ts";
-import { currentDocument } from "./networks.server.ts";
-import { branchesCsv, busesCsv } from "#solver/csv.ts";
-import { solveNetwork } from "#solver/index.ts";
+import type { Actor } from "./permissions.server.ts";
 
 function plainText(sentence: string, status: number): Response {
   return new Response(`${sentence}\n`, { status, headers: { "Content-Type": "text/plain; charset=utf-8" } });
 }
 
 /** `table` is the request's `?table=` value, checked here so that every caller answers alike. */
-export async function resultsCsvResponse(db: Db, network: NetworkRow, table: string | null): Promise<Response> {
+export async function resultsCsvResponse(db: Db, network: NetworkRow, table: string | null, actor: Actor): Promise<Response> {
   if (table !== "buses" && table !== "branches") {
     return plainText("Name the table: ?table=buses or ?table=branches.", 400);
   }
-  const { document } = await currentDocument(db, network);
-  const solved = solveNetwork(document);
+  const solved = await revisionCsv(db, network, table, actor).catch((failure) => computeRefusal(failure, "text"));
   if (!solved.ok) {
     return plainText(`Revision ${network.current_revision} no longer passes the network file's checks, so it has no results.`, 422);
   }
-  const csv = table === "buses" ? busesCsv(solved.network, solved.result) : branchesCsv(solved.network, solved.result);
+  const { csv } = solved;
   const filename = `${downloadFileStem(network.name)}-r${network.current_revision}-${table}.csv`;
   return new Response(csv, {
     headers: {

@@ -13,7 +13,7 @@ import {
 } from "#app/components/sheet/symbols.tsx";
 import { strokeFor } from "#app/components/sheet/voltageClasses.ts";
 import type { Network } from "#solver/schema.ts";
-import { ATTACHMENT_TEXT_OFFSET, layoutSingleLine, type LoopBranch, type PlacedAttachment, type PlacedBranch, type PlacedBus } from "./singleLineLayout.ts";
+import { ATTACHMENT_TEXT_OFFSET, layoutSingleLine, type LoopBranch, type PlacedAttachment, type PlacedBranch, type PlacedBus, type SingleLineLayout } from "./singleLineLayout.ts";
 
 const SYMBOL_WIDTH = 56;
 // The stub and symbol sizes here and ATTACHMENT_TEXT_OFFSET in the layout must agree.
@@ -21,6 +21,8 @@ const SYMBOL_HEIGHT = 44;
 
 export interface SingleLineDrawingProps {
   network: Network;
+  /** The layout when the server computed it already (off the request thread); else laid out here. */
+  layout?: SingleLineLayout;
   /** Short readings written under each bus's voltage, e.g. "1.040 pu". */
   busNotes?: Record<string, string>;
   /** Buses drawn on a wash, e.g. the section the ladder re-rates. */
@@ -36,8 +38,8 @@ export interface SingleLineDrawingProps {
 const stroke = (kv: number): SymbolStroke => strokeFor(kv);
 const kvLabel = (kv: number) => `${Number(kv.toPrecision(6))} kV`;
 
-export function SingleLineDrawing({ network, busNotes, highlightBusIds = [], onPickBus, pickLabel, label, className }: SingleLineDrawingProps) {
-  const layout = layoutSingleLine(network);
+export function SingleLineDrawing({ network, layout: laidOut, busNotes, highlightBusIds = [], onPickBus, pickLabel, label, className }: SingleLineDrawingProps) {
+  const layout = laidOut ?? layoutSingleLine(network);
   const highlighted = new Set(highlightBusIds);
   return (
     <svg

@@ -1,7 +1,8 @@
 import type { Route } from "./+types/ladder";
 import { apiError, readJsonBody } from "#app/lib/api.server.ts";
 import { requireApiNetwork } from "#app/lib/access.server.ts";
-import { runLadderOnNetwork } from "#app/lib/ladder.server.ts";
+import { computeRefusal } from "#app/lib/compute/results.server.ts";
+import { ladderJsonOnNetwork } from "#app/lib/ladder.server.ts";
 
 /**
  * POST /api/networks/:id/ladder with { sectionBus, voltagesKV, money?, overrides? }: the voltage
@@ -12,23 +13,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (request.method !== "POST") {
     return Response.json({ error: "Use POST to run the voltage ladder." }, { status: 405, headers: { Allow: "POST" } });
   }
-  const { db, network } = await requireApiNetwork(request, params, "view");
+  const { db, network, actor } = await requireApiNetwork(request, params, "view");
   const body = await readJsonBody(request);
-  const run = await runLadderOnNetwork(db, network, body);
+  const run = await ladderJsonOnNetwork(db, network, body, actor, request.signal).catch((failure) => computeRefusal(failure, "api"));
   if (!run.ok) return apiError(run.status, run.error, run.issues);
-  const { ladder } = run;
-  return Response.json(
-    {
-      networkId: network.id,
-      revision: run.revision,
-      sectionBus: ladder.sectionBus,
-      section: ladder.section,
-      money: ladder.money,
-      alternatives: ladder.alternatives,
-      cheapest: ladder.cheapest,
-      sensitivity: ladder.sensitivity,
-      inverseSquareReference: ladder.inverseSquareReference,
-    },
-    { headers: { "Kilostep-Revision": String(run.revision) } },
-  );
+  // The worker wrote the ladder's part; which network and revision lead the object.
+  const json = `{"networkId":${network.id},"revision":${run.revision},${run.json.slice(1)}`;
+  return new Response(json, { headers: { "Content-Type": "application/json", "Kilostep-Revision": String(run.revision) } });
 }

@@ -5,6 +5,6 @@ import { requireApiNetwork } from "#app/lib/access.server.ts";
 import { resultsCsvResponse } from "#app/lib/resultsCsv.server.ts";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { db, network } = await requireApiNetwork(request, params, "view");
-  return resultsCsvResponse(db, network, new URL(request.url).searchParams.get("table"));
+  const { db, network, actor } = await requireApiNetwork(request, params, "view");
+  return resultsCsvResponse(db, network, new URL(request.url).searchParams.get("table"), actor);
 }

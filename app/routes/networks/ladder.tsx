@@ -30,11 +30,12 @@ import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireNetwork } from "#app/lib/access.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
+import { computeRefusal, ladderOf } from "#app/lib/compute/results.server.ts";
 import { runLadderOnNetwork, saveLadderStudy, savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
 import { networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
 import { candidateVoltagesKV } from "#solver/iec60038.ts";
-import { findSection, runLadder, type Ladder } from "#solver/ladder.ts";
+import { findSection, type Ladder } from "#solver/ladder.ts";
 import { validateNetwork } from "#solver/schema.ts";
 import "#app/components/report/drawing.css";
 import "#app/components/ladder/ladder.css";
@@ -42,11 +43,14 @@ import "#app/components/ladder/ladder.css";
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Voltage ladder · ${data?.name ?? "Network"} · Kilostep` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { db, network, role } = await requireNetwork(request, params, "view");
+  const { db, network, role, actor } = await requireNetwork(request, params, "view");
   const [revision, saved] = await Promise.all([currentDocument(db, network), savedLadderStudy(db, network.id)]);
   const checked = validateNetwork(revision.document);
   // The saved study is run again on the current revision, so what the page shows is never stale.
-  const savedRun = saved.study && checked.ok ? runLadder(checked.network, saved.study.request) : null;
+  const savedRun =
+    saved.study && checked.ok
+      ? await ladderOf(checked.network, saved.study.request, actor, request.signal).catch((failure) => computeRefusal(failure, "page"))
+      : null;
   return {
     id: network.id,
     name: network.name,
@@ -83,7 +87,12 @@ export async function action({ request, params }: Route.ActionArgs) {
     const editing = await networkAccess(db, actor, network.id, "edit");
     if (!editing.ok) return answer({ ok: false, intent, error: editing.error, issues: [] }, editing.status);
   }
-  const run = intent === "save" ? await saveLadderStudy(db, network, user.id, body.request, typeof body.basedOn === "string" ? body.basedOn : null) : await runLadderOnNetwork(db, network, body.request);
+  const basedOn = typeof body.basedOn === "string" ? body.basedOn : null;
+  const ladder =
+    intent === "save"
+      ? saveLadderStudy(db, network, { kind: "user", userId: user.id }, body.request, basedOn, request.signal)
+      : runLadderOnNetwork(db, network, body.request, actor, request.signal);
+  const run = await ladder.catch((failure) => computeRefusal(failure, "page"));
   if (!run.ok) return answer({ ok: false, intent, error: run.error, issues: run.issues }, run.status);
   return answer({ ok: true, intent, ladder: run.ladder, request: body.request });
 }

@@ -16,8 +16,10 @@ import { formatDate, formatDateTime } from "#app/lib/format.ts";
 import { savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { networkReader } from "#app/lib/networkReader.server.ts";
 import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
-import { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU, solveNetwork } from "#solver/index.ts";
-import { ladderRequestSchema, runLadder, type AlternativeOverrides } from "#solver/ladder.ts";
+import { computeRefusal, revisionReport } from "#app/lib/compute/results.server.ts";
+import { DRAWING_MAX_BUSES } from "#app/lib/compute/tasks.ts";
+import { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/index.ts";
+import { ladderRequestSchema, type AlternativeOverrides } from "#solver/ladder.ts";
 import "#app/components/report/drawing.css";
 import "#app/components/ladder/ladder.css";
 import "#app/components/report/report.css";
@@ -30,10 +32,10 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: `Study report ·
 export async function loader({ request, params }: Route.LoaderArgs) {
   const db = await getDb();
   // Also mapped at /s/:token/report: a view-link holder reads the same report without an account.
-  const { network, user, home, viaLink } = await networkReader(db, request, params);
+  const { network, user, actor, home, viaLink } = await networkReader(db, request, params);
   const [revision, team, saved] = await Promise.all([currentDocument(db, network), teamNameOf(db, network), savedLadderStudy(db, network.id)]);
-  const solved = solveNetwork(revision.document);
-  const ladderRun = saved.study && solved.ok ? runLadder(solved.network, saved.study.request) : null;
+  const report = await revisionReport(db, network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"));
+  const { solved, ladder: ladderRun, drawing } = report;
   const overrides = saved.study ? (ladderRequestSchema.parse(saved.study.request).overrides as (AlternativeOverrides | null)[] | undefined) : undefined;
   return {
     id: network.id,
@@ -50,6 +52,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     studyUnreadable: saved.unreadable,
     ladder: ladderRun?.ok ? ladderRun.ladder : null,
     ladderIssues: ladderRun && !ladderRun.ok ? ladderRun.issues : [],
+    drawing,
   };
 }
 
@@ -112,14 +115,22 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
               ].join(", ")}
               ; {solved.network.frequencyHz} Hz, system base {solved.network.baseMVA} MVA. Bus voltages from the load flow are written under each bus.
             </p>
+            {loaderData.drawing ? (
             <figure className="ks-report-figure">
               <SingleLineDrawing
+                layout={loaderData.drawing}
                 network={solved.network}
                 label={`Single-line drawing of ${name}`}
                 busNotes={Object.fromEntries(solved.result.loadFlow.converged ? solved.result.loadFlow.buses.map((b) => [b.id, `${fixed(b.vPu, 3)} pu`]) : [])}
               />
               <figcaption>Single-line drawing, computed from the network file: the source on the left, each branch a column further on.</figcaption>
             </figure>
+            ) : (
+              <p>
+                The single-line drawing is left out: the network has {solved.network.buses.length} buses, more than the {DRAWING_MAX_BUSES} a
+                printed page can show legibly. The tables below list every bus and branch.
+              </p>
+            )}
           </section>
 
           <section className="ks-report-part" aria-labelledby="report-flow">

@@ -8,6 +8,6 @@ import { resultsCsvResponse } from "#app/lib/resultsCsv.server.ts";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const db = await getDb();
-  const { network } = await networkReader(db, request, { token: params.token });
-  return resultsCsvResponse(db, network, new URL(request.url).searchParams.get("table"));
+  const { network, actor } = await networkReader(db, request, { token: params.token });
+  return resultsCsvResponse(db, network, new URL(request.url).searchParams.get("table"), actor);
 }

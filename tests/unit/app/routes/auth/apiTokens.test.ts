@@ -118,6 +118,6 @@ describe("solve budget", () => {
     }
     expect(statuses).toEqual([200, 200, 200, 200, 200, 429]);
     expect(Number(last!.headers.get("Retry-After"))).toBeGreaterThan(0);
-    expect(last!.body.error).toMatch(/at most 5 a minute/);
+    expect(last!.body.error).toMatch(/at most 5 units a minute/);
   });
 });

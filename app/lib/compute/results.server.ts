@@ -1,0 +1,119 @@
+// The server's computed answers, each run on the compute pool (pool.server.ts) and paid from the
+// caller's budget (budget.server.ts). Answers about a stored revision are kept per revision (a
+// revision never changes), so a download, a shared report and a page that ask for the same one
+// share a single calculation, and only the first pays for it.
+import { data } from "react-router";
+import type { NetworkRow } from "#db/schema.ts";
+import type { LadderOutcome } from "#solver/ladder.ts";
+import type { Db } from "../db.server.ts";
+import { currentDocument } from "../networks.server.ts";
+import type { Actor } from "../permissions.server.ts";
+import { solveCost, spend, type BudgetRefusal } from "./budget.server.ts";
+import { compute, ComputeStopped } from "./pool.server.ts";
+import type { CsvOutcome, JsonOutcome, ReportData } from "./tasks.ts";
+
+/** The caller's budget was spent; `refusal` says how long to wait. */
+export class BudgetExceeded extends Error {
+  constructor(readonly refusal: BudgetRefusal) {
+    super(refusal.error);
+    this.name = "BudgetExceeded";
+  }
+}
+
+/** Whose budget pays: the account, or the share link used without one. */
+export function payerOf(actor: Actor): string {
+  return actor.kind === "user" ? `user:${actor.userId}` : `link:${actor.linkId}`;
+}
+
+function busCountOf(document: unknown): number {
+  const buses = (document as { buses?: unknown } | null)?.buses;
+  return Array.isArray(buses) ? buses.length : 0;
+}
+
+const CACHE_ENTRIES = 48;
+const cache = new Map<string, Promise<unknown>>();
+
+function pay(payer: string, cost: number) {
+  const refusal = spend(payer, cost);
+  if (refusal) throw new BudgetExceeded(refusal);
+}
+
+/** One calculation per key: later askers (even while it runs) get the same promise, free. */
+function once<T>(key: string, payer: string, cost: number, make: () => Promise<T>): Promise<T> {
+  const hit = cache.get(key) as Promise<T> | undefined;
+  if (hit) {
+    cache.delete(key);
+    cache.set(key, hit);
+    return hit;
+  }
+  pay(payer, cost);
+  const made = make();
+  cache.set(key, made);
+  made.catch(() => cache.delete(key));
+  while (cache.size > CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
+  return made;
+}
+
+function revisionKey(kind: string, network: NetworkRow, extra = ""): string {
+  return `${kind}:${network.id}:${network.current_revision}:${extra}`;
+}
+
+/** Load flow, fault levels and checks of the network's current revision, as the API's JSON. */
+export async function solvedRevisionJson(db: Db, network: NetworkRow, actor: Actor): Promise<JsonOutcome> {
+  const { document } = await currentDocument(db, network);
+  return once(revisionKey("solve", network), payerOf(actor), solveCost(busCountOf(document)), () => compute({ kind: "solve-json", document }));
+}
+
+/** The current revision's bus or branch results as CSV, or { ok: false } when it does not solve. */
+export async function revisionCsv(db: Db, network: NetworkRow, table: "buses" | "branches", actor: Actor): Promise<CsvOutcome> {
+  const { document } = await currentDocument(db, network);
+  return once(revisionKey("csv", network, table), payerOf(actor), solveCost(busCountOf(document)), () => compute({ kind: "csv", document, table }));
+}
+
+/** The study report's numbers for the current revision and the saved study (kept per both). */
+export async function revisionReport(
+  db: Db,
+  network: NetworkRow,
+  study: { request: unknown; updatedAt: string } | null,
+  actor: Actor,
+): Promise<ReportData> {
+  const { document } = await currentDocument(db, network);
+  const voltages = (study?.request as { voltagesKV?: unknown[] } | undefined)?.voltagesKV?.length ?? 0;
+  const cost = solveCost(busCountOf(document)) * (1 + voltages);
+  return once(revisionKey("report", network, study?.updatedAt ?? ""), payerOf(actor), cost, () =>
+    compute({ kind: "report", document, study: study?.request ?? null }),
+  );
+}
+
+/** The voltage ladder for a document and a request (not kept: each request asks something new). */
+export function ladderOf(document: unknown, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderOutcome>;
+export function ladderOf(document: unknown, request: unknown, actor: Actor, signal: AbortSignal | undefined, form: "json"): Promise<JsonOutcome>;
+export async function ladderOf(document: unknown, request: unknown, actor: Actor, signal?: AbortSignal, form?: "json") {
+  const voltages = (request as { voltagesKV?: unknown[] } | null)?.voltagesKV?.length ?? 1;
+  pay(payerOf(actor), solveCost(busCountOf(document)) * Math.max(1, Math.min(voltages, 12)));
+  return form === "json" ? compute({ kind: "ladder-json", document, request }, { signal }) : compute({ kind: "ladder", document, request }, { signal });
+}
+
+/** Solve a document sent with the request (not stored, so not kept), as the API's JSON. */
+export async function solveSentJson(document: unknown, actor: Actor): Promise<JsonOutcome> {
+  pay(payerOf(actor), solveCost(busCountOf(document)));
+  return compute({ kind: "solve-json", document });
+}
+
+/**
+ * A refused or stopped calculation as the caller's answer: 429 with Retry-After for a spent
+ * budget, 503 with the sentence for work stopped at its time limit. Anything else is rethrown.
+ */
+export function computeRefusal(failure: unknown, caller: "page" | "api" | "text"): never {
+  let status: number;
+  let headers: Record<string, string> = {};
+  if (failure instanceof BudgetExceeded) {
+    status = 429;
+    headers = { "Retry-After": String(failure.refusal.retryAfterSeconds) };
+  } else if (failure instanceof ComputeStopped) status = 503;
+  else throw failure;
+  const sentence = failure.message;
+  if (caller === "page") throw data(sentence, { status, headers });
+  if (caller === "api") throw Response.json({ error: sentence }, { status, headers });
+  throw new Response(`${sentence}\n`, { status, headers: { ...headers, "Content-Type": "text/plain; charset=utf-8" } });
+}

@@ -1,0 +1,79 @@
+// The compute pool, its budget and the per-revision cache: work runs on a worker thread and
+// comes back whole; a time limit or a cancellation stops it with a sentence; the budget counts
+// work (buses), not requests; a revision's CSV is computed once however often it is downloaded.
+import { afterAll, describe, expect, it, vi } from "vitest";
+
+vi.hoisted(() => {
+  process.env.SOLVE_RATE_LIMIT_PER_MINUTE = "30";
+});
+
+import { solveCost, spend } from "#app/lib/compute/budget.server.ts";
+import { closeComputePool, compute, ComputeStopped } from "#app/lib/compute/pool.server.ts";
+import { BudgetExceeded, revisionCsv } from "#app/lib/compute/results.server.ts";
+import { getDb } from "#app/lib/db.server.ts";
+import { createNetwork } from "#app/lib/networks.server.ts";
+import { solveNetwork } from "#solver/index.ts";
+import { syntheticFeeder } from "../../../../bench/syntheticFeeder.ts";
+import { fixtureText, makeTeam } from "../../routes/teamFixtures.ts";
+
+afterAll(() => closeComputePool());
+
+describe("the compute pool", () => {
+  it("answers exactly what the solver answers on the request thread", async () => {
+    const document = JSON.parse(fixtureText("tarn-head-calder-flats.json"));
+    const inWorker = await compute({ kind: "solve", document });
+    expect(inWorker).toEqual(solveNetwork(document));
+  }, 60_000);
+
+  it("stops work at its time limit, and when cancelled, with a sentence", async () => {
+    const document = syntheticFeeder(3_000);
+    const late = await compute({ kind: "solve", document }, { timeLimitMs: 1 }).catch((e: unknown) => e);
+    expect(late).toBeInstanceOf(ComputeStopped);
+    expect((late as ComputeStopped).reason).toBe("time-limit");
+    expect((late as Error).message).toMatch(/stopped after .* its time limit/);
+    const controller = new AbortController();
+    const asked = compute({ kind: "solve", document }, { signal: controller.signal });
+    controller.abort();
+    const cancelled = await asked.catch((e: unknown) => e);
+    expect((cancelled as ComputeStopped).reason).toBe("cancelled");
+  }, 60_000);
+});
+
+describe("the compute budget", () => {
+  it("charges one unit per started hundred buses", () => {
+    expect([solveCost(1), solveCost(100), solveCost(101), solveCost(15_000)]).toEqual([1, 1, 2, 150]);
+  });
+
+  it("refuses once the minute's units are spent, says how long to wait, and refills over time", () => {
+    const now = 1_000_000;
+    expect(spend("user:budget-a", 20, now)).toBeNull();
+    expect(spend("user:budget-a", 10, now)).toBeNull();
+    const refused = spend("user:budget-a", 10, now);
+    expect(refused).toMatchObject({ status: 429, retryAfterSeconds: 20 }); // 10 units at 30 a minute
+    expect(refused?.error).toMatch(/at most 30 units a minute/);
+    expect(spend("user:budget-a", 10, now + 20_000)).toBeNull();
+    expect(spend("user:budget-b", 10, now)).toBeNull(); // each payer has its own budget
+  });
+
+  it("lets one piece of work bigger than the whole budget run when the budget is full", () => {
+    expect(spend("user:budget-c", 150, 0)).toBeNull();
+    expect(spend("user:budget-c", 1, 0)).not.toBeNull();
+  });
+});
+
+describe("results kept per revision", () => {
+  it("computes a revision's CSV once: later downloads are free and identical", async () => {
+    const team = await makeTeam("Cache");
+    const db = await getDb();
+    const created = await createNetwork(db, { teamId: team.teamId, document: syntheticFeeder(2_900), authorId: team.userIds.owner });
+    if (!created.ok) throw new Error("feeder does not validate");
+    const actor = { kind: "user" as const, userId: team.userIds.viewer };
+    // 29 units of 30: a second paid download would be refused, a cached one is not.
+    const first = await revisionCsv(db, created.network, "buses", actor);
+    const again = await Promise.all([revisionCsv(db, created.network, "buses", actor), revisionCsv(db, created.network, "buses", actor)]);
+    expect(first.ok).toBe(true);
+    expect(again).toEqual([first, first]);
+    const other = await revisionCsv(db, created.network, "branches", actor).catch((e: unknown) => e);
+    expect(other).toBeInstanceOf(BudgetExceeded);
+  }, 120_000);
+});
