@@ -2,7 +2,7 @@
 // validate the document, run the load flow, then the fault levels, then the checks.
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import type { Check, SolveResult } from "#solver/results.ts";
-import { runLoadFlow } from "#solver/loadFlow/index.ts";
+import { regulatedLoadFlow } from "#solver/regulatedLoadFlow.ts";
 import { loadFlowChecks } from "#solver/checks.ts";
 import { computeFaultLevels, faultChecks } from "#solver/faults/index.ts";
 
@@ -44,7 +44,7 @@ export function solveNetwork(document: unknown, options: SolveOptions = {}): Sol
  */
 export function solveValidated(network: Network, options: SolveOptions = {}): SolveOutcome {
   try {
-    const loadFlow = runLoadFlow(network);
+    const loadFlow = regulatedLoadFlow(network);
     const checks: Check[] = loadFlowChecks(network, loadFlow);
     const result: SolveResult = { loadFlow, checks };
     if (options.faults ?? true) {

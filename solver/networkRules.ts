@@ -2,6 +2,7 @@
 // one slack per connected group, winding voltages against their buses, lines within one voltage
 // level, possible vector groups, operating cases that name what exists. Each issue names the
 // element and its path. Run on a document whose shape is already valid.
+import { equipmentRules } from "#solver/equipmentRules.ts";
 import type { Network } from "#solver/schema.ts";
 import { ELEMENT_COLLECTIONS } from "#solver/elements.ts";
 
@@ -120,6 +121,7 @@ export function networkRules(net: Network, add: AddIssue): void {
   for (let i = 0; i < net.shunts.length; i++) busRef("shunts", i, "bus", net.shunts[i].bus, "Shunt");
 
   operatingCaseRules(net, add);
+  equipmentRules(net, add);
   slackRules(net, busAt, add);
 }
 

@@ -22,6 +22,10 @@ export interface BranchReading {
   currentA: number;
   /** Of ampacity (lines) or rated MVA (transformers); null when there is no rating. */
   loadingPct: number | null;
+  /** Transformers: the tap in use, after regulation where the transformer regulates. */
+  tapPct?: number;
+  /** Regulating transformers: true when the range ran out before the band was reached. */
+  tapLimited?: boolean;
 }
 
 export interface SourceReading {
@@ -58,13 +62,26 @@ export interface FaultBusReading {
   ip3kA: number;
   ik1kA: number;
   rOverX: number;
+  /** IEC 60909-0 minimum case: c_min, weakest infeeds, conductors at end-of-fault temperature, no converters. */
+  ik3MinKA: number;
+  ik1MinKA: number;
+  /** How i_p was found: one radial path, the sum of partial peaks by branch, or method C (equivalent frequency). */
+  ipMethod: "radial" | "branch-sum" | "equivalent-frequency";
   /** Why a value is what it is, e.g. "unearthed system at this bus" when ik1kA is 0. */
   note?: string;
+}
+
+export interface ConverterFaultReading {
+  id: string;
+  bus: string;
+  /** Short-circuit ratio at the plant's bus: S"k3min / rated MVA. */
+  scr: number;
 }
 
 export interface FaultResult {
   method: "IEC 60909-0";
   buses: FaultBusReading[];
+  converters: ConverterFaultReading[];
 }
 
 export type CheckKind =
@@ -73,6 +90,8 @@ export type CheckKind =
   | "line-overload"
   | "transformer-overload"
   | "breaking-current"
+  | "minimum-fault-level"
+  | "weak-grid"
   | "not-converged";
 
 export interface Check {

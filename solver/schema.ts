@@ -43,6 +43,8 @@ export const busSchema = z.strictObject({
   vMinPu: voltagePu.default(0.95),
   vMaxPu: voltagePu.default(1.05),
   breakingKA: within(0, 1000, "kA", { minExclusive: true }).optional(),
+  /** Version 2: the minimum S"k3min the planner asks of this bus (a grid-connection requirement). */
+  minFaultMVA: within(1e-3, 1e7, "MVA").optional(),
   x: finite.optional(),
   y: finite.optional(),
 });
@@ -51,8 +53,10 @@ export const sourceSchema = z.strictObject({
   id,
   name,
   bus: id,
-  kind: z.enum(["grid", "generator"]),
-  control: z.enum(["slack", "pv", "pq"]),
+  /** "converter" (version 2): a plant connected through power electronics, an IEC 60909-0:2016 full-converter unit. */
+  kind: z.enum(["grid", "generator", "converter"]),
+  /** "pf" (version 2, converters): pMW at powerFactor. */
+  control: z.enum(["slack", "pv", "pq", "pf"]),
   voltagePu: voltagePu.default(1.0),
   angleDeg: within(-180, 180, "degrees").default(0),
   pMW: signedMW.default(0),
@@ -60,12 +64,18 @@ export const sourceSchema = z.strictObject({
   qMinMvar: signedMvar.optional(),
   qMaxMvar: signedMvar.optional(),
   shortCircuitMVA: within(1e-3, 1e7, "MVA").optional(),
+  /** Version 2, grid: the weakest infeed, for minimum fault levels. */
+  shortCircuitMinMVA: within(1e-3, 1e7, "MVA").optional(),
   xOverR: xOverR.optional(),
   z0OverZ1: ratio.optional(),
   ratedMVA: MVA.optional(),
   ratedKV: kV.optional(),
   xdSubtransientPct: within(1, 1000, "%").optional(),
   ratedPowerFactor: within(0, 1, "", { minExclusive: true }).optional(),
+  /** Version 2, converter with control "pf": + supplies reactive power, − absorbs it. */
+  powerFactor: within(-1, 1, "").optional(),
+  /** Version 2, converter: maximum short-circuit current I_skPF as a percentage of rated current. */
+  faultCurrentPct: within(0, 1000, "%").optional(),
 });
 
 export const transformerSchema = z.strictObject({
@@ -88,6 +98,14 @@ export const transformerSchema = z.strictObject({
     .string()
     .regex(vectorGroupPattern, "must be an IEC 60076-1 vector group such as YNd11, Dyn11 or YNyn0"),
   z0OverZ1: ratio.optional(),
+  /** Version 2: an on-load tap changer holding |V| of `bus` within targetPu ± bandPu/2. */
+  tapControl: z
+    .strictObject({
+      bus: id,
+      targetPu: voltagePu,
+      bandPu: within(0.001, 0.5, "pu"),
+    })
+    .optional(),
 });
 
 export const lineSchema = z.strictObject({

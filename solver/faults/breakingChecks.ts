@@ -1,3 +1,4 @@
+// Minimum fault level and converter short-circuit ratio checks follow below.
 // Switchgear duty: the initial symmetrical short-circuit current against the rated breaking
 // current. I"k is at least the symmetrical breaking current I_b, so the comparison errs safe.
 import type { Check, FaultResult } from "#solver/results.ts";
@@ -23,6 +24,41 @@ export function faultChecks(network: Network, faults: FaultResult): Check[] {
         `Bus "${bus.name}" (${bus.id}): initial symmetrical short-circuit current I"k3 = ${kA(reading.ik3kA)}, ` +
         `I"k1 = ${kA(reading.ik1kA)}; ${reading.ik3kA >= reading.ik1kA ? 'I"k3' : 'I"k1'} exceeds the switchgear's ` +
         `rated breaking current ${kA(bus.breakingKA)} (IEC 60909-0 initial symmetrical current against rated breaking current)`,
+    });
+  }
+  checks.push(...minimumFaultChecks(network, faults));
+  return checks;
+}
+
+/** Below this short-circuit ratio a converter plant's connection counts as weak (common practice). */
+export const WEAK_GRID_SCR = 3;
+
+/** The minimum fault level against what the planner asks of a bus, and each converter's SCR. */
+function minimumFaultChecks(network: Network, faults: FaultResult): Check[] {
+  const readings = new Map(faults.buses.map((r) => [r.id, r]));
+  const checks: Check[] = [];
+  for (const bus of network.buses) {
+    const reading = readings.get(bus.id);
+    if (bus.minFaultMVA === undefined || !reading) continue;
+    const minimumMVA = Math.sqrt(3) * bus.nominalKV * reading.ik3MinKA;
+    if (minimumMVA >= bus.minFaultMVA) continue;
+    checks.push({
+      element: bus.id,
+      kind: "minimum-fault-level",
+      value: minimumMVA,
+      limit: bus.minFaultMVA,
+      message: `Bus "${bus.name}" (${bus.id}): minimum fault level S"k3min = ${minimumMVA.toFixed(0)} MVA is below the ${bus.minFaultMVA} MVA asked of it (IEC 60909-0 minimum case)`,
+    });
+  }
+  for (const converter of faults.converters) {
+    if (converter.scr >= WEAK_GRID_SCR) continue;
+    const source = network.sources.find((s) => s.id === converter.id)!;
+    checks.push({
+      element: converter.id,
+      kind: "weak-grid",
+      value: converter.scr,
+      limit: WEAK_GRID_SCR,
+      message: `Converter plant "${source.name}" (${source.id}): short-circuit ratio ${converter.scr.toFixed(2)} at its bus is below ${WEAK_GRID_SCR}, a weak connection (S"k3min / rated MVA, common practice)`,
     });
   }
   return checks;

@@ -23,6 +23,11 @@
 //   practice). Generator and unit transformer are corrected separately with K_G and K_T, as
 //   the methods prescribe, rather than as one power-station unit. Without `ratedKV` a
 //   generator is rated at its bus's nominal voltage; without `ratedPowerFactor`, cos φ = 0.85.
+// - Converter plants are no shunt here: they enter as current sources, superposed on the result
+//   (IEC 60909-0:2016), and only in the maximum case.
+// - The minimum case (IEC 60909-0): c_min at the fault and in Z_Q, each grid at
+//   `shortCircuitMinMVA` where given, line resistances at the end-of-fault temperature; K_T
+//   and K_G as for the maximum.
 import type { Bus, Network, Source, Transformer } from "#solver/schema.ts";
 import { busIndexOf } from "#solver/idIndex.ts";
 import {
@@ -39,6 +44,7 @@ import {
   transformerCorrectionKT,
   voltageFactorCMax,
 } from "./iecFactors.ts";
+import { endOfFaultResistanceFactor, voltageFactorCMin } from "./minimumFault.ts";
 import { NodalNetworkBuilder, type NodalNetwork } from "./nodalNetwork.ts";
 import { parseVectorGroup, VectorGroupError, zeroSequenceCoupling, type VectorGroup } from "./vectorGroup.ts";
 
@@ -49,10 +55,13 @@ export const DEFAULT_GENERATOR_POWER_FACTOR = 0.85;
 /** Zero-sequence line impedance over positive when r0/x0 are not given (common practice). */
 export const LINE_Z0_OVER_Z1 = 3;
 
+/** IEC 60909-0's two cases: the maximum (switchgear) and the minimum (protection, converters' SCR). */
+export type FaultCase = "maximum" | "minimum";
+
 export interface SequenceNetworks {
   buses: Bus[];
-  /** c_max of each bus's voltage level, in bus order. */
-  cMax: Float64Array;
+  /** c of each bus's voltage level for the case (c_max or c_min), in bus order. */
+  c: Float64Array;
   positive: NodalNetwork;
   zero: NodalNetwork;
 }
@@ -75,10 +84,12 @@ function splitByXOverR(magnitude: number, xOverR: number): Complex {
   return { re, im: re * xOverR };
 }
 
-function gridImpedancePu(source: Source, bus: Bus, baseMVA: number): Complex {
-  const c = voltageFactorCMax(bus.nominalKV);
+function gridImpedancePu(source: Source, bus: Bus, baseMVA: number, faultCase: FaultCase): Complex {
+  const minimum = faultCase === "minimum";
+  const c = minimum ? voltageFactorCMin(bus.nominalKV) : voltageFactorCMax(bus.nominalKV);
+  const infeedMVA = minimum ? (source.shortCircuitMinMVA ?? source.shortCircuitMVA!) : source.shortCircuitMVA!;
   // Z_Q = c·U_nQ² / S"kQ in ohms; on the bus's own voltage base U_nQ² cancels.
-  const magnitude = (c * baseMVA) / source.shortCircuitMVA!;
+  const magnitude = (c * baseMVA) / infeedMVA;
   return splitByXOverR(magnitude, source.xOverR ?? 1 / DEFAULT_GRID_R_OVER_X);
 }
 
@@ -169,7 +180,7 @@ function addTransformerZeroSequence(
   }
 }
 
-export function buildSequenceNetworks(network: Network): SequenceNetworks {
+export function buildSequenceNetworks(network: Network, faultCase: FaultCase = "maximum"): SequenceNetworks {
   const { buses, baseMVA } = network;
   const index = busIndexOf(network);
   const busIndex = (busId: string, kind: string, elementId: string): number => {
@@ -186,9 +197,10 @@ export function buildSequenceNetworks(network: Network): SequenceNetworks {
     const to = busIndex(line.toBus, "line", line.id);
     const z1 = lineSeriesImpedancePu(line, buses[from], baseMVA);
     const ohmToPu = line.lengthKm / impedanceBaseOhm(buses[from].nominalKV, baseMVA);
-    const r0 = (line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm) * ohmToPu;
+    const hot = faultCase === "minimum" ? endOfFaultResistanceFactor() : 1;
+    const r0 = (line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm) * ohmToPu * hot;
     const x0 = (line.x0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.xOhmPerKm) * ohmToPu;
-    positive.branch(from, to, z1.r, z1.x);
+    positive.branch(from, to, z1.r * hot, z1.x);
     zero.branch(from, to, r0, x0);
   }
 
@@ -203,10 +215,11 @@ export function buildSequenceNetworks(network: Network): SequenceNetworks {
 
   for (const source of network.sources) {
     const k = busIndex(source.bus, "source", source.id);
+    if (source.kind === "converter") continue;
     if (source.kind === "grid") {
       if (source.shortCircuitMVA === undefined)
         throw new FaultModelError(`grid infeed "${source.id}" has no shortCircuitMVA`);
-      const zQ = gridImpedancePu(source, buses[k], baseMVA);
+      const zQ = gridImpedancePu(source, buses[k], baseMVA, faultCase);
       const z0 = scale(zQ, source.z0OverZ1 ?? DEFAULT_GRID_Z0_OVER_Z1);
       positive.shunt(k, zQ.re, zQ.im);
       zero.shunt(k, z0.re, z0.im);
@@ -220,7 +233,7 @@ export function buildSequenceNetworks(network: Network): SequenceNetworks {
 
   return {
     buses,
-    cMax: Float64Array.from(buses, (b) => voltageFactorCMax(b.nominalKV)),
+    c: Float64Array.from(buses, (b) => (faultCase === "minimum" ? voltageFactorCMin(b.nominalKV) : voltageFactorCMax(b.nominalKV))),
     positive: positive.build(),
     zero: zero.build(),
   };

@@ -4,6 +4,7 @@
 import type { KeyboardEvent } from "react";
 import {
   CapacitorSymbol,
+  ConverterSymbol,
   GeneratorSymbol,
   GridInfeedSymbol,
   LineSymbol,
@@ -285,6 +286,8 @@ function AttachmentSymbol({ kind, stroke: s }: { kind: PlacedAttachment["kind"];
       return <GridInfeedSymbol width={SYMBOL_WIDTH} height={SYMBOL_HEIGHT} side="left" stroke={s} />;
     case "generator":
       return <GeneratorSymbol width={SYMBOL_WIDTH} height={SYMBOL_HEIGHT} side="left" stroke={s} />;
+    case "converter":
+      return <ConverterSymbol width={SYMBOL_WIDTH} height={SYMBOL_HEIGHT} side="left" stroke={s} />;
   }
 }
 

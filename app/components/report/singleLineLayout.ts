@@ -73,7 +73,7 @@ export interface LoopBranch {
   details: string[];
 }
 
-export type AttachmentKind = "load" | "capacitor" | "reactor" | "generator" | "grid";
+export type AttachmentKind = "load" | "capacitor" | "reactor" | "generator" | "converter" | "grid";
 
 export interface PlacedAttachment {
   id: string;

@@ -11,6 +11,7 @@ import { type LimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#a
 import { useSheet } from "./sheetStore.ts";
 import {
   CapacitorSymbol,
+  ConverterSymbol,
   GeneratorSymbol,
   GridInfeedSymbol,
   LineSymbol,
@@ -200,7 +201,7 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "right";
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.sources.get(id) : undefined));
-  const Symbol = source.kind === "grid" ? GridInfeedSymbol : GeneratorSymbol;
+  const Symbol = source.kind === "grid" ? GridInfeedSymbol : source.kind === "converter" ? ConverterSymbol : GeneratorSymbol;
   return (
     <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
       <Label>

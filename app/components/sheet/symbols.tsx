@@ -90,6 +90,28 @@ export function GeneratorSymbol({ width, height, side, stroke }: { width: number
   );
 }
 
+/**
+ * A converter-connected plant (solar, wind, battery): a square split by its diagonal, direct
+ * current (a straight stroke and a dashed one) in the far half and a sine in the half that faces
+ * the network. Deliberately not a circle: the plant has no rotating machine behind it.
+ */
+export function ConverterSymbol({ width, height, side, stroke }: { width: number; height: number; side: Side; stroke: SymbolStroke }) {
+  const size = 32;
+  const x = width - size - 4;
+  const y = height / 2 - size / 2;
+  const ink = "var(--color-ink, #1d2733)";
+  return (
+    <Frame width={width} height={height} side={side}>
+      <line x1={0} y1={height / 2} x2={x} y2={height / 2} {...strokeProps(stroke)} />
+      <rect x={x} y={y} width={size} height={size} {...strokeProps(stroke)} strokeWidth={Math.max(1.5, stroke.strokePx * 0.8)} />
+      <line x1={x} y1={y + size} x2={x + size} y2={y} stroke={ink} strokeWidth={1.2} />
+      <path d={`M ${x + 4} ${y + 10} q 3 -5 6 0 t 6 0`} fill="none" stroke={ink} strokeWidth={1.4} />
+      <line x1={x + 17} y1={y + 22} x2={x + 28} y2={y + 22} stroke={ink} strokeWidth={1.4} />
+      <line x1={x + 17} y1={y + 26} x2={x + 28} y2={y + 26} stroke={ink} strokeWidth={1.4} strokeDasharray="2.5 2" />
+    </Frame>
+  );
+}
+
 export function TransformerSymbol({
   width,
   height,

@@ -5,7 +5,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { computeFaultLevels } from "#solver/faults/index.ts";
 import { validateNetwork, type Network } from "#solver/schema.ts";
-import { referenceFaultLevels } from "./denseReference.ts";
+import { referenceFaultLevels, referenceMinimumFaultLevels } from "./denseReference.ts";
 import { randomNetwork } from "./randomNetworks.ts";
 
 const fixturesDir = join(import.meta.dirname, "../../../fixtures");
@@ -14,6 +14,7 @@ const TOLERANCE_PU = 1e-9;
 function expectAgreement(network: Network) {
   const mine = computeFaultLevels(network);
   const reference = referenceFaultLevels(network);
+  const minimum = referenceMinimumFaultLevels(network);
   network.buses.forEach((bus, k) => {
     const baseKA = network.baseMVA / (Math.sqrt(3) * bus.nominalKV);
     const got = mine.buses[k];
@@ -25,7 +26,35 @@ function expectAgreement(network: Network) {
     expect(Math.abs(got.ik1kA - want.ik1kA) / baseKA, `${where} I"k1`).toBeLessThan(TOLERANCE_PU);
     expect(Math.abs(got.rOverX - want.rOverX), `${where} R/X`).toBeLessThan(1e-9);
     expect(got.note === "unearthed system at this bus", `${where} unearthed note`).toBe(want.z0Ohm === null);
+    expect(got.ipMethod, `${where} peak method`).toBe(want.ipMethod);
+    const least = minimum[k];
+    expect(Math.abs(got.ik3MinKA - least.ik3kA) / baseKA, `${where} I"k3min`).toBeLessThan(TOLERANCE_PU);
+    expect(Math.abs(got.ik1MinKA - least.ik1kA) / baseKA, `${where} I"k1min`).toBeLessThan(TOLERANCE_PU);
   });
+  for (const converter of mine.converters) {
+    const source = network.sources.find((s) => s.id === converter.id)!;
+    const k = network.buses.findIndex((b) => b.id === source.bus);
+    // SCR = S"k3min / rated MVA with S"k3min = √3·U_n·I"k3min.
+    expect(converter.scr).toBeCloseTo((Math.sqrt(3) * network.buses[k].nominalKV * minimum[k].ik3kA) / source.ratedMVA!, 9);
+  }
+}
+
+/** The same network with converter plants on a few buses (version 2), to exercise the current sources. */
+function withConverters(network: Network, seed: number): Network {
+  const picked = network.buses.filter((_, i) => (i * 7 + seed) % 5 === 0).slice(0, 3);
+  const checked = validateNetwork({
+    ...network,
+    version: 2,
+    sources: [
+      ...network.sources,
+      ...picked.map((b, n) => ({
+        id: `pv-${n}`, name: `Plant ${n}`, bus: b.id, kind: "converter", control: "pq",
+        pMW: 5, qMvar: 0, ratedMVA: 10 + 5 * n, faultCurrentPct: 110 + 10 * n,
+      })),
+    ],
+  });
+  if (!checked.ok) throw new Error(JSON.stringify(checked.issues));
+  return checked.network;
 }
 
 describe("fault levels agree with a dense Z-bus inverse on mathjs to 1e-9 pu", () => {
@@ -45,6 +74,12 @@ describe("fault levels agree with a dense Z-bus inverse on mathjs to 1e-9 pu", (
 
   it("random radial networks with every vector group family and generators", () => {
     for (let seed = 1; seed <= 40; seed++) expectAgreement(randomNetwork(seed, { busCount: 25, generators: true }));
+  });
+
+  it("random networks with converter plants added (IEC 60909-0:2016 current sources)", () => {
+    for (let seed = 201; seed <= 215; seed++) expectAgreement(withConverters(randomNetwork(seed, { busCount: 20, generators: true }), seed));
+    for (let seed = 301; seed <= 310; seed++)
+      expectAgreement(withConverters(randomNetwork(seed, { busCount: 20, loopCount: 4, generators: true }), seed));
   });
 
   it("random networks with rings and parallel lines", () => {

@@ -15,6 +15,7 @@ export interface ReferenceBusFault {
   ip3kA: number;
   ik1kA: number;
   rOverX: number;
+  ipMethod: "radial" | "branch-sum" | "equivalent-frequency";
 }
 
 const cMax = (kV: number) => (kV > 1 ? 1.1 : 1.05);
@@ -37,6 +38,12 @@ interface Stamp {
 }
 
 function driving(count: number, stamps: Stamp[]): (Complex | null)[] {
+  const z = impedanceMatrix(count, stamps);
+  return [...Array(count).keys()].map((i) => z(i, i));
+}
+
+/** Z_ij in ohms (i's voltage for a current at j), null where either bus has no return path. */
+function impedanceMatrix(count: number, stamps: Stamp[]): (i: number, j: number) => Complex | null {
   // Buses joined by a series branch share a group; a group with no shunt has no return path.
   const group = Array.from({ length: count }, (_, i) => i);
   const root = (i: number): number => (group[i] === i ? i : (group[i] = root(group[i])));
@@ -64,13 +71,52 @@ function driving(count: number, stamps: Stamp[]): (Complex | null)[] {
     stamp(ib, ia, divide(y, -s.n) as Complex);
   }
   const Z = kept.length > 0 ? (inv(Y) as Matrix) : Y;
-  return [...Array(count).keys()].map((i) => {
-    const k = at.get(i);
-    return k === undefined ? null : complex(Z.get([k, k]) as Complex);
-  });
+  return (i, j) => {
+    const a = at.get(i);
+    const b = at.get(j);
+    return a === undefined || b === undefined ? null : complex(Z.get([a, b]) as Complex);
+  };
+}
+
+const kappaOf = (rOverX: number) => 1.02 + 0.98 * Math.exp(-3 * rOverX);
+
+/**
+ * How IEC 60909-0 (8.1) has i_p found at bus k, decided from the graph alone: a loop of series
+ * branches in the group, or a branch that brings two sources, makes it meshed (method C);
+ * otherwise one feeding branch is radial, several are summed.
+ */
+function peakMethodAt(k: number, stamps: Stamp[]): "radial" | "branch-sum" | "equivalent-frequency" {
+  const series = stamps.filter((s) => s.b !== null);
+  const neighbours = (i: number) => series.flatMap((s) => (s.a === i ? [s.b!] : s.b === i ? [s.a] : []));
+  const group = new Set([k]);
+  for (const queue = [k]; queue.length > 0; ) for (const n of neighbours(queue.pop()!)) if (!group.has(n)) (group.add(n), queue.push(n));
+  const edges = series.filter((s) => group.has(s.a)).length;
+  if (edges >= group.size) return "equivalent-frequency";
+  const sourcesAt = (i: number) => stamps.filter((s) => s.b === null && s.a === i).length;
+  const counts: number[] = Array.from({ length: sourcesAt(k) }, () => 1);
+  for (const start of neighbours(k)) {
+    const side = new Set([start]);
+    for (const queue = [start]; queue.length > 0; ) for (const n of neighbours(queue.pop()!)) if (n !== k && !side.has(n)) (side.add(n), queue.push(n));
+    counts.push([...side].reduce((sum, i) => sum + sourcesAt(i), 0));
+  }
+  const feeding = counts.filter((c) => c > 0);
+  if (feeding.some((c) => c > 1)) return "equivalent-frequency";
+  return feeding.length > 1 ? "branch-sum" : "radial";
 }
 
 export function referenceFaultLevels(net: Network): ReferenceBusFault[] {
+  return referenceFaultCase(net, "maximum");
+}
+
+/** The minimum case: c_min, weakest infeeds, line resistances × 1.24 (80 °C), no converters. */
+export function referenceMinimumFaultLevels(net: Network): ReferenceBusFault[] {
+  return referenceFaultCase(net, "minimum");
+}
+
+function referenceFaultCase(net: Network, faultCase: "maximum" | "minimum"): ReferenceBusFault[] {
+  const minimum = faultCase === "minimum";
+  const cOf = (kV: number) => (minimum ? (kV > 1 ? 1 : 0.95) : cMax(kV));
+  const hot = minimum ? 1 + 0.004 * (80 - 20) : 1;
   const index = new Map(net.buses.map((b, i) => [b.id, i]));
   const kv = net.buses.map((b) => b.nominalKV);
   const pos: Stamp[] = [];
@@ -79,10 +125,10 @@ export function referenceFaultLevels(net: Network): ReferenceBusFault[] {
   for (const l of net.lines) {
     const a = index.get(l.fromBus)!;
     const b = index.get(l.toBus)!;
-    pos.push({ a, b, n: 1, zOhm: complex(l.rOhmPerKm * l.lengthKm, l.xOhmPerKm * l.lengthKm) });
+    pos.push({ a, b, n: 1, zOhm: complex(l.rOhmPerKm * l.lengthKm * hot, l.xOhmPerKm * l.lengthKm) });
     const r0 = l.r0OhmPerKm ?? 3 * l.rOhmPerKm;
     const x0 = l.x0OhmPerKm ?? 3 * l.xOhmPerKm;
-    zer.push({ a, b, n: 1, zOhm: complex(r0 * l.lengthKm, x0 * l.lengthKm) });
+    zer.push({ a, b, n: 1, zOhm: complex(r0 * l.lengthKm * hot, x0 * l.lengthKm) });
   }
 
   for (const t of net.transformers) {
@@ -113,11 +159,14 @@ export function referenceFaultLevels(net: Network): ReferenceBusFault[] {
     }
   }
 
+  const converters: { bus: number; currentKA: number }[] = [];
   for (const s of net.sources) {
     const k = index.get(s.bus)!;
     const un = kv[k];
-    if (s.kind === "grid") {
-      const zQ = (cMax(un) * un * un) / s.shortCircuitMVA!;
+    if (s.kind === "converter") {
+      if (!minimum) converters.push({ bus: k, currentKA: ((s.faultCurrentPct! / 100) * s.ratedMVA!) / (Math.sqrt(3) * un) });
+    } else if (s.kind === "grid") {
+      const zQ = (cOf(un) * un * un) / (minimum ? (s.shortCircuitMinMVA ?? s.shortCircuitMVA!) : s.shortCircuitMVA!);
       const xOverR = s.xOverR ?? 10;
       const rQ = zQ / Math.sqrt(1 + xOverR * xOverR);
       const z = complex(rQ, rQ * xOverR);
@@ -135,26 +184,74 @@ export function referenceFaultLevels(net: Network): ReferenceBusFault[] {
     }
   }
 
-  const z1 = driving(net.buses.length, pos);
-  const z0 = driving(net.buses.length, zer);
+  const count = net.buses.length;
+  const Z1 = impedanceMatrix(count, pos);
+  const z0 = driving(count, zer);
+  const atFc = impedanceMatrix(count, pos.map((s) => ({ ...s, zOhm: complex(s.zOhm.re, s.zOhm.im * 0.4) })));
   return net.buses.map((bus, i) => {
     const un = kv[i];
-    const c = cMax(un);
-    const p = z1[i];
+    const c = cOf(un);
+    const p = Z1(i, i);
     const q = z0[i];
-    if (!p) return { id: bus.id, z1Ohm: null, z0Ohm: null, ik3kA: 0, ip3kA: 0, ik1kA: 0, rOverX: 0 };
-    const ik3kA = (c * un) / (Math.sqrt(3) * (abs(p) as unknown as number));
+    if (!p) return { id: bus.id, z1Ohm: null, z0Ohm: null, ik3kA: 0, ip3kA: 0, ik1kA: 0, rOverX: 0, ipMethod: peakMethodAt(i, pos) };
+    const e = (c * un) / Math.sqrt(3);
+    const ik3NetworkKA = e / (abs(p) as unknown as number);
     const rOverX = p.re / p.im;
-    const kappa = 1.02 + 0.98 * Math.exp(-3 * rOverX);
-    const ik1kA = q ? (Math.sqrt(3) * c * un) / (abs(add(multiply(p, 2), q) as Complex) as unknown as number) : 0;
+    const method = peakMethodAt(i, pos);
+    let ipNetworkKA: number;
+    if (method === "equivalent-frequency") {
+      const zc = atFc(i, i)!;
+      ipNetworkKA = kappaOf((zc.re / zc.im) * 0.4) * Math.SQRT2 * ik3NetworkKA;
+    } else {
+      // Partial currents into the fault: each source shunt at i, and each series branch at i
+      // carrying current from its far end, with the post-fault voltages V = −Z[:, i]·I_f.
+      const fault = e / (abs(p) as unknown as number);
+      const injected = divide(complex(-e, 0), p) as Complex;
+      const voltage = (n: number) => multiply(Z1(n, i)!, injected) as Complex;
+      // V_i = −e exactly: Z_ii·I_f with I_f = e/Z_ii.
+      const vI = complex(-e, 0);
+      const partial: Complex[] = [];
+      for (const s of pos) {
+        if (s.b === null) {
+          if (s.a === i) partial.push(divide(complex(e, 0), s.zOhm) as Complex);
+          continue;
+        }
+        if (s.a !== i && s.b !== i) continue;
+        const y = divide(complex(1, 0), s.zOhm) as Complex;
+        // Current from the branch into node i: Y_ia·V_a + Y_ib·V_b from the stamp, with sign reversed.
+        const vA = s.a === i ? vI : voltage(s.a);
+        const vB = s.b === i ? vI : voltage(s.b);
+        const intoA = add(multiply(divide(y, s.n * s.n), vA), multiply(divide(y, -s.n), vB)) as Complex;
+        const intoB = add(multiply(y, vB), multiply(divide(y, -s.n), vA)) as Complex;
+        partial.push(multiply(s.a === i ? intoA : intoB, -1) as Complex);
+      }
+      ipNetworkKA = partial.reduce((sum, current) => {
+        const size = abs(current) as unknown as number;
+        if (size < 1e-12 * fault) return sum;
+        const zBranch = divide(complex(e, 0), current) as Complex;
+        return sum + kappaOf(zBranch.re / zBranch.im) * Math.SQRT2 * size;
+      }, 0);
+    }
+    // Converters (IEC 60909-0:2016): |Z_ij|/|Z_ii|·I_skPF, 3|Z_ij|·I_skPF/|2Z(1) + Z(0)|, √2 on the peak.
+    let share3 = 0;
+    let transferSum = 0;
+    for (const cv of converters) {
+      const zij = Z1(i, cv.bus);
+      if (!zij) continue;
+      transferSum += (abs(zij) as unknown as number) * cv.currentKA;
+    }
+    share3 = transferSum / (abs(p) as unknown as number);
+    const loop = q ? (abs(add(multiply(p, 2), q) as Complex) as unknown as number) : 0;
+    const ik1kA = q ? (3 * e) / loop + (3 * transferSum) / loop : 0;
     return {
       id: bus.id,
       z1Ohm: { re: p.re, im: p.im },
       z0Ohm: q ? { re: q.re, im: q.im } : null,
-      ik3kA,
-      ip3kA: kappa * Math.SQRT2 * ik3kA,
+      ik3kA: ik3NetworkKA + share3,
+      ip3kA: ipNetworkKA + Math.SQRT2 * share3,
       ik1kA,
       rOverX,
+      ipMethod: method,
     };
   });
 }
