@@ -95,7 +95,8 @@ function compareElements(before: AnyElement, after: AnyElement, beforeNet: Netwo
   for (const field of [...fields].sort(byFieldOrder)) {
     const from = before[field];
     const to = after[field];
-    if (from === to) continue;
+    // Nested settings (a tap changer's control) compare by content, not by identity.
+    if (from === to || (typeof from === "object" && typeof to === "object" && JSON.stringify(from) === JSON.stringify(to))) continue;
     if (POSITION_FIELDS.has(field)) {
       moved = true;
       continue;

@@ -120,8 +120,15 @@ describe("deriveAlternative on the solar demo", () => {
   const hollin = loadFixture("hollin-moor-solar.json");
 
   it("re-rates a generator's rated voltage when it sits on the section", () => {
-    const collector = findSection(hollin, "b-hollin-33")!;
-    const alternative = derived(deriveAlternative(hollin, collector, 22));
+    // The demo's plant is a converter; drawn as a machine with its rated voltage it is re-rated.
+    const machine = {
+      ...hollin,
+      sources: hollin.sources.map((s) =>
+        s.id === "g-solar" ? { ...s, kind: "generator" as const, control: "pq" as const, ratedKV: 33, xdSubtransientPct: 90, faultCurrentPct: undefined } : s,
+      ),
+    };
+    const collector = findSection(machine, "b-hollin-33")!;
+    const alternative = derived(deriveAlternative(machine, collector, 22));
     expect(alternative.sources.find((s) => s.id === "g-solar")).toMatchObject({ ratedKV: 22, pMW: 40 });
     expect(alternative.transformers[0]).toMatchObject({ hvKV: 132, lvKV: 22 });
     expect(alternative.buses[0]).toMatchObject({ nominalKV: 22, name: "Hollin Moor 22 kV collector" });

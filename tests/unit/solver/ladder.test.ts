@@ -45,7 +45,9 @@ describe("the ladder on the hydro demo at 33, 66 and 132 kV", () => {
     expect(ladder.inverseSquareReference).toMatchObject({ index: 1, voltageKV: 66 });
     expect(at132.predictedSectionLineLossMW).toBeCloseTo(at66.sectionLineLossMW! / 4, 12);
     expect(at132.sectionLineLossMW!).toBeLessThan(at132.predictedSectionLineLossMW!);
-    expect(at132.minVPu!).toBeGreaterThan(at66.minVPu!);
+    // Calder Flats' regulating tap holds its 11 kV busbar in band at both voltages, so the
+    // lowest voltage (the town, beyond it) is the same to within a hundredth.
+    expect(at132.minVPu!).toBeCloseTo(at66.minVPu!, 2);
   });
 
   // Methods: losses balance as lines plus transformers, transformers as copper plus core.

@@ -118,6 +118,7 @@ describe("loops", () => {
   it("two separate groups, each with its own slack, solve together", () => {
     const doc = edited("ring-brackenwold.json", (d) => {
       const other = fixture("hollin-moor-solar.json").document as NetworkInput;
+      d.version = 2;
       d.buses.push(...other.buses);
       d.sources!.push(...other.sources!);
       d.transformers!.push(...other.transformers!);
