@@ -64,8 +64,8 @@ export interface SourceRow {
   id: string;
   name: string;
   busName: string;
-  kind: "grid" | "generator";
-  control: "slack" | "pv" | "pq";
+  kind: "grid" | "generator" | "converter";
+  control: "slack" | "pv" | "pq" | "pf";
   pMW: number;
   qMvar: number;
 }
@@ -167,6 +167,8 @@ export function sourceRows(network: Network, result: SolveResult): SourceRow[] {
   });
 }
 
+export const SOURCE_KIND_WORDS: Record<SourceRow["kind"], string> = { grid: "grid infeed", generator: "generator", converter: "converter plant" };
+
 export const BRANCH_KIND_WORDS: Record<BranchKind, string> = { transformer: "transformer", overhead: "overhead line", cable: "cable" };
 
 export const busColumns = {
@@ -213,7 +215,7 @@ export const branchColumns = {
 export const sourceColumns = {
   name: { key: "name", header: "Source", value: (r) => r.name },
   busName: { key: "busName", header: "Bus", value: (r) => r.busName },
-  kind: { key: "kind", header: "Kind", value: (r) => (r.kind === "grid" ? "grid infeed" : "generator") },
+  kind: { key: "kind", header: "Kind", value: (r) => SOURCE_KIND_WORDS[r.kind] },
   control: { key: "control", header: "Control", value: (r) => r.control },
   pMW: { key: "pMW", header: "P", quantity: "MW", value: (r) => r.pMW },
   qMvar: { key: "qMvar", header: "Q", quantity: "Mvar", value: (r) => r.qMvar },

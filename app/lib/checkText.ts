@@ -13,6 +13,8 @@ const CHECK_WORDS: Record<CheckKind, string> = {
   "transformer-overload": "over its rating",
   "breaking-current": "fault current above breaking current",
   "not-converged": "load flow does not converge",
+  "minimum-fault-level": "minimum fault level below what is asked",
+  "weak-grid": "short-circuit ratio low for a converter plant",
 };
 
 function valueText(check: Check): string {
@@ -29,6 +31,10 @@ function valueText(check: Check): string {
       return `${against("kA")} kA > ${readingNumber(check.limit, "kA")} kA`;
     case "not-converged":
       return `${readingNumber(check.value, "pct")} % of the load solves`;
+    case "minimum-fault-level":
+      return `${readingNumber(check.value, "MVA")} MVA < ${readingNumber(check.limit, "MVA")} MVA`;
+    case "weak-grid":
+      return `SCR ${readingNumber(check.value, "ratio")} < ${readingNumber(check.limit, "ratio")}`;
   }
 }
 

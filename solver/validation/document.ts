@@ -49,6 +49,7 @@ const bus = object({
   vMinPu: withDefault(voltagePu, 0.95),
   vMaxPu: withDefault(voltagePu, 1.05),
   breakingKA: optional(number(0, 1000, "kA", { minExclusive: true })),
+  minFaultMVA: optional(number(1e-3, 1e7, "MVA")),
   x: optional(finite),
   y: optional(finite),
 });
@@ -57,8 +58,8 @@ const source = object({
   id,
   name,
   bus: id,
-  kind: oneOf(["grid", "generator"]),
-  control: oneOf(["slack", "pv", "pq"]),
+  kind: oneOf(["grid", "generator", "converter"]),
+  control: oneOf(["slack", "pv", "pq", "pf"]),
   voltagePu: withDefault(voltagePu, 1.0),
   angleDeg: withDefault(number(-180, 180, "degrees"), 0),
   pMW: withDefault(signedMW, 0),
@@ -66,12 +67,21 @@ const source = object({
   qMinMvar: optional(signedMvar),
   qMaxMvar: optional(signedMvar),
   shortCircuitMVA: optional(number(1e-3, 1e7, "MVA")),
+  shortCircuitMinMVA: optional(number(1e-3, 1e7, "MVA")),
   xOverR: optional(xOverR),
   z0OverZ1: optional(ratio),
   ratedMVA: optional(MVA),
   ratedKV: optional(kV),
   xdSubtransientPct: optional(number(1, 1000, "%")),
   ratedPowerFactor: optional(number(0, 1, "", { minExclusive: true })),
+  powerFactor: optional(number(-1, 1, "")),
+  faultCurrentPct: optional(number(0, 1000, "%")),
+});
+
+const tapControl = object({
+  bus: id,
+  targetPu: voltagePu,
+  bandPu: number(0.001, 0.5, "pu"),
 });
 
 const transformer = object({
@@ -92,6 +102,7 @@ const transformer = object({
   tapStepPct: optional(number(0, 50, "%", { minExclusive: true })),
   vectorGroup,
   z0OverZ1: optional(ratio),
+  tapControl: optional(tapControl),
 });
 
 const line = object({

@@ -69,7 +69,11 @@ function fakeResult(network: ReturnType<typeof chainNetwork>) {
       sources: network.sources.map((s) => ({ id: s.id, pMW: 1, qMvar: 0 })),
       totals: { generationMW: 1, loadMW: 1, lossMW: 0, lossPct: 0 },
     },
-    faults: { method: "IEC 60909-0" as const, buses: network.buses.map((b): FaultBusReading => ({ id: b.id, ik3kA: 10, ik3MVA: 190, ip3kA: 25, ik1kA: 9, rOverX: 0.1 })) },
+    faults: {
+      method: "IEC 60909-0" as const,
+      buses: network.buses.map((b): FaultBusReading => ({ id: b.id, ik3kA: 10, ik3MVA: 190, ip3kA: 25, ik1kA: 9, rOverX: 0.1, ik3MinKA: 8, ik1MinKA: 7, ipMethod: "radial" })),
+      converters: [],
+    },
     checks: [],
   };
 }

@@ -28,8 +28,20 @@ const validDocument = fc.tuple(radialNetwork, fc.boolean(), fc.nat(), fc.double(
       },
     ],
     growth: { ratePctPerYear: 2, years: 10 },
+    ...equipment(doc, pick),
   } as Record<string, unknown>;
 });
+
+/** The version 2 equipment fields: a bus's minimum fault level, the weakest infeed, a converter plant, a regulating tap. */
+function equipment(doc: NetworkInput, pick: number): Partial<NetworkInput> {
+  const buses = doc.buses.map((b, i) => (i === pick % doc.buses.length ? { ...b, minFaultMVA: 50 } : b));
+  const grid = (doc.sources ?? []).map((s) => (s.kind === "grid" ? { ...s, shortCircuitMinMVA: 1500 } : s));
+  const plant = { id: "pv", name: " Solar park ", bus: doc.buses[pick % doc.buses.length].id, kind: "converter" as const, control: (["pq", "pv", "pf"] as const)[pick % 3], pMW: 2, powerFactor: pick % 3 === 2 ? -0.95 : undefined, qMinMvar: -1, qMaxMvar: 1, ratedMVA: 2.2, faultCurrentPct: 120 };
+  const transformers = (doc.transformers ?? []).map((t, i) =>
+    i === 0 ? { ...t, tapMinPct: -10, tapMaxPct: 10, tapStepPct: 1.25, tapControl: { bus: t.lvBus, targetPu: 1.0, bandPu: 0.02 } } : t,
+  );
+  return { buses, sources: [...grid, plant], transformers };
+}
 
 const anyValue = fc.oneof(
   fc.constantFrom<unknown>(undefined, null, true, false, 0, -0, 1e-4, 0.05, 0.5, 1, 1.5, 2, 50, 60, 100, 101, 8784, 1e300, -1, -1e20, 1e20, 2.5),
