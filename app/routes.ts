@@ -16,6 +16,7 @@ export default [
   // The study report's own module, also reached through a view link (networkReader.server.ts).
   route("s/:token/report", "routes/networks/report.tsx", { id: "routes/share/shared-report" }),
   route("s/:token/results.csv", "routes/share/shared-results-csv.ts"),
+  route("s/:token/notes", "routes/share/shared-notes.ts"),
   route("dev/mail", "routes/dev/mail.tsx"),
   route("dev/mail.json", "routes/dev/mail-json.ts"),
   route("account/tokens", "routes/auth/api-tokens.ts"),

@@ -7,6 +7,8 @@ export interface ReviewNoteListing {
   id: number;
   authorName: string | null;
   authorId: number | null;
+  /** Written through a view link by someone without an account, under the name they gave. */
+  guest: boolean;
   body: string;
   createdAt: string;
 }
@@ -49,7 +51,7 @@ export async function listReviewThreads(db: Db, networkId: number): Promise<Revi
   const notes = await db
     .selectFrom("review_notes as n")
     .leftJoin("users as u", "u.id", "n.author_id")
-    .select(["n.id", "n.thread_id", "n.author_id", "u.name as authorName", "n.body", "n.created_at"])
+    .select(["n.id", "n.thread_id", "n.author_id", "u.name as accountName", "n.guest_name", "n.body", "n.created_at"])
     .where(
       "n.thread_id",
       "in",
@@ -58,20 +60,36 @@ export async function listReviewThreads(db: Db, networkId: number): Promise<Revi
     .orderBy("n.created_at")
     .orderBy("n.id")
     .execute();
-  const listed = threads.map((t) => ({
-    id: t.id,
-    elementId: t.element_id,
-    elementName: t.element_name,
-    revision: t.revision,
-    createdAt: t.created_at,
-    createdBy: t.created_by,
-    createdByName: t.createdByName,
-    resolvedAt: t.resolved_at,
-    resolvedByName: t.resolvedByName,
-    notes: notes
-      .filter((n) => n.thread_id === t.id)
-      .map((n) => ({ id: n.id, authorId: n.author_id, authorName: n.authorName, body: n.body, createdAt: n.created_at })),
-  }));
+  // One pass groups the notes by thread, so a long review stays linear.
+  const notesOf = new Map<number, ReviewNoteListing[]>();
+  for (const n of notes) {
+    const listing = {
+      id: n.id,
+      authorId: n.author_id,
+      authorName: n.accountName ?? n.guest_name,
+      guest: n.guest_name !== null,
+      body: n.body,
+      createdAt: n.created_at,
+    };
+    const list = notesOf.get(n.thread_id);
+    if (list) list.push(listing);
+    else notesOf.set(n.thread_id, [listing]);
+  }
+  const listed = threads.map((t) => {
+    const threadNotes = notesOf.get(t.id) ?? [];
+    return {
+      id: t.id,
+      elementId: t.element_id,
+      elementName: t.element_name,
+      revision: t.revision,
+      createdAt: t.created_at,
+      createdBy: t.created_by,
+      createdByName: t.createdByName ?? threadNotes[0]?.authorName ?? null,
+      resolvedAt: t.resolved_at,
+      resolvedByName: t.resolvedByName,
+      notes: threadNotes,
+    };
+  });
   return [...listed.filter((t) => !t.resolvedAt), ...listed.filter((t) => t.resolvedAt)];
 }
 
@@ -79,9 +97,18 @@ export async function findReviewThread(db: Db, threadId: number): Promise<Review
   return db.selectFrom("review_threads").selectAll().where("id", "=", threadId).executeTakeFirst();
 }
 
+/** Who wrote a note: an account, or a view-link holder under the name they gave. */
+export type NoteAuthorRecord = { userId: number } | { guestName: string; shareLinkId: number };
+
+function authorColumns(author: NoteAuthorRecord) {
+  return "userId" in author
+    ? { author_id: author.userId, guest_name: null, share_link_id: null }
+    : { author_id: null, guest_name: author.guestName, share_link_id: author.shareLinkId };
+}
+
 export async function insertReviewThread(
   db: Db,
-  input: { networkId: number; elementId: string | null; elementName: string | null; revision: number; authorId: number; body: string; now: Date },
+  input: { networkId: number; elementId: string | null; elementName: string | null; revision: number; author: NoteAuthorRecord; body: string; now: Date },
 ): Promise<number> {
   return db.transaction().execute(async (trx) => {
     const at = input.now.toISOString();
@@ -92,20 +119,23 @@ export async function insertReviewThread(
         element_id: input.elementId,
         element_name: input.elementName,
         revision: input.revision,
-        created_by: input.authorId,
+        created_by: "userId" in input.author ? input.author.userId : null,
         created_at: at,
       })
       .returning("id")
       .executeTakeFirstOrThrow();
-    await trx.insertInto("review_notes").values({ thread_id: thread.id, author_id: input.authorId, body: input.body, created_at: at }).execute();
+    await trx
+      .insertInto("review_notes")
+      .values({ thread_id: thread.id, ...authorColumns(input.author), body: input.body, created_at: at })
+      .execute();
     return thread.id;
   });
 }
 
-export async function insertReviewReply(db: Db, input: { threadId: number; authorId: number; body: string; now: Date }): Promise<void> {
+export async function insertReviewReply(db: Db, input: { threadId: number; author: NoteAuthorRecord; body: string; now: Date }): Promise<void> {
   await db
     .insertInto("review_notes")
-    .values({ thread_id: input.threadId, author_id: input.authorId, body: input.body, created_at: input.now.toISOString() })
+    .values({ thread_id: input.threadId, ...authorColumns(input.author), body: input.body, created_at: input.now.toISOString() })
     .execute();
 }
 

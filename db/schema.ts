@@ -204,6 +204,10 @@ export interface ReviewNotesTable {
   id: Generated<number>;
   thread_id: number;
   author_id: number | null;
+  /** The name a view-link holder without an account gave; null for an account's note. */
+  guest_name: string | null;
+  /** The view link a guest's note came through. */
+  share_link_id: number | null;
   body: string;
   created_at: Timestamp;
 }

@@ -16,16 +16,15 @@ export async function saveReviewNoteMailSetting(db: Db, userId: number, value: R
 }
 
 /** The team's owners who want mail about review notes, leaving out `exceptUserId`. */
-export async function ownersWantingNoteMail(db: Db, teamId: number, exceptUserId: number): Promise<{ name: string; email: string }[]> {
-  return db
+export async function ownersWantingNoteMail(db: Db, teamId: number, exceptUserId: number | null): Promise<{ name: string; email: string }[]> {
+  const owners = db
     .selectFrom("memberships as m")
     .innerJoin("users as u", "u.id", "m.user_id")
     .leftJoin("user_settings as s", "s.user_id", "u.id")
     .select(["u.name", "u.email"])
     .where("m.team_id", "=", teamId)
     .where("m.role", "=", "owner")
-    .where("u.id", "!=", exceptUserId)
     .where((eb) => eb.or([eb("s.review_note_mail", "is", null), eb("s.review_note_mail", "=", "each")]))
-    .orderBy("u.name")
-    .execute();
+    .orderBy("u.name");
+  return (exceptUserId === null ? owners : owners.where("u.id", "!=", exceptUserId)).execute();
 }

@@ -7,6 +7,7 @@ import { z } from "zod";
 export const NETWORK_NAME_MAX = 200;
 export const TEAM_NAME_MAX = 100;
 export const NOTE_BODY_MAX = 4000;
+export const GUEST_NAME_MAX = 80;
 export const REVISION_MESSAGE_MAX = 500;
 export const REVIEW_MESSAGE_MAX = 2000;
 export const MIN_PASSWORD_LENGTH = 10;
@@ -48,6 +49,13 @@ export const noteBodySchema = z
   .trim()
   .min(1, "Write something in the note first.")
   .max(NOTE_BODY_MAX, { error: (issue) => `A note may have at most ${NOTE_BODY_MAX} characters; this one has ${String(issue.input).length}.` });
+
+/** The name someone without an account signs a review note with; required. */
+export const guestNameSchema = z
+  .string({ error: "Give your name with the note, so the team knows who wrote it." })
+  .trim()
+  .min(1, "Give your name with the note, so the team knows who wrote it.")
+  .max(GUEST_NAME_MAX, `A name may have at most ${GUEST_NAME_MAX} characters.`);
 
 /** The message that goes with a saved revision. */
 export const revisionMessageSchema = z.string().max(REVISION_MESSAGE_MAX);

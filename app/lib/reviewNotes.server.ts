@@ -10,6 +10,7 @@ import {
   insertReviewThread,
   listReviewThreads,
   setThreadResolved,
+  type NoteAuthorRecord,
   type ReviewThreadListing,
 } from "#db/reviewNotes.ts";
 import { ownersWantingNoteMail } from "#db/userSettings.ts";
@@ -18,23 +19,42 @@ import { publicUrl } from "./env.server.ts";
 import { sendMailInBackground } from "./mail.server.ts";
 import { reviewNoteMail } from "./mailMessages.ts";
 import { describeElement, findElement } from "./networkElements.ts";
-import { checkNoteBody, mayResolveThread, mayWriteNotes, type NoteReader } from "./reviewNotePermissions.ts";
+import { checkGuestName, checkNoteBody, mayResolveThread, mayWriteNotes, type NoteReader } from "./reviewNotePermissions.ts";
 
 export type NoteOutcome = { ok: true; message: string; threadId: number } | { ok: false; status: 400 | 401 | 403 | 404; error: string };
 
 const ACCOUNT_NEEDED = "Writing review notes needs an account: sign in or create one, then open the link again.";
 
-function refuseWriting(reader: NoteReader): NoteOutcome | null {
-  if (reader.userId === null) return { ok: false, status: 401, error: ACCOUNT_NEEDED };
-  if (!mayWriteNotes(reader)) return { ok: false, status: 403, error: "You cannot write review notes on this network." };
-  return null;
+/** Who is writing: a signed-in person, or someone holding a view link without an account, under the name they give. */
+export type NoteWriter = { user: User } | { guest: { name: unknown; linkId: number } };
+
+interface NoteAuthor {
+  record: NoteAuthorRecord;
+  /** As the owners' mail names them. */
+  name: string;
+  userId: number | null;
+}
+
+function authorOf(reader: NoteReader, writer: NoteWriter): { ok: true; author: NoteAuthor } | { ok: false; outcome: NoteOutcome } {
+  if (!mayWriteNotes(reader)) {
+    const outcome: NoteOutcome =
+      reader.userId === null ? { ok: false, status: 401, error: ACCOUNT_NEEDED } : { ok: false, status: 403, error: "You cannot write review notes on this network." };
+    return { ok: false, outcome };
+  }
+  if ("user" in writer) return { ok: true, author: { record: { userId: writer.user.id }, name: writer.user.name, userId: writer.user.id } };
+  const name = checkGuestName(writer.guest.name);
+  if (!name.ok) return { ok: false, outcome: { ok: false, status: 400, error: name.error } };
+  return {
+    ok: true,
+    author: { record: { guestName: name.name, shareLinkId: writer.guest.linkId }, name: `${name.name} (no account, view link #${writer.guest.linkId})`, userId: null },
+  };
 }
 
 function notifyOwners(
   db: Db,
-  input: { network: NetworkRow; author: User; pinnedTo: string; body: string; reply: boolean },
+  input: { network: NetworkRow; author: NoteAuthor; pinnedTo: string; body: string; reply: boolean },
 ): Promise<void> {
-  return ownersWantingNoteMail(db, input.network.team_id, input.author.id).then((owners) => {
+  return ownersWantingNoteMail(db, input.network.team_id, input.author.userId).then((owners) => {
     for (const owner of owners) {
       sendMailInBackground({
         to: owner.email,
@@ -53,10 +73,10 @@ function notifyOwners(
 
 export async function startThread(
   db: Db,
-  input: { reader: NoteReader; user: User; network: NetworkRow; document: Network; elementId: string | null; body: unknown },
+  input: { reader: NoteReader; writer: NoteWriter; network: NetworkRow; document: Network; elementId: string | null; body: unknown },
 ): Promise<NoteOutcome> {
-  const refused = refuseWriting(input.reader);
-  if (refused) return refused;
+  const writing = authorOf(input.reader, input.writer);
+  if (!writing.ok) return writing.outcome;
   const checked = checkNoteBody(input.body);
   if (!checked.ok) return { ok: false, status: 400, error: checked.error };
   const element = input.elementId ? findElement(input.document, input.elementId) : undefined;
@@ -68,13 +88,13 @@ export async function startThread(
     elementId: element?.element.id ?? null,
     elementName: element?.element.name ?? null,
     revision: input.network.current_revision,
-    authorId: input.user.id,
+    author: writing.author.record,
     body: checked.body,
     now: new Date(),
   });
   await notifyOwners(db, {
     network: input.network,
-    author: input.user,
+    author: writing.author,
     pinnedTo: element ? describeElement(element).replace(/^\S+/, (word) => word.toLowerCase()) : "the sheet",
     body: checked.body,
     reply: false,
@@ -91,18 +111,18 @@ const NO_THREAD: NoteOutcome = { ok: false, status: 404, error: "There is no suc
 
 export async function replyToThread(
   db: Db,
-  input: { reader: NoteReader; user: User; network: NetworkRow; threadId: number; body: unknown },
+  input: { reader: NoteReader; writer: NoteWriter; network: NetworkRow; threadId: number; body: unknown },
 ): Promise<NoteOutcome> {
-  const refused = refuseWriting(input.reader);
-  if (refused) return refused;
+  const writing = authorOf(input.reader, input.writer);
+  if (!writing.ok) return writing.outcome;
   const thread = await threadOf(db, input.network, input.threadId);
   if (!thread) return NO_THREAD;
   const checked = checkNoteBody(input.body);
   if (!checked.ok) return { ok: false, status: 400, error: checked.error };
-  await insertReviewReply(db, { threadId: thread.id, authorId: input.user.id, body: checked.body, now: new Date() });
+  await insertReviewReply(db, { threadId: thread.id, author: writing.author.record, body: checked.body, now: new Date() });
   await notifyOwners(db, {
     network: input.network,
-    author: input.user,
+    author: writing.author,
     pinnedTo: thread.element_id ? `"${thread.element_name ?? "an element since removed"}"` : "the sheet",
     body: checked.body,
     reply: true,
@@ -114,8 +134,8 @@ export async function setResolved(
   db: Db,
   input: { reader: NoteReader; user: User; network: NetworkRow; threadId: number; resolved: boolean },
 ): Promise<NoteOutcome> {
-  const refused = refuseWriting(input.reader);
-  if (refused) return refused;
+  const writing = authorOf(input.reader, { user: input.user });
+  if (!writing.ok) return writing.outcome;
   const thread = await threadOf(db, input.network, input.threadId);
   if (!thread) return NO_THREAD;
   if (!mayResolveThread(input.reader, { createdBy: thread.created_by })) {

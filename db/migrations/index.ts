@@ -7,6 +7,7 @@ import * as ladderStudies from "./2026-12-09-01-ladder-studies.ts";
 import * as libraryTypesAndApiTokens from "./2026-12-10-01-library-types-and-api-tokens.ts";
 import * as sharingAndReview from "./2026-12-11-01-sharing-and-review.ts";
 import * as verifiedAddresses from "./2026-12-12-01-verified-addresses.ts";
+import * as guestReviewNotes from "./2026-12-13-01-guest-review-notes.ts";
 
 export const migrations: Record<string, Migration> = {
   "2026-12-01-01-accounts-and-teams": accountsAndTeams,
@@ -15,6 +16,7 @@ export const migrations: Record<string, Migration> = {
   "2026-12-10-01-library-types-and-api-tokens": libraryTypesAndApiTokens,
   "2026-12-11-01-sharing-and-review": sharingAndReview,
   "2026-12-12-01-verified-addresses": verifiedAddresses,
+  "2026-12-13-01-guest-review-notes": guestReviewNotes,
 };
 
 export const migrationProvider: MigrationProvider = {

@@ -9,13 +9,15 @@ import { useNodes, ViewportPortal } from "@xyflow/react";
 import { useSheet, useSheetActions } from "#app/components/sheet/sheetStore.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { elementsOf, kindWord } from "#app/lib/networkElements.ts";
-import { NOTE_BODY_MAX } from "#app/lib/fieldSchemas.ts";
+import { GUEST_NAME_MAX, NOTE_BODY_MAX } from "#app/lib/fieldSchemas.ts";
 import { openCountsByElement } from "#app/lib/reviewNotePermissions.ts";
 import "./review.css";
 
 export interface ReviewNote {
   id: number;
   authorName: string | null;
+  /** Written through a view link without an account, under the name given. */
+  guest: boolean;
   body: string;
   createdAt: string;
 }
@@ -74,7 +76,24 @@ function NoteBadges({ counts, onPick }: { counts: Record<string, number>; onPick
   );
 }
 
-function ThreadView({ thread, action, mayWrite, onShow }: { thread: ReviewThread; action: string | null; mayWrite: boolean; onShow: (id: string) => void }) {
+/** For a reader without an account: the name each note and reply is signed with (empty otherwise). */
+function GuestNameField({ guestName }: { guestName: string | null }) {
+  return guestName === null ? null : <input type="hidden" name="guestName" value={guestName} />;
+}
+
+function ThreadView({
+  thread,
+  action,
+  mayWrite,
+  guestName,
+  onShow,
+}: {
+  thread: ReviewThread;
+  action: string | null;
+  mayWrite: boolean;
+  guestName: string | null;
+  onShow: (id: string) => void;
+}) {
   const replyFetcher = useFetcher<ActionAnswer>();
   const statusFetcher = useFetcher<ActionAnswer>();
   const replyRef = useRef<HTMLFormElement>(null);
@@ -105,7 +124,8 @@ function ThreadView({ thread, action, mayWrite, onShow }: { thread: ReviewThread
         {thread.notes.map((note) => (
           <li key={note.id}>
             <p className="ks-note-meta">
-              <strong>{note.authorName ?? "A removed account"}</strong> · {formatDateTime(note.createdAt)}
+              <strong>{note.authorName ?? "A removed account"}</strong>
+              {note.guest ? " (no account)" : ""} · {formatDateTime(note.createdAt)}
             </p>
             <p className="ks-note-body">{note.body}</p>
           </li>
@@ -119,6 +139,7 @@ function ThreadView({ thread, action, mayWrite, onShow }: { thread: ReviewThread
         <replyFetcher.Form method="post" action={action} className="ks-reply" ref={replyRef}>
           <input type="hidden" name="intent" value="reply" />
           <input type="hidden" name="threadId" value={thread.id} />
+          <GuestNameField guestName={guestName} />
           <label className="sr-only" htmlFor={`ks-reply-${thread.id}`}>
             Reply to the note on {thread.elementName ?? "the sheet"}
           </label>
@@ -157,6 +178,8 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
   const [filter, setFilter] = useState<string | null>(null);
   const [showResolved, setShowResolved] = useState(false);
   const [pinTo, setPinTo] = useState("");
+  const [guestName, setGuestName] = useState("");
+  const asGuest = !signedIn && mayWrite;
   const fetcher = useFetcher<ActionAnswer>();
   const formRef = useRef<HTMLFormElement>(null);
   const posting = fetcher.state !== "idle";
@@ -187,9 +210,30 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
         </p>
       </header>
       <div className="ks-panel-body">
+        {action && asGuest ? (
+          <div className="ks-guest-name">
+            <label htmlFor="ks-guest-name" className="field-label">
+              Your name
+            </label>
+            <input
+              id="ks-guest-name"
+              className="input"
+              autoComplete="name"
+              maxLength={GUEST_NAME_MAX}
+              value={guestName}
+              onChange={(e) => setGuestName(e.target.value)}
+              aria-describedby="ks-guest-name-hint"
+            />
+            <p id="ks-guest-name-hint" className="field-hint">
+              Notes without an account carry this name. <Link to={`/sign-in?${new URLSearchParams({ redirectTo: signInBack })}`}>Sign in</Link>{" "}
+              to resolve notes too.
+            </p>
+          </div>
+        ) : null}
         {action && mayWrite ? (
           <fetcher.Form method="post" action={action} className="ks-new-note" ref={formRef}>
             <input type="hidden" name="intent" value="start" />
+            <GuestNameField guestName={asGuest ? guestName : null} />
             <label htmlFor="ks-note-pin" className="field-label">
               Pin to
             </label>
@@ -242,7 +286,7 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
         ) : (
           <ul className="ks-thread-list">
             {shown.map((thread) => (
-              <ThreadView key={thread.id} thread={thread} action={action} mayWrite={mayWrite} onShow={pick} />
+              <ThreadView key={thread.id} thread={thread} action={action} mayWrite={mayWrite} guestName={asGuest ? guestName : null} onShow={pick} />
             ))}
           </ul>
         )}

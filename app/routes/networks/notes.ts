@@ -36,12 +36,12 @@ export async function action({ request, params }: Route.ActionArgs) {
     if (!checked.ok) return data({ ok: false, message: "The current revision does not validate, so notes cannot be pinned to it." }, { status: 409 });
     const elementId = String(form.get("elementId") ?? "").trim();
     return answer(
-      await startThread(db, { reader, user, network, document: checked.network, elementId: elementId || null, body: form.get("body") }),
+      await startThread(db, { reader, writer: { user }, network, document: checked.network, elementId: elementId || null, body: form.get("body") }),
     );
   }
   const threadId = parseId(String(form.get("threadId") ?? ""));
   if (threadId === null) return data({ ok: false, message: "Which note? The request names none." }, { status: 400 });
-  if (intent === "reply") return answer(await replyToThread(db, { reader, user, network, threadId, body: form.get("body") }));
+  if (intent === "reply") return answer(await replyToThread(db, { reader, writer: { user }, network, threadId, body: form.get("body") }));
   if (intent === "resolve" || intent === "reopen") {
     return answer(await setResolved(db, { reader, user, network, threadId, resolved: intent === "resolve" }));
   }

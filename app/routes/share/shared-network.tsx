@@ -46,7 +46,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   grantedOrPageError(await networkAccess(db, actor, network.id, "view"));
   const [revision, notes] = await Promise.all([
     currentDocument(db, network),
-    reviewNotesFor(db, network.id, { userId: null, canView: true, canEdit: false }),
+    reviewNotesFor(db, network.id, { userId: null, canView: true, canEdit: false, guestLinkId: link.id }),
   ]);
   const checked = validateNetwork(revision.document);
   return {
@@ -117,7 +117,7 @@ export default function SharedNetwork({ loaderData }: Route.ComponentProps) {
           revision={revision.number}
           readOnly
           resultsCsvBase={here}
-          aside={<ReviewNotesPanel {...notes} action={null} signInBack={here} />}
+          aside={<ReviewNotesPanel {...notes} action={`${here}/notes`} signInBack={here} />}
         />
       ) : (
         <Notice tone="error">

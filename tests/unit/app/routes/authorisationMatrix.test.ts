@@ -103,6 +103,14 @@ const CASES: Case[] = [
   { route: "s/:token", method: "GET", path: "/s/{token}", expect: viaLink(200, 302) },
   { route: "s/:token/report", method: "GET", path: "/s/{token}/report", expect: viaLink(200, 302) },
   { route: "s/:token/results.csv", method: "GET", path: "/s/{token}/results.csv?table=buses", expect: viaLink(200, 302) },
+  // A view-link holder signs a note with a name; an edit link's holder writes on the network's page once signed in.
+  {
+    route: "s/:token/notes",
+    method: "POST",
+    path: "/s/{token}/notes",
+    body: { form: { intent: "start", elementId: "", guestName: "Matrix guest", body: "A guest's note" } },
+    expect: viaLink(200, 403),
+  },
 
   // Networks pages
   { route: "networks", method: "GET", path: "/networks", expect: signedIn(200, 302) },

@@ -15,13 +15,16 @@ import { demoDocument, freshWorld, makePeople, type People, type World } from ".
 
 describe("note rules (pure)", () => {
   const anonymousReader = { userId: null, canView: true, canEdit: false };
+  const guestWithLink = { userId: null, canView: true, canEdit: false, guestLinkId: 3 };
   const viewer = { userId: 7, canView: true, canEdit: false };
   const editor = { userId: 8, canView: true, canEdit: true };
   const stranger = { userId: 9, canView: false, canEdit: false };
 
-  it("let a view-link holder read but not write; writing needs an account and view access", () => {
+  it("let a reader without an account write only through a view link; writing needs view access", () => {
     expect(mayReadNotes(anonymousReader)).toBe(true);
     expect(mayWriteNotes(anonymousReader)).toBe(false);
+    expect(mayWriteNotes(guestWithLink)).toBe(true);
+    expect(mayWriteNotes({ ...guestWithLink, canView: false })).toBe(false);
     expect(mayWriteNotes(viewer)).toBe(true);
     expect(mayReadNotes(stranger)).toBe(false);
     expect(mayWriteNotes(stranger)).toBe(false);
@@ -33,6 +36,7 @@ describe("note rules (pure)", () => {
     expect(mayResolveThread(viewer, { createdBy: null })).toBe(false);
     expect(mayResolveThread(editor, { createdBy: 7 })).toBe(true);
     expect(mayResolveThread({ ...anonymousReader, canEdit: true }, { createdBy: null })).toBe(false);
+    expect(mayResolveThread({ ...guestWithLink, canEdit: true }, { createdBy: null })).toBe(false);
   });
 
   it("take a trimmed body of 1 to NOTE_BODY_MAX characters", () => {
@@ -119,9 +123,9 @@ describe("notes through the network's notes route", () => {
     expect(answer.status).toBe(404);
   });
 
-  it("shows a view-link holder the notes, read only", async () => {
+  it("shows a view-link holder the notes, which they may answer under a name; without a link nobody writes unsigned", async () => {
     const page = await call(sharedLoader, getRequest(`/s/${world.tokens.viewLink}`), { token: world.tokens.viewLink });
-    expect(page.body.notes.mayWrite).toBe(false);
+    expect(page.body.notes.mayWrite).toBe(true);
     expect(page.body.notes.signedIn).toBe(false);
     expect(page.body.notes.threads.length).toBeGreaterThan(0);
     const network = await (await getDb()).selectFrom("networks").selectAll().where("id", "=", world.networkId).executeTakeFirstOrThrow();
@@ -129,7 +133,7 @@ describe("notes through the network's notes route", () => {
     if (!checked.ok) throw new Error("demo must validate");
     const refused = await startThread(await getDb(), {
       reader: { userId: null, canView: true, canEdit: false },
-      user: people.owner,
+      writer: { guest: { name: "Nobody", linkId: 1 } },
       network,
       document: checked.network,
       elementId: null,
