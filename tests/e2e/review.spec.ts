@@ -155,12 +155,19 @@ test("a view link opens the study without an account, and stops at the next requ
   const sharedPath = new URL(url).pathname;
 
   const reviewer = await newPage(browser);
+  await countReactCommits(reviewer);
   await reviewer.goto(sharedPath);
   await expect(reviewer.getByRole("heading", { name: /^Shared study/, level: 1 })).toBeVisible();
   await expect(reviewer.getByRole("main")).toContainText("view only");
   await expect(reviewer.getByRole("heading", { name: "Review notes" })).toBeVisible();
   await expect(reviewer.getByRole("link", { name: "Sign in" }).last()).toBeVisible();
-  await expect(reviewer.getByRole("button", { name: "Add note" })).toHaveCount(0);
+  // A reviewer without an account signs a note with a name.
+  await hydrated(reviewer);
+  await reviewer.getByLabel("Your name").fill("Rhona Pike");
+  await reviewer.getByLabel("Note", { exact: true }).fill("Which relay curve protects the 66 kV line?");
+  await reviewer.getByRole("button", { name: "Add note" }).click();
+  await expect(reviewer.getByRole("status").filter({ hasText: "Note pinned to the sheet." })).toBeVisible();
+  await expect(reviewer.locator(".ks-thread-list")).toContainText("Rhona Pike (no account)");
   const csv = await reviewer.request.get(`${sharedPath}/results.csv?table=buses`);
   expect(csv.status()).toBe(200);
   expect((await csv.text()).split("\r\n")[0]).toContain("bus_id");
