@@ -28,6 +28,7 @@ export default [
     route(":networkId", "routes/networks/network.tsx"),
     route(":networkId/loads-import", "routes/networks/loads-import.tsx"),
     route(":networkId/ladder", "routes/networks/ladder.tsx"),
+    route(":networkId/jobs/:jobId", "routes/networks/job.ts"),
     route(":networkId/report", "routes/networks/report.tsx"),
     route(":networkId/share", "routes/networks/share.tsx"),
     route(":networkId/notes", "routes/networks/notes.ts"),

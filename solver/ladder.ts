@@ -129,20 +129,35 @@ const LIMIT_KINDS: readonly CheckKind[] = ["undervoltage", "overvoltage", "line-
 /** What rules an alternative out across the study: a limit broken, or a case it cannot carry. */
 const STUDY_KINDS: readonly CheckKind[] = [...LIMIT_KINDS, "not-converged"];
 
-/** Run the ladder on an untrusted network document and request; every problem comes back named, none thrown. */
-export function runLadder(document: unknown, requestInput: unknown): LadderOutcome {
+/** The request's own shape (no network needed), with the messages runLadder gives for it. */
+export function checkLadderRequest(requestInput: unknown): { ok: true; request: z.output<typeof ladderRequestSchema> } | { ok: false; issues: ValidationIssue[] } {
+  const parsed = ladderRequestSchema.safeParse(requestInput, { error: inputMessage });
+  if (parsed.success) return { ok: true, request: parsed.data };
+  return { ok: false, issues: zodIssues(parsed.error).map((i) => (i.path ? i : { path: i.path, message: `the ladder request ${i.message}` })) };
+}
+
+/** How far a ladder run got: load flows solved across its alternatives, and which alternative it is on. */
+export interface LadderProgress {
+  /** Alternatives finished, and the fraction of the current one's study done (0–1). */
+  alternative: number;
+  alternatives: number;
+  voltageKV: number;
+  fraction: number;
+}
+
+/**
+ * Run the ladder on an untrusted network document and request; every problem comes back named, none thrown.
+ * `onProgress`, when given, hears of every load flow of every alternative's study.
+ */
+export function runLadder(document: unknown, requestInput: unknown, onProgress?: (progress: LadderProgress) => void): LadderOutcome {
   const validated = validateNetwork(document);
   if (!validated.ok)
     return { ok: false, issues: validated.issues.map((i) => ({ path: i.path ? `network.${i.path}` : "network", message: i.message })) };
   const network = validated.network;
 
-  const parsed = ladderRequestSchema.safeParse(requestInput, { error: inputMessage });
-  if (!parsed.success)
-    return {
-      ok: false,
-      issues: zodIssues(parsed.error).map((i) => (i.path ? i : { path: i.path, message: `the ladder request ${i.message}` })),
-    };
-  const request = parsed.data;
+  const parsed = checkLadderRequest(requestInput);
+  if (!parsed.ok) return parsed;
+  const request = parsed.request;
   const issues: ValidationIssue[] = [];
   if ((request.overrides?.length ?? 0) > request.voltagesKV.length)
     issues.push({ path: "overrides", message: `has ${request.overrides!.length} entries for ${request.voltagesKV.length} candidate voltages; give one per voltage (null for none)` });
@@ -172,7 +187,13 @@ export function runLadder(document: unknown, requestInput: unknown): LadderOutco
   if (issues.length > 0) return { ok: false, issues };
 
   const studies = solved.map((outcome, i) => {
-    const studied = runStudySync(outcome!.network, { outages: request.outages ?? false, faults: false });
+    const voltageKV = request.voltagesKV[i];
+    const alternatives = request.voltagesKV.length;
+    const studied = runStudySync(
+      outcome!.network,
+      { outages: request.outages ?? false, faults: false },
+      onProgress && ((step) => onProgress({ alternative: i, alternatives, voltageKV, fraction: step.done / step.total })),
+    );
     if (!studied.ok)
       issues.push(...studied.issues.map((issue) => ({ path: `voltagesKV[${i}]`, message: `${request.voltagesKV[i]} kV: ${issue.message}` })));
     return studied.ok ? studied.study : undefined;

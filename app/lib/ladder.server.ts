@@ -5,7 +5,9 @@ import { findLadderStudy, upsertLadderStudy } from "#db/ladderStudies.ts";
 import type { NetworkRow } from "#db/schema.ts";
 import { ladderRequestSchema, type Ladder, type LadderRequest } from "#solver/ladder.ts";
 import type { ValidationIssue } from "#solver/schema.ts";
-import { ladderOf } from "./compute/results.server.ts";
+import { JOB_TIME_LIMIT_MS, startJob, type JobView } from "./compute/jobs.server.ts";
+import { compute } from "./compute/pool.server.ts";
+import { ladderCost, ladderOf, payFor } from "./compute/results.server.ts";
 import { currentDocument } from "./networks.server.ts";
 import { refusedRequestSentence } from "./api.server.ts";
 import type { Actor } from "./permissions.server.ts";
@@ -75,20 +77,17 @@ export async function savedLadderStudy(db: Db, networkId: number): Promise<{ stu
 }
 
 /**
- * Run the ladder and, when it runs, keep its inputs (defaults filled in) as the network's study.
- * `basedOn` is the saved study's updatedAt the page started from (null: none was saved): when
- * someone else has saved since, nothing is overwritten and the answer is 409.
+ * Keep a ladder request (defaults filled in) as the network's study. `basedOn` is the saved
+ * study's updatedAt the page started from (null: none was saved): when someone else has saved
+ * since, nothing is overwritten and the answer is a 409 refusal.
  */
-export async function saveLadderStudy(
+async function storeLadderStudy(
   db: Db,
   network: NetworkRow,
-  actor: Actor & { kind: "user" },
+  userId: number,
   request: unknown,
   basedOn: string | null,
-  signal?: AbortSignal,
-): Promise<LadderRun> {
-  const run = await runLadderOnNetwork(db, network, request, actor, signal);
-  if (!run.ok) return run;
+): Promise<Extract<LadderRun, { ok: false }> | null> {
   const parsed = ladderRequestSchema.parse(request);
   const conflict = await db.transaction().execute(async (trx) => {
     const current = await findLadderStudy(trx, network.id);
@@ -100,13 +99,57 @@ export async function saveLadderStudy(
       overrides: parsed.overrides ?? null,
       money: parsed.money,
       networkRevision: network.current_revision,
-      userId: actor.userId,
+      userId,
     });
     return undefined;
   });
-  if (conflict !== undefined) {
-    const who = conflict ? `${conflict.updatedByName ?? "Someone"} saved the study at ${conflict.updatedAt}` : "The saved study was removed";
-    return { ok: false, status: 409, error: `${who} after you opened this page; nothing was overwritten. Reload to see it, then save again.`, issues: [] };
-  }
-  return run;
+  if (conflict === undefined) return null;
+  const who = conflict ? `${conflict.updatedByName ?? "Someone"} saved the study at ${conflict.updatedAt}` : "The saved study was removed";
+  return { ok: false, status: 409, error: `${who} after you opened this page; nothing was overwritten. Reload to see it, then save again.`, issues: [] };
+}
+
+/** Run the ladder and, when it runs, keep its inputs as the network's study (409 when `basedOn` is stale). */
+export async function saveLadderStudy(
+  db: Db,
+  network: NetworkRow,
+  actor: Actor & { kind: "user" },
+  request: unknown,
+  basedOn: string | null,
+  signal?: AbortSignal,
+): Promise<LadderRun> {
+  const run = await runLadderOnNetwork(db, network, request, actor, signal);
+  if (!run.ok) return run;
+  return (await storeLadderStudy(db, network, actor.userId, request, basedOn)) ?? run;
+}
+
+/** What a finished ladder job holds: the ladder, and whether it was saved as the network's study. */
+export interface LadderJobResult {
+  ladder: Ladder;
+  revision: number;
+  saved: boolean;
+}
+
+/**
+ * The ladder as a job (compute/jobs.server.ts): paid now from `actor`'s budget (a spent budget, or
+ * too many jobs running, is thrown for computeRefusal), run on the pool with progress, and, when
+ * `save` is given and the ladder runs, kept as the network's study as saveLadderStudy does.
+ */
+export async function startLadderJob(
+  db: Db,
+  network: NetworkRow,
+  actor: Actor,
+  request: unknown,
+  save: { userId: number; basedOn: string | null } | null,
+): Promise<JobView<LadderJobResult>> {
+  const { document } = await currentDocument(db, network);
+  payFor(actor, ladderCost(document, request));
+  return startJob<LadderJobResult>(save ? "ladder-save" : "ladder", actor, network.id, async (signal, onProgress) => {
+    const outcome = await compute({ kind: "ladder", document, request }, { signal, onProgress, timeLimitMs: 2 * JOB_TIME_LIMIT_MS });
+    if (!outcome.ok) return refusal(network, outcome.issues);
+    if (save) {
+      const refused = await storeLadderStudy(db, network, save.userId, request, save.basedOn);
+      if (refused) return refused;
+    }
+    return { ok: true, result: { ladder: outcome.ladder, revision: network.current_revision, saved: save !== null } };
+  });
 }

@@ -220,14 +220,15 @@ function outageOf(network: Network, operatingCase: OperatingCase, branch: { id: 
   };
 }
 
-/** The whole study at once. */
-export function runStudySync(document: unknown, request: unknown = {}): StudyOutcome {
+/** The whole study at once; `onStep`, when given, hears of every load flow solved. */
+export function runStudySync(document: unknown, request: unknown = {}, onStep?: (progress: StudyProgress) => void): StudyOutcome {
   const prepared = prepare(document, request);
   if (!prepared.ok) return prepared;
   const steps = studySteps(prepared.prepared);
   for (;;) {
     const next = steps.next();
     if (next.done) return { ok: true, network: prepared.prepared.network, study: next.value };
+    onStep?.(next.value);
   }
 }
 

@@ -6,8 +6,9 @@ import { existsSync } from "node:fs";
 import { availableParallelism } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
+import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
-import type { ComputeAnswers, ComputeTask } from "./tasks.ts";
+import type { ComputeAnswers, ComputeTask, JobProgress } from "./tasks.ts";
 
 export const BUILT_WORKER_FILE = "computeWorker.js";
 /** Work that runs longer than this is stopped and answered with a sentence. */
@@ -21,7 +22,7 @@ export class ComputeStopped extends Error {
   ) {
     super(
       reason === "time-limit"
-        ? `The calculation was stopped after ${Math.round(limitMs / 1000)} s, its time limit; the network is too large for it to finish in time.`
+        ? `The calculation was stopped after ${Math.round(limitMs / 1000)} s, its time limit: it is too large to finish in time. Ask for less at once (fewer voltages, cases, outages or years).`
         : "The calculation was cancelled.",
     );
     this.name = "ComputeStopped";
@@ -52,23 +53,35 @@ export function computeQueueLength(): number {
   return pool?.queueSize ?? 0;
 }
 
+export interface ComputeOptions {
+  /** Abort to cancel: the thread is ended, so the work really stops. */
+  signal?: AbortSignal;
+  /** Past this the work is stopped too (default COMPUTE_TIME_LIMIT_MS). */
+  timeLimitMs?: number;
+  /** Called on the request thread as the worker reports how far it got (studies and ladders). */
+  onProgress?: (progress: JobProgress) => void;
+}
+
 /**
  * Run one task on a worker thread. `signal` cancels it (the thread is ended, so the work really
  * stops); past `timeLimitMs` it stops too. Either way the promise rejects with ComputeStopped.
  */
-export async function compute<T extends ComputeTask>(
-  task: T,
-  options: { signal?: AbortSignal; timeLimitMs?: number } = {},
-): Promise<ComputeAnswers[T["kind"]]> {
+export async function compute<T extends ComputeTask>(task: T, options: ComputeOptions = {}): Promise<ComputeAnswers[T["kind"]]> {
   const limitMs = options.timeLimitMs ?? COMPUTE_TIME_LIMIT_MS;
   const timeout = AbortSignal.timeout(limitMs);
   const signal = options.signal ? AbortSignal.any([options.signal, timeout]) : timeout;
+  // Progress crosses on a port of its own, handed to the worker with the task.
+  const channel = options.onProgress ? new MessageChannel() : undefined;
+  if (channel) channel.port1.on("message", (progress: JobProgress) => options.onProgress!(progress));
   try {
-    return (await computePool().run(task, { signal })) as ComputeAnswers[T["kind"]];
+    const sent = channel ? { ...task, progress: channel.port2 } : task;
+    return (await computePool().run(sent, { signal, transferList: channel ? [channel.port2] : undefined })) as ComputeAnswers[T["kind"]];
   } catch (failure) {
     if (timeout.aborted) throw new ComputeStopped("time-limit", limitMs);
     if (options.signal?.aborted) throw new ComputeStopped("cancelled", limitMs);
     throw failure;
+  } finally {
+    channel?.port1.close();
   }
 }
 

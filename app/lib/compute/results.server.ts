@@ -38,6 +38,33 @@ function pay(payer: string, cost: number) {
   if (refusal) throw new BudgetExceeded(refusal);
 }
 
+/** Spend `cost` units of the actor's budget now, or throw BudgetExceeded (see computeRefusal). */
+export function payFor(actor: Actor, cost: number): void {
+  pay(payerOf(actor), cost);
+}
+
+/** A ladder's units: one solve per candidate voltage (at most MAX_ALTERNATIVES are accepted). */
+export function ladderCost(document: unknown, request: unknown): number {
+  const voltages = (request as { voltagesKV?: unknown[] } | null)?.voltagesKV?.length ?? 1;
+  return solveCost(busCountOf(document)) * Math.max(1, Math.min(voltages, 12));
+}
+
+/**
+ * A study's units: one solve per load flow it will run at most (the cases, each branch out in
+ * each case asked for, each year in each case). Bigger than the budget means it runs only when
+ * the budget is full (spend's rule), which is the point.
+ */
+export function studyCost(document: unknown, request: unknown): number {
+  const d = (document ?? {}) as { cases?: unknown[]; lines?: unknown[]; transformers?: unknown[]; growth?: { years?: unknown } };
+  const r = (request ?? {}) as { outages?: unknown; years?: unknown };
+  const cases = Math.max(1, (Array.isArray(d.cases) ? d.cases.length : 0) + 1);
+  const branches = (Array.isArray(d.lines) ? d.lines.length : 0) + (Array.isArray(d.transformers) ? d.transformers.length : 0);
+  const outageCases = r.outages === true ? cases : Array.isArray(r.outages) ? r.outages.length : 0;
+  const yearsOf = (y: unknown) => (typeof y === "number" && Number.isFinite(y) ? Math.max(0, Math.min(y, 100)) : 0);
+  const years = r.years === true ? yearsOf(d.growth?.years) : typeof r.years === "object" && r.years ? yearsOf((r.years as { years?: unknown }).years) : 0;
+  return solveCost(busCountOf(document)) * (cases + outageCases * branches + years * cases);
+}
+
 /** One calculation per key: later askers (even while it runs) get the same promise, free. */
 function once<T>(key: string, payer: string, cost: number, make: () => Promise<T>): Promise<T> {
   const hit = cache.get(key) as Promise<T> | undefined;
@@ -89,8 +116,7 @@ export async function revisionReport(
 export function ladderOf(document: unknown, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderOutcome>;
 export function ladderOf(document: unknown, request: unknown, actor: Actor, signal: AbortSignal | undefined, form: "json"): Promise<JsonOutcome>;
 export async function ladderOf(document: unknown, request: unknown, actor: Actor, signal?: AbortSignal, form?: "json") {
-  const voltages = (request as { voltagesKV?: unknown[] } | null)?.voltagesKV?.length ?? 1;
-  pay(payerOf(actor), solveCost(busCountOf(document)) * Math.max(1, Math.min(voltages, 12)));
+  pay(payerOf(actor), ladderCost(document, request));
   return form === "json" ? compute({ kind: "ladder-json", document, request }, { signal }) : compute({ kind: "ladder", document, request }, { signal });
 }
 
@@ -98,6 +124,26 @@ export async function ladderOf(document: unknown, request: unknown, actor: Actor
 export async function solveSentJson(document: unknown, actor: Actor): Promise<JsonOutcome> {
   pay(payerOf(actor), solveCost(busCountOf(document)));
   return compute({ kind: "solve-json", document });
+}
+
+/** A refused or stopped calculation as a status and its sentence, for a page's own answer; anything else is rethrown. */
+export function computeRefusalOf(failure: unknown): { status: number; error: string } {
+  if (failure instanceof BudgetExceeded) return { status: 429, error: failure.message };
+  if (failure instanceof ComputeStopped) return { status: 503, error: failure.message };
+  if (failure instanceof Error && failure.name === "TooManyJobs") return { status: 429, error: failure.message };
+  throw failure;
+}
+
+/** The saved ladder study's ladder on the current revision, kept per revision and study (the ladder page shows it on every visit). */
+export async function savedLadderOf(
+  network: NetworkRow,
+  document: unknown,
+  study: { request: unknown; updatedAt: string },
+  actor: Actor,
+): Promise<LadderOutcome> {
+  return once(revisionKey("saved-ladder", network, study.updatedAt), payerOf(actor), ladderCost(document, study.request), () =>
+    compute({ kind: "ladder", document, request: study.request }),
+  );
 }
 
 /**
@@ -111,6 +157,7 @@ export function computeRefusal(failure: unknown, caller: "page" | "api" | "text"
     status = 429;
     headers = { "Retry-After": String(failure.refusal.retryAfterSeconds) };
   } else if (failure instanceof ComputeStopped) status = 503;
+  else if (failure instanceof Error && failure.name === "TooManyJobs") status = 429;
   else throw failure;
   const sentence = failure.message;
   if (caller === "page") throw data(sentence, { status, headers });

@@ -4,8 +4,11 @@
 import { layoutSingleLine, type SingleLineLayout } from "#app/components/report/singleLineLayout.ts";
 import { branchesCsv, busesCsv } from "#solver/csv.ts";
 import { solveNetwork, type SolveOutcome } from "#solver/index.ts";
-import { runLadder, type LadderOutcome } from "#solver/ladder.ts";
-import type { ValidationIssue } from "#solver/schema.ts";
+import type { MessagePort } from "node:worker_threads";
+import type { JobProgress } from "./jobView.ts";
+import { runLadder, type LadderOutcome, type LadderProgress } from "#solver/ladder.ts";
+import { validateNetwork, type ValidationIssue } from "#solver/schema.ts";
+import { runStudySync, type StudyOutcome, type StudyProgress } from "#solver/study/index.ts";
 
 /** Drawings of more buses than this are left out of the report, which says so in a sentence. */
 export const DRAWING_MAX_BUSES = 400;
@@ -16,7 +19,41 @@ export type ComputeTask =
   | { kind: "ladder-json"; document: unknown; request: unknown }
   | { kind: "csv"; document: unknown; table: "buses" | "branches" }
   | { kind: "ladder"; document: unknown; request: unknown }
-  | { kind: "report"; document: unknown; study: unknown | null };
+  | { kind: "report"; document: unknown; study: unknown | null }
+  | { kind: "study"; document: unknown; request: unknown };
+
+export type { JobProgress } from "./jobView.ts";
+
+/** Reports at most this often, and once at the end; a bar needs no more. */
+const PROGRESS_EVERY_MS = 100;
+
+const STUDY_STAGES: Record<StudyProgress["stage"], string> = { cases: "Operating cases", outages: "Outages", years: "Years of growth" };
+
+export function studyProgressOf(step: StudyProgress): JobProgress {
+  return { done: step.done, total: step.total, stage: `${STUDY_STAGES[step.stage]}: ${step.done} of ${step.total} load flows` };
+}
+
+export function ladderProgressOf(step: LadderProgress): JobProgress {
+  const total = step.alternatives * 1000;
+  return {
+    done: Math.min(total, step.alternative * 1000 + Math.round(step.fraction * 1000)),
+    total,
+    stage: `Alternative ${step.alternative + 1} of ${step.alternatives} (${step.voltageKV} kV)`,
+  };
+}
+
+/** A throttled reporter onto the port the pool handed over with the task, or nothing. */
+function reporter<T>(port: MessagePort | undefined, shape: (step: T) => JobProgress): ((step: T) => void) | undefined {
+  if (!port) return undefined;
+  let last = 0;
+  return (step) => {
+    const progress = shape(step);
+    const now = performance.now();
+    if (progress.done < progress.total && now - last < PROGRESS_EVERY_MS) return;
+    last = now;
+    port.postMessage(progress);
+  };
+}
 
 export type CsvOutcome = { ok: true; csv: string } | { ok: false };
 
@@ -39,6 +76,7 @@ export interface ComputeAnswers {
   csv: CsvOutcome;
   ladder: LadderOutcome;
   report: ReportData;
+  study: StudyOutcome;
 }
 
 export function solveTask(document: unknown): SolveOutcome {
@@ -51,8 +89,8 @@ export function csvTask(document: unknown, table: "buses" | "branches"): CsvOutc
   return { ok: true, csv: table === "buses" ? busesCsv(solved.network, solved.result) : branchesCsv(solved.network, solved.result) };
 }
 
-export function ladderTask(document: unknown, request: unknown): LadderOutcome {
-  return runLadder(document, request);
+export function ladderTask(document: unknown, request: unknown, onProgress?: (step: LadderProgress) => void): LadderOutcome {
+  return runLadder(document, request, onProgress);
 }
 
 /** The study report's numbers: the solve, the saved ladder study (if any) and the drawing's layout. */
@@ -64,7 +102,14 @@ export function reportTask(document: unknown, study: unknown | null): ReportData
   return { solved, ladder, drawing };
 }
 
-export function runTask(task: ComputeTask): ComputeAnswers[ComputeTask["kind"]] {
+/** A study; the network's own issues come back under "network" (as the ladder's do), the request's as they are. */
+export function studyTask(document: unknown, request: unknown, onStep?: (step: StudyProgress) => void): StudyOutcome {
+  const checked = validateNetwork(document);
+  if (!checked.ok) return { ok: false, issues: checked.issues.map((i) => ({ path: i.path ? `network.${i.path}` : "network", message: i.message })) };
+  return runStudySync(checked.network, request, onStep);
+}
+
+export function runTask(task: ComputeTask & { progress?: MessagePort }): ComputeAnswers[ComputeTask["kind"]] {
   switch (task.kind) {
     case "solve":
       return solveTask(task.document);
@@ -81,8 +126,10 @@ export function runTask(task: ComputeTask): ComputeAnswers[ComputeTask["kind"]] 
     case "csv":
       return csvTask(task.document, task.table);
     case "ladder":
-      return ladderTask(task.document, task.request);
+      return ladderTask(task.document, task.request, reporter(task.progress, ladderProgressOf));
     case "report":
       return reportTask(task.document, task.study);
+    case "study":
+      return studyTask(task.document, task.request, reporter(task.progress, studyProgressOf));
   }
 }

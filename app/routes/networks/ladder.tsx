@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useRef, useState } from "react";
-import { data, Link, useFetcher, useLoaderData, type ShouldRevalidateFunctionArgs } from "react-router";
+import { data, Link, useFetcher, useLoaderData, useRevalidator, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/ladder";
 import { AlternativeInputs } from "#app/components/ladder/AlternativeInputs.tsx";
 import { CostPlot } from "#app/components/ladder/CostPlot.tsx";
@@ -30,12 +30,16 @@ import { Notice } from "#app/components/Notice.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireNetwork } from "#app/lib/access.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
-import { computeRefusal, ladderOf } from "#app/lib/compute/results.server.ts";
-import { runLadderOnNetwork, saveLadderStudy, savedLadderStudy } from "#app/lib/ladder.server.ts";
+import { computeRefusal, computeRefusalOf, savedLadderOf } from "#app/lib/compute/results.server.ts";
+import type { JobView } from "#app/lib/compute/jobView.ts";
+import { refusedRequestSentence } from "#app/lib/api.server.ts";
+import { savedLadderStudy, startLadderJob, type LadderJobResult } from "#app/lib/ladder.server.ts";
+import { JobStatus } from "#app/components/jobs/JobStatus.tsx";
+import { useJob } from "#app/components/jobs/useJob.ts";
 import { currentDocument } from "#app/lib/networks.server.ts";
 import { networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
 import { candidateVoltagesKV } from "#solver/iec60038.ts";
-import { findSection, type Ladder } from "#solver/ladder.ts";
+import { checkLadderRequest, findSection, type Ladder } from "#solver/ladder.ts";
 import { validateNetwork } from "#solver/schema.ts";
 import "#app/components/report/drawing.css";
 import "#app/components/ladder/ladder.css";
@@ -49,7 +53,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   // The saved study is run again on the current revision, so what the page shows is never stale.
   const savedRun =
     saved.study && checked.ok
-      ? await ladderOf(checked.network, saved.study.request, actor, request.signal).catch((failure) => computeRefusal(failure, "page"))
+      ? await savedLadderOf(network, checked.network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"))
       : null;
   return {
     id: network.id,
@@ -67,10 +71,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 type ActionAnswer =
-  | { ok: true; intent: "run" | "save"; ladder: Ladder; request: unknown }
+  | { ok: true; intent: "run" | "save"; job: JobView<LadderJobResult>; request: unknown }
   | { ok: false; intent: "run" | "save"; error: string; issues: { path: string; message: string }[] };
 
-/** JSON `{ intent: "run" | "save", request }`: run the ladder (anyone who may view), or run and save it (editors). */
+/**
+ * JSON `{ intent: "run" | "save", request, basedOn }`: run the ladder (anyone who may view), or run
+ * and save it (editors). A request that is wrong in itself is answered at once (400, fields named);
+ * otherwise the ladder starts as a job (202 with the job) that the page follows at
+ * /networks/:id/jobs/:jobId, shows the progress of, and may cancel.
+ */
 export async function action({ request, params }: Route.ActionArgs) {
   const { db, user, actor, network } = await requireNetwork(request, params, "view");
   const answer = (body: ActionAnswer, status = 200) => data(body, { status });
@@ -87,19 +96,24 @@ export async function action({ request, params }: Route.ActionArgs) {
     const editing = await networkAccess(db, actor, network.id, "edit");
     if (!editing.ok) return answer({ ok: false, intent, error: editing.error, issues: [] }, editing.status);
   }
+  const checkedRequest = checkLadderRequest(body.request);
+  if (!checkedRequest.ok) return answer({ ok: false, intent, error: refusedRequestSentence("ladder", checkedRequest.issues), issues: checkedRequest.issues }, 400);
   const basedOn = typeof body.basedOn === "string" ? body.basedOn : null;
-  const ladder =
-    intent === "save"
-      ? saveLadderStudy(db, network, { kind: "user", userId: user.id }, body.request, basedOn, request.signal)
-      : runLadderOnNetwork(db, network, body.request, actor, request.signal);
-  const run = await ladder.catch((failure) => computeRefusal(failure, "page"));
-  if (!run.ok) return answer({ ok: false, intent, error: run.error, issues: run.issues }, run.status);
-  return answer({ ok: true, intent, ladder: run.ladder, request: body.request });
+  try {
+    const job = await startLadderJob(db, network, actor, body.request, intent === "save" ? { userId: user.id, basedOn } : null);
+    return answer({ ok: true, intent, job, request: body.request }, 202);
+  } catch (failure) {
+    const refused = computeRefusalOf(failure);
+    return answer({ ok: false, intent, error: refused.error, issues: [] }, refused.status);
+  }
 }
 
-/** Running changes nothing stored, so the page's data need not be read again; saving does. */
+/**
+ * Starting a job changes nothing stored yet, so the page's data is not read again then; a saving
+ * job asks for it itself once it has saved (LadderStudy).
+ */
 export function shouldRevalidate({ actionResult, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
-  if (actionResult && typeof actionResult === "object" && (actionResult as { intent?: unknown }).intent === "run") return false;
+  if (actionResult && typeof actionResult === "object" && "intent" in actionResult) return false;
   return defaultShouldRevalidate;
 }
 
@@ -162,18 +176,32 @@ function LadderStudy() {
   const draftCanonical = useMemo(() => canonicalRequest(requestFromDraft(draft, network).request), [draft, network]);
 
   const answer = fetcher.data;
-  const running = fetcher.state !== "idle";
+  const { job, cancel, cancelling } = useJob(answer?.ok === true ? answer.job : null);
+  const revalidator = useRevalidator();
+  const running = fetcher.state !== "idle" || job?.state === "running";
+  const runningIntent = fetcher.state !== "idle" ? (fetcher.json as { intent?: string } | undefined)?.intent : job?.state === "running" ? answer?.intent : undefined;
+  const finished = answer?.ok === true && job?.state === "done" && job.result ? { ladder: job.result.ladder, request: answer.request } : null;
   const shown: { ladder: Ladder; request: unknown } | null =
-    answer?.ok === true ? { ladder: answer.ladder, request: answer.request } : loaderData.savedLadder ? { ladder: loaderData.savedLadder, request: loaderData.saved?.request } : null;
-  const serverErrors = answer && !answer.ok ? errorsByPath(answer.issues) : {};
+    finished ?? (loaderData.savedLadder ? { ladder: loaderData.savedLadder, request: loaderData.saved?.request } : null);
+  // A refusal: the page's own answer, or the job's when it failed, was cancelled or stopped.
+  const failure: { error: string; issues: { path: string; message: string }[] } | null =
+    answer && !answer.ok ? answer : job && job.state !== "running" && job.state !== "done" ? { error: job.error ?? "The ladder did not finish.", issues: job.issues } : null;
+  const serverErrors = failure ? errorsByPath(failure.issues) : {};
   const errors = { ...serverErrors, ...clientErrors };
   const stale = shown !== null && canonicalRequest(shown.request) !== draftCanonical;
   const savedCanonical = loaderData.saved ? canonicalRequest(loaderData.saved.request) : undefined;
   const unsaved = savedCanonical !== draftCanonical;
 
   useEffect(() => {
-    if (answer && !answer.ok) errorSummary.current?.focus();
-  }, [answer]);
+    if (failure) errorSummary.current?.focus();
+  }, [failure?.error]);
+
+  // Once a saving job has saved, the page's data (who saved, when) is read again.
+  const savedJob = job?.state === "done" && job.result?.saved ? job.id : null;
+  useEffect(() => {
+    if (savedJob) revalidator.revalidate();
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [savedJob]);
 
   const submit = (intent: "run" | "save") => {
     const { request, errors: found } = requestFromDraft(draft, network);
@@ -281,11 +309,11 @@ function LadderStudy() {
 
       <div className="ks-run-bar">
         <button type="button" className="btn btn-primary" onClick={() => submit("run")} disabled={running}>
-          {running && fetcher.json && (fetcher.json as { intent?: string }).intent === "run" ? "Running…" : "Run the ladder"}
+          {runningIntent === "run" ? "Running…" : "Run the ladder"}
         </button>
         {loaderData.canSave ? (
           <button type="button" className="btn" onClick={() => submit("save")} disabled={running}>
-            {running && fetcher.json && (fetcher.json as { intent?: string }).intent === "save" ? "Saving…" : "Save the study"}
+            {runningIntent === "save" ? "Saving…" : "Save the study"}
           </button>
         ) : null}
         <p className="ks-run-status" role="status">
@@ -293,9 +321,11 @@ function LadderStudy() {
         </p>
       </div>
 
+      {job ? <JobStatus job={job} cancelling={cancelling} onCancel={cancel} what="ladder" /> : null}
+
       {errorList.length > 0 ? (
         <div ref={errorSummary} tabIndex={-1} className="notice notice-error ks-error-summary" role="alert">
-          <p className="font-semibold">{answer && !answer.ok ? answer.error : "Some inputs need a look before the ladder can run:"}</p>
+          <p className="font-semibold">{failure ? failure.error : "Some inputs need a look before the ladder can run:"}</p>
           <ul>
             {errorList.map(([path, message]) => (
               <li key={path}>
@@ -304,9 +334,9 @@ function LadderStudy() {
             ))}
           </ul>
         </div>
-      ) : answer && !answer.ok ? (
+      ) : failure ? (
         <div ref={errorSummary} tabIndex={-1}>
-          <Notice tone="error">{answer.error}</Notice>
+          <Notice tone={job?.state === "cancelled" ? "info" : "error"}>{failure.error}</Notice>
         </div>
       ) : null}
 

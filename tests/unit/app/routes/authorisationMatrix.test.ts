@@ -141,6 +141,15 @@ const CASES: Case[] = [
     body: { json: { intent: "save", request: {} } },
     expect: onNetwork({ viewer: 403, editor: 400, owner: 400 }, 302),
   },
+  // A job is seen only by whoever started it (jobs.test.ts, ladder.test.ts); here nobody started one.
+  { route: "networks/:networkId/jobs/:jobId", method: "GET", path: "/networks/{network}/jobs/no-such-job", expect: view(302, 404) },
+  {
+    route: "networks/:networkId/jobs/:jobId",
+    method: "POST",
+    path: "/networks/{network}/jobs/no-such-job",
+    body: { form: { intent: "cancel" } },
+    expect: view(302, 404),
+  },
   { route: "networks/:networkId/report", method: "GET", path: "/networks/{network}/report", expect: view(302) },
   { route: "networks/:networkId/report", method: "GET", path: "/networks/{other}/report", expect: { ...view(302), editLink: 404 } },
   { route: "networks/:networkId/share", method: "GET", path: "/networks/{network}/share", expect: onNetwork({ viewer: 403, editor: 403, owner: 200 }, 302) },

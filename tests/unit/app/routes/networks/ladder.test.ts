@@ -3,18 +3,39 @@ import tarnHead from "../../../../fixtures/tarn-head-calder-flats.json";
 import { getDb } from "#app/lib/db.server.ts";
 import { action as ladderApi } from "#app/routes/api/ladder.ts";
 import { action as createNetworkApi } from "#app/routes/api/networks.ts";
+import { jobSettled } from "#app/lib/compute/jobs.server.ts";
+import { action as jobAction, loader as jobLoader } from "#app/routes/networks/job.ts";
 import { action as ladderAction, loader as ladderLoader } from "#app/routes/networks/ladder.tsx";
 import { loader as reportLoader } from "#app/routes/networks/report.tsx";
 import { insertMembership, insertTeamWithOwner } from "#db/teams.ts";
-import { call, cookieFor, getRequest, jsonRequest, makeUser } from "../harness.ts";
+import { syntheticFeeder } from "../../../../bench/syntheticFeeder.ts";
+import { call, cookieFor, formRequest, getRequest, jsonRequest, makeUser } from "../harness.ts";
 
 const cookies = {} as Record<"owner" | "editor" | "viewer" | "outsider", string>;
 let networkId: number;
+let teamId: number;
 let editorName: string;
 const study = { sectionBus: "b-calder-66", voltagesKV: [33, 66, 132], money: { energyPricePerMWh: 95, currency: "GBP" } };
 
-const pagePost = (body: unknown, cookie: string, id = networkId) =>
+const started = (body: unknown, cookie: string, id = networkId) =>
   call(ladderAction, jsonRequest("POST", `/networks/${id}/ladder`, { cookie, body }), { networkId: String(id) });
+const jobGet = (jobId: string, cookie: string, id = networkId) =>
+  call(jobLoader, getRequest(`/networks/${id}/jobs/${jobId}`, cookie), { networkId: String(id), jobId });
+/**
+ * The page's run: the action answers at once (a refusal, or 202 with the job), then the page
+ * follows the job; this answers what the page ends up showing, as { status, body } with the
+ * ladder or the job's sentence, status and issues.
+ */
+async function pagePost(body: unknown, cookie: string, id = networkId) {
+  const start = await started(body, cookie, id);
+  if (start.status !== 202) return start;
+  expect(start.body.job).toMatchObject({ state: "running", networkId: id });
+  await jobSettled(start.body.job.id);
+  const job = await jobGet(start.body.job.id, cookie, id);
+  expect(job.status).toBe(200);
+  if (job.body.state === "done") return { status: 200, body: { ...job.body.result, job: job.body } };
+  return { status: job.body.status as number, body: { error: job.body.error, issues: job.body.issues, job: job.body } };
+}
 const pageGet = (cookie: string, id = networkId) => call(ladderLoader, getRequest(`/networks/${id}/ladder`, cookie), { networkId: String(id) });
 const reportGet = (cookie: string, id = networkId) => call(reportLoader, getRequest(`/networks/${id}/report`, cookie), { networkId: String(id) });
 
@@ -25,7 +46,7 @@ beforeAll(async () => {
   const viewer = await makeUser("Page Viewer");
   const outsider = await makeUser("Page Outsider", { ownTeam: true });
   editorName = editor.name;
-  const teamId = (await db.transaction().execute((trx) => insertTeamWithOwner(trx, "Ladder page team", owner.id))).id;
+  teamId = (await db.transaction().execute((trx) => insertTeamWithOwner(trx, "Ladder page team", owner.id))).id;
   await insertMembership(db, teamId, editor.id, "editor");
   await insertMembership(db, teamId, viewer.id, "viewer");
   cookies.owner = await cookieFor(owner);
@@ -105,6 +126,47 @@ describe("the ladder page", () => {
     expect((await pagePost({ intent: "save", request: study, basedOn: null }, cookies.editor)).status).toBe(409);
     const current = (await pageGet(cookies.editor)).body.saved.updatedAt;
     expect((await pagePost({ intent: "save", request: study, basedOn: current }, cookies.editor)).status).toBe(200);
+  });
+});
+
+describe("the ladder as a job", () => {
+  it("reports progress to the end, and only to whoever started it", async () => {
+    const start = await started({ intent: "run", request: study }, cookies.viewer);
+    expect(start.status).toBe(202);
+    const { id } = start.body.job;
+    // Someone else in the team, or on another network, is told it does not exist.
+    expect((await jobGet(id, cookies.editor)).status).toBe(404);
+    expect((await jobGet(id, cookies.outsider)).status).toBe(404);
+    await jobSettled(id);
+    const done = await jobGet(id, cookies.viewer);
+    expect(done.body).toMatchObject({ state: "done", error: null, progress: { stage: expect.stringMatching(/^Alternative 3 of 3 \(132 kV\)$/) } });
+    expect(done.body.progress.done).toBe(done.body.progress.total);
+    expect(done.body.result.ladder.alternatives).toHaveLength(3);
+  });
+
+  it("can be cancelled by whoever started it: it stops, says so and saves nothing", async () => {
+    // A feeder of 2,000 buses: its ladder runs for seconds, the cancel follows within milliseconds.
+    const feeder = syntheticFeeder(2_000);
+    const created = await call(createNetworkApi, jsonRequest("POST", `/api/networks?team=${teamId}`, { cookie: cookies.owner, body: feeder }));
+    const bigId: number = created.body.id;
+    const request = { sectionBus: feeder.buses[2].id, voltagesKV: [33, 66] };
+    const start = await started({ intent: "save", request, basedOn: null }, cookies.editor, bigId);
+    expect(start.status).toBe(202);
+    const jobId: string = start.body.job.id;
+    const cancelAs = (cookie: string) =>
+      call(jobAction, formRequest(`/networks/${bigId}/jobs/${jobId}`, { intent: "cancel" }, { cookie }), { networkId: String(bigId), jobId });
+    expect((await cancelAs(cookies.owner)).status).toBe(404);
+    const cancelled = await cancelAs(cookies.editor);
+    expect(cancelled.status).toBe(200);
+    expect(cancelled.body).toMatchObject({ state: "cancelled", error: "The calculation was cancelled; nothing was saved.", result: null });
+    const db = await getDb();
+    expect(await db.selectFrom("ladder_studies").selectAll().where("network_id", "=", bigId).execute()).toEqual([]);
+  }, 60_000);
+
+  it("answers a job address that names nothing with 404 and a sentence", async () => {
+    const missing = await jobGet("no-such-job", cookies.viewer);
+    expect(missing.status).toBe(404);
+    expect(String(missing.body)).toMatch(/no such calculation/);
   });
 });
 
