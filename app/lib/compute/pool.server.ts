@@ -6,7 +6,7 @@ import { existsSync } from "node:fs";
 import { availableParallelism } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
-import { MessageChannel } from "node:worker_threads";
+import { MessageChannel, receiveMessageOnPort } from "node:worker_threads";
 import { Piscina } from "piscina";
 import type { ComputeAnswers, ComputeTask, JobProgress } from "./tasks.ts";
 
@@ -81,7 +81,11 @@ export async function compute<T extends ComputeTask>(task: T, options: ComputeOp
     if (options.signal?.aborted) throw new ComputeStopped("cancelled", limitMs);
     throw failure;
   } finally {
-    channel?.port1.close();
+    if (channel) {
+      // The worker's last reports were queued before its answer; hear them before closing.
+      for (let left = receiveMessageOnPort(channel.port1); left; left = receiveMessageOnPort(channel.port1)) options.onProgress!(left.message as JobProgress);
+      channel.port1.close();
+    }
   }
 }
 
