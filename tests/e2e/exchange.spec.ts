@@ -78,9 +78,21 @@ test("writes sent from another site's page are refused and change nothing", asyn
 });
 
 test("upload: a valid file is previewed and created; a broken one lists its problems and saves nothing", async ({ page }) => {
+  await countReactCommits(page);
   await signIn(page, "editor");
   const networkId = await uploadNetwork(page, "Uploaded Tarn Head study");
   expect(networkId).toBeGreaterThan(0);
+
+  // The same file again: the page asks instead of making a twin, and can save it as the next revision.
+  await page.goto("/networks/upload");
+  await hydrated(page);
+  const again = { ...JSON.parse(tarnHead), name: "Uploaded Tarn Head study" };
+  await page.getByLabel("Network file").setInputFiles({ name: "study.json", mimeType: "application/json", buffer: Buffer.from(JSON.stringify(again)) });
+  await expect(page.getByText("The team already has a network named “Uploaded Tarn Head study”")).toBeVisible();
+  await page.getByLabel(/Save the file as its next revision/).check();
+  await page.getByRole("button", { name: "Save", exact: true }).click();
+  await expect(page).toHaveURL(new RegExp(`/networks/${networkId}$`));
+  await expect(page.getByRole("main")).toContainText("revision 2");
 
   await page.goto("/networks/upload");
   await noSeriousAccessibilityProblems(page);
@@ -98,7 +110,7 @@ test("upload: a valid file is previewed and created; a broken one lists its prob
   await page.goto(`/networks/${networkId}`);
   await page.getByRole("link", { name: "Download network file" }).click();
   const file = await download;
-  expect(file.suggestedFilename()).toBe("uploaded-tarn-head-study-r1.json");
+  expect(file.suggestedFilename()).toBe("uploaded-tarn-head-study-r2.json");
 });
 
 test("loads import: preview, then apply as one new revision", async ({ page }) => {

@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { getDb } from "#app/lib/db.server.ts";
 import { UPLOAD_LIMIT_BYTES } from "#app/lib/imports/uploadLimits.ts";
+import { nextFreeName } from "#app/lib/networkNames.ts";
 import { loader as exportNetwork } from "#app/routes/api/network-export.ts";
 import { action as upload, loader as uploadPage } from "#app/routes/networks/upload.tsx";
 import { validateNetwork } from "#solver/schema.ts";
@@ -40,6 +41,41 @@ describe("upload page", () => {
     const expected = validateNetwork(JSON.parse(tarnHead));
     expect(expected.ok && stored?.document).toEqual(expected.ok ? expected.network : null);
     expect(stored?.message).toBe("Uploaded from study.json");
+  });
+
+  it("asks before uploading a name the team already has, then saves the next revision or a network of its own, never a twin by accident", async () => {
+    const db = await getDb();
+    const text = JSON.stringify({ ...JSON.parse(tarnHead), name: "Fell crossing option B" });
+    const first = await send({ intent: "create" }, text, team.cookies.editor);
+    const networkId = Number(first.headers.get("Location")!.split("/").pop());
+
+    const preview = await send({ intent: "preview" }, text, team.cookies.editor);
+    expect(preview.body.sameName).toMatchObject({ id: networkId, name: "Fell crossing option B", revision: 1 });
+
+    const before = await rowCounts();
+    const unasked = await send({ intent: "create" }, text, team.cookies.editor);
+    expect(unasked.status).toBe(409);
+    expect(unasked.body.error).toMatch(/already has a network named "Fell crossing option B"/);
+    expect(await rowCounts()).toEqual(before);
+
+    const stale = await send({ intent: "create", sameName: "revision", sameNameRevision: "7" }, text, team.cookies.editor);
+    expect(stale.status).toBe(409);
+    expect(stale.body.error).toMatch(/now at revision 1/);
+    expect(await rowCounts()).toEqual(before);
+
+    const asRevision = await send({ intent: "create", sameName: "revision", sameNameRevision: "1" }, text, team.cookies.editor);
+    expect(asRevision.headers.get("Location")).toBe(`/networks/${networkId}`);
+    expect((await readRevision(db, networkId, 2))?.message).toBe("Uploaded from study.json");
+
+    const asCopy = await send({ intent: "create", sameName: "copy" }, text, team.cookies.editor);
+    const copyId = Number(asCopy.headers.get("Location")!.split("/").pop());
+    expect(copyId).not.toBe(networkId);
+    expect(((await readRevision(db, copyId, 1))?.document as { name: string }).name).toBe("Fell crossing option B (2)");
+  });
+
+  it("numbers a copy after the names the team already has, ignoring case and spacing", () => {
+    expect(nextFreeName("Tarn Head", ["Other"])).toBe("Tarn Head");
+    expect(nextFreeName("Tarn Head", ["tarn  head", "Tarn Head (2)"])).toBe("Tarn Head (3)");
   });
 
   it("refuses an invalid file with each problem's path, and saves nothing", async () => {
