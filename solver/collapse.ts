@@ -10,8 +10,24 @@ export interface CollapseFacts {
   groupSlack: Int32Array;
   /** Share of the load (percent) that still solved. */
   loadabilityPct: number;
+  /** Iterations spent on the full load before it was refused, and how they ended. */
   iterations: number;
-  maxIterations: number;
+  failure?: "iterations" | "diverged" | "singular" | "limits";
+}
+
+/** What the iterations did, in words: they ran out, ran away, found no direction, or kept switching. */
+export function failureWords(failure: CollapseFacts["failure"], iterations: number): string {
+  const after = `after ${iterations} iteration${iterations === 1 ? "" : "s"}`;
+  switch (failure) {
+    case "diverged":
+      return `ran away (its mismatch grew without bound) ${after}`;
+    case "singular":
+      return `found no direction to improve in (a singular Jacobian) ${after}`;
+    case "limits":
+      return `was still switching sources between their set points and reactive limits ${after}`;
+    default:
+      return `did not settle in ${iterations} iterations`;
+  }
 }
 
 const NAMED_LOADS = 3;
@@ -25,7 +41,7 @@ export function describeCollapse(network: Network, busIndex: IdIndex, facts: Col
   }
   const pct = Math.round(facts.loadabilityPct);
   if (weakest < 0 || facts.groupSlack[weakest] < 0) {
-    return `The load flow did not converge in ${facts.iterations} iterations; with every load scaled down it solves up to about ${pct} % of its load.`;
+    return `The load flow ${failureWords(facts.failure, facts.iterations)}; with every load scaled down it solves up to about ${pct} % of its load.`;
   }
   const slackBus = facts.groupSlack[weakest];
   const tree = spanningTree(network, busIndex, slackBus);
@@ -57,7 +73,7 @@ export function describeCollapse(network: Network, busIndex: IdIndex, facts: Col
 
   if (pct >= 99) {
     return (
-      `The load flow did not settle in ${facts.maxIterations} iterations: the chain from ${sourceText} through ${chainText} ` +
+      `The load flow ${failureWords(facts.failure, facts.iterations)}: the chain from ${sourceText} through ${chainText} ` +
       `is at the edge of what it can deliver to ${loadsText}${totalText} (it still solves with about ${pct} % of its load, ` +
       `${weakBus.name} then at ${voltage} pu).`
     );
@@ -66,7 +82,7 @@ export function describeCollapse(network: Network, busIndex: IdIndex, facts: Col
   return (
     `The network cannot carry its load: the chain from ${sourceText} through ${chainText} cannot deliver ` +
     `${loadsText}${totalText}. It could carry about ${pct} % of its load (the load is ${beyond}); ` +
-    `at that point ${weakBus.name} is down to ${voltage} pu.`
+    `at that point ${weakBus.name} is down to ${voltage} pu. At full load the load flow ${failureWords(facts.failure, facts.iterations)}.`
   );
 }
 

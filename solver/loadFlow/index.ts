@@ -9,7 +9,7 @@ import type { Network } from "#solver/schema.ts";
 import type { LoadFlowResult } from "#solver/results.ts";
 import { buildLoadFlowModel, flatStart, type LoadFlowOptions } from "#solver/loadFlow/model.ts";
 import { solveState } from "#solver/loadFlow/limits.ts";
-import { notConverged } from "#solver/loadFlow/loadability.ts";
+import { estimateLoadability, notConverged } from "#solver/loadFlow/loadability.ts";
 import { allFinite, emptyResult, readResults } from "#solver/loadFlow/readings.ts";
 
 export { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU, type LoadFlowOptions } from "#solver/loadFlow/model.ts";
@@ -19,8 +19,15 @@ export function runLoadFlow(network: Network, options: LoadFlowOptions = {}): Lo
   const model = buildLoadFlowModel(network);
   const state = flatStart(model);
   const outcome = solveState(model, state, 1, options);
-  if (!outcome.converged) return notConverged(model, outcome);
-  const result = readResults(model, state, outcome.iterations);
+  let solved = state;
+  if (!outcome.converged) {
+    // Verified by continuation in load before the network is refused: raised from no load, a
+    // network that has a solution reaches it.
+    const loadability = estimateLoadability(model);
+    if (loadability?.scale !== 1) return notConverged(model, outcome, loadability);
+    solved = loadability.state;
+  }
+  const result = readResults(model, solved, outcome.iterations);
   if (!allFinite(result))
     return {
       ...emptyResult(outcome.iterations),

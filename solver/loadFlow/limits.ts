@@ -1,7 +1,8 @@
 // PV buses at their reactive limits: a bus whose regulating sources would leave their range is held
 // at the limit as a PQ bus, and returns to regulating when its voltage says so (at most a few times,
-// so that it cannot see-saw). Newton solves and switching share one iteration budget.
-import { MAX_ITERATIONS, MISMATCH_TOLERANCE_PU, PQ, PV, type LoadFlowModel, type LoadFlowOptions, type LoadFlowState, type Workspace } from "#solver/loadFlow/model.ts";
+// so that it cannot see-saw). Newton solves and switching share one iteration budget; a second
+// attempt, started with every PV bus at a limit, gets its own.
+import { copyState, flatStart, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU, PQ, PV, type LoadFlowModel, type LoadFlowOptions, type LoadFlowState, type Workspace } from "#solver/loadFlow/model.ts";
 import { newton, type NewtonOutcome } from "#solver/loadFlow/newton.ts";
 
 /** Reactive-limit state of a PV bus: regulating, or held at its upper or lower limit. */
@@ -55,14 +56,7 @@ function enforceReactiveLimits(model: LoadFlowModel, state: LoadFlowState, w: Wo
 }
 
 /** Newton iterations with PV buses switched at their reactive limits, within one iteration budget. */
-export function solveState(
-  model: LoadFlowModel,
-  state: LoadFlowState,
-  loadScale: number,
-  options: LoadFlowOptions = {},
-): NewtonOutcome {
-  const maxIterations = options.maxIterations ?? MAX_ITERATIONS;
-  const tolerance = options.tolerancePu ?? MISMATCH_TOLERANCE_PU;
+function solveRegulating(model: LoadFlowModel, state: LoadFlowState, loadScale: number, maxIterations: number, tolerance: number): NewtonOutcome {
   const w = model.workspace;
   let used = 0;
   for (;;) {
@@ -76,3 +70,75 @@ export function solveState(
   }
 }
 
+/**
+ * The start for a second attempt when holding every set point first has failed: each PV bus begins
+ * held at the reactive limit its voltage points to. With its output at the limit nearest zero the
+ * bus sits below its set point (it needs more: held at its upper limit) or above it (held at its
+ * lower limit). From there a bus returns to regulating only when the voltage at that limit has
+ * passed its set point, which brackets the set point between two outputs the plant can give, so
+ * no iteration ever chases a voltage that no output within its limits can hold.
+ */
+function startAtLimits(model: LoadFlowModel, state: LoadFlowState, loadScale: number, maxIterations: number, tolerance: number): NewtonOutcome | undefined {
+  const fresh = flatStart(model);
+  const { kind, limitState, qHeld } = fresh;
+  let any = false;
+  for (let i = 0; i < model.busCount; i++) {
+    if (model.initialKind[i] !== PV) continue;
+    any = true;
+    kind[i] = PQ;
+    qHeld[i] = Math.min(Math.max(0, model.qMinPu[i]), model.qMaxPu[i]);
+    fresh.vm[i] = 1;
+  }
+  if (!any) return undefined;
+  const first = newton(model, fresh, model.workspace, loadScale, maxIterations, tolerance);
+  if (!first.converged) return first;
+  for (let i = 0; i < model.busCount; i++) {
+    if (model.initialKind[i] !== PV) continue;
+    const below = fresh.vm[i] < model.voltageSetPu[i];
+    limitState[i] = below ? AT_MAX : AT_MIN;
+    qHeld[i] = below ? model.qMaxPu[i] : model.qMinPu[i];
+    // An open limit cannot be held: the bus regulates (its set point is then reachable).
+    if (!Number.isFinite(qHeld[i])) {
+      kind[i] = PV;
+      limitState[i] = REGULATING;
+      qHeld[i] = 0;
+      fresh.vm[i] = model.voltageSetPu[i];
+    }
+  }
+  const rest = solveRegulating(model, fresh, loadScale, maxIterations - first.iterations, tolerance);
+  copyInto(state, fresh);
+  return { ...rest, iterations: first.iterations + rest.iterations };
+}
+
+function copyInto(target: LoadFlowState, source: LoadFlowState): void {
+  target.vm.set(source.vm);
+  target.va.set(source.va);
+  target.kind.set(source.kind);
+  target.limitState.set(source.limitState);
+  target.qHeld.set(source.qHeld);
+  target.returnsToPv.set(source.returnsToPv);
+}
+
+/**
+ * Newton iterations with PV buses switched at their reactive limits. When holding every set point
+ * first fails (a set point no output within the limits can hold sends Newton after an operating
+ * point that does not exist, or one so far out that the budget runs out on the way), a second
+ * attempt with its own budget starts each PV bus at the limit its voltage points to; a network is
+ * refused only when both fail. The outcome's iterations count both attempts.
+ */
+export function solveState(
+  model: LoadFlowModel,
+  state: LoadFlowState,
+  loadScale: number,
+  options: LoadFlowOptions = {},
+): NewtonOutcome {
+  const maxIterations = options.maxIterations ?? MAX_ITERATIONS;
+  const tolerance = options.tolerancePu ?? MISMATCH_TOLERANCE_PU;
+  const start = copyState(state);
+  const direct = solveRegulating(model, state, loadScale, maxIterations, tolerance);
+  if (direct.converged) return direct;
+  const second = startAtLimits(model, start, loadScale, maxIterations, tolerance);
+  if (!second?.converged) return direct;
+  copyInto(state, start);
+  return { ...second, iterations: direct.iterations + second.iterations };
+}

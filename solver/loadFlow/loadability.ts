@@ -2,7 +2,7 @@
 // together by bisection to estimate how much it could carry, and the chain that fails is named.
 import { describeCollapse } from "#solver/collapse.ts";
 import type { LoadFlowResult } from "#solver/results.ts";
-import { copyState, flatStart, MAX_ITERATIONS, PQ, type LoadFlowModel, type LoadFlowState } from "#solver/loadFlow/model.ts";
+import { copyState, flatStart, PQ, type LoadFlowModel, type LoadFlowState } from "#solver/loadFlow/model.ts";
 import type { NewtonOutcome } from "#solver/loadFlow/newton.ts";
 import { solveState } from "#solver/loadFlow/limits.ts";
 import { emptyResult } from "#solver/loadFlow/readings.ts";
@@ -25,12 +25,15 @@ export function estimateLoadability(model: LoadFlowModel): { scale: number; stat
       lowState = trial;
     } else high = mid;
   }
+  // The whole load once more, from the largest share that solved: a refusal is kept only when
+  // continuation in load cannot reach it either.
+  const full = copyState(lowState);
+  if (solveState(model, full, 1).converged) return { scale: 1, state: full };
   return { scale: low, state: lowState };
 }
 
 
-export function notConverged(model: LoadFlowModel, outcome: NewtonOutcome): LoadFlowResult {
-  const loadability = estimateLoadability(model);
+export function notConverged(model: LoadFlowModel, outcome: NewtonOutcome, loadability = estimateLoadability(model)): LoadFlowResult {
   const result = emptyResult(outcome.iterations);
   if (!loadability) {
     return {
@@ -49,7 +52,7 @@ export function notConverged(model: LoadFlowModel, outcome: NewtonOutcome): Load
       groupSlack: model.groupSlack,
       loadabilityPct: loadability.scale * 100,
       iterations: outcome.iterations,
-      maxIterations: MAX_ITERATIONS,
+      failure: outcome.failure,
     }),
   };
 }
