@@ -6,7 +6,7 @@ import type { EntryContext, HandleErrorFunction } from "react-router";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { ServerRouter } from "react-router";
 import { isbot } from "isbot";
-import type { RenderToPipeableStreamOptions } from "react-dom/server";
+import type { ReactElement } from "react";
 import { renderToPipeableStream } from "react-dom/server";
 import { createNonce, setSecurityHeaders } from "./lib/securityHeaders.server.ts";
 
@@ -25,38 +25,81 @@ export default function handleRequest(
     return new Response(null, { status: responseStatusCode, headers: responseHeaders });
   }
 
+  const userAgent = request.headers.get("user-agent");
+  // Crawlers get the whole page at once; people get the shell first and the rest streamed.
+  const allReady = Boolean((userAgent && isbot(userAgent)) || routerContext.isSpaMode);
+  return renderDocument(request, responseStatusCode, responseHeaders, <ServerRouter context={routerContext} url={request.url} nonce={nonce} />, {
+    nonce,
+    allReady,
+    timeoutMs: streamTimeout + 1000,
+  });
+}
+
+/**
+ * Render `element` as the HTML answer. Past `timeoutMs` the render is cut off; that is never a 500
+ * on its own: a form post whose action has already done its work (a status below 400) is answered
+ * 303 to the same address, so the browser shows the page afresh with the work saved instead of an
+ * error that invites a second submission; any other request keeps its status, with what was ready.
+ */
+export function renderDocument(
+  request: Request,
+  status: number,
+  responseHeaders: Headers,
+  element: ReactElement,
+  options: { nonce?: string; allReady: boolean; timeoutMs: number },
+): Promise<Response> {
+  let responseStatusCode = status;
   return new Promise((resolve, reject) => {
-    let shellRendered = false;
-    const userAgent = request.headers.get("user-agent");
-    // Crawlers get the whole page at once; people get the shell first and the rest streamed.
-    const readyOption: keyof RenderToPipeableStreamOptions =
-      (userAgent && isbot(userAgent)) || routerContext.isSpaMode ? "onAllReady" : "onShellReady";
+    let settled = false;
+    let timedOut = false;
+    const submitted = !["GET", "HEAD"].includes(request.method.toUpperCase()) && status < 400;
+    const seeAgain = () => {
+      settled = true;
+      const headers = new Headers(responseHeaders);
+      headers.delete("Content-Type");
+      headers.set("Location", new URL(request.url).pathname + new URL(request.url).search);
+      resolve(new Response(null, { status: 303, headers }));
+    };
 
-    let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => abort(), streamTimeout + 1000);
+    let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => {
+      timedOut = true;
+      abort();
+    }, options.timeoutMs);
 
-    const { pipe, abort } = renderToPipeableStream(<ServerRouter context={routerContext} url={request.url} nonce={nonce} />, {
-      nonce,
-      [readyOption]() {
-        shellRendered = true;
-        const body = new PassThrough({
-          final(callback) {
-            clearTimeout(timeoutId);
-            timeoutId = undefined;
-            callback();
-          },
-        });
-        const stream = createReadableStreamFromReadable(body);
-        responseHeaders.set("Content-Type", "text/html");
-        pipe(body);
-        resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
-      },
+    const ready = () => {
+      if (settled) return;
+      if (timedOut && submitted) {
+        seeAgain();
+        return;
+      }
+      settled = true;
+      const body = new PassThrough({
+        final(callback) {
+          clearTimeout(timeoutId);
+          timeoutId = undefined;
+          callback();
+        },
+      });
+      const stream = createReadableStreamFromReadable(body);
+      responseHeaders.set("Content-Type", "text/html");
+      pipe(body);
+      resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
+    };
+
+    const { pipe, abort } = renderToPipeableStream(element, {
+      nonce: options.nonce,
+      ...(options.allReady ? { onAllReady: ready } : { onShellReady: ready }),
       onShellError(error: unknown) {
-        reject(error);
+        clearTimeout(timeoutId);
+        if (timedOut && submitted) seeAgain();
+        else reject(error);
       },
       onError(error: unknown) {
+        // Our own cut-off is no error of the page: what was ready goes out with the status it had.
+        if (timedOut) return;
         responseStatusCode = 500;
         // Errors before the shell reject above and are logged by React Router; later ones only here.
-        if (shellRendered) console.error(error);
+        if (settled) console.error(error);
       },
     });
   });

@@ -27,16 +27,34 @@ export async function startSession(userId: number): Promise<string> {
   return sessionCookie.serialize(session.id, { expires: new Date(session.expires_at) });
 }
 
-/** The user behind the request's session cookie, or null (no cookie, forged, expired or ended). */
-export async function getSessionUser(request: Request): Promise<User | null> {
+/**
+ * Each request's session, looked up once however many loaders ask (the root's and the page's run
+ * on the same Request). Keyed by the Request object, so the next request looks again: signing out
+ * or removing a user still ends the session at once. After an action, React Router calls the
+ * loaders with a Request of their own, so a session started or ended by the action is seen.
+ */
+const sessionOfRequest = new WeakMap<Request, Promise<User | null>>();
+
+async function lookUpSessionUser(request: Request): Promise<User | null> {
   const sessionId = await readSessionId(request);
   if (!sessionId) return null;
   const found = await findSessionUser(await getDb(), sessionId);
   return found?.user ?? null;
 }
 
+/** The user behind the request's session cookie, or null (no cookie, forged, expired or ended). */
+export function getSessionUser(request: Request): Promise<User | null> {
+  let found = sessionOfRequest.get(request);
+  if (!found) {
+    found = lookUpSessionUser(request);
+    sessionOfRequest.set(request, found);
+  }
+  return found;
+}
+
 /** End the request's session on the server; returns the Set-Cookie header that clears the cookie. */
 export async function endSession(request: Request): Promise<string> {
+  sessionOfRequest.delete(request);
   const sessionId = await readSessionId(request);
   if (sessionId) await deleteSession(await getDb(), sessionId);
   return sessionCookie.serialize("", { maxAge: 0, expires: new Date(0) });
