@@ -109,6 +109,17 @@ export async function readRevision(
   return { document: JSON.parse(row.document), createdAt: row.created_at, authorName: row.authorName, message: row.message };
 }
 
+/** The stored document of one revision as its JSON text, unparsed (for the compute pool to parse off the request thread). */
+export async function readRevisionText(db: Db, networkId: number, number: number): Promise<string | undefined> {
+  const row = await db
+    .selectFrom("network_revisions")
+    .select("document")
+    .where("network_id", "=", networkId)
+    .where("number", "=", number)
+    .executeTakeFirst();
+  return row?.document;
+}
+
 /** A new network whose revision 1 is the given validated document; its name is the document's. */
 export async function insertNetwork(
   db: Db,

@@ -6,9 +6,7 @@ import type { NetworkRow } from "#db/schema.ts";
 import { ladderRequestSchema, type Ladder, type LadderRequest } from "#solver/ladder.ts";
 import type { ValidationIssue } from "#solver/schema.ts";
 import { JOB_TIME_LIMIT_MS, startJob, type JobView } from "./compute/jobs.server.ts";
-import { compute } from "./compute/pool.server.ts";
-import { ladderCost, ladderOf, payFor } from "./compute/results.server.ts";
-import { currentDocument } from "./networks.server.ts";
+import { ladderOf, ladderWork } from "./compute/results.server.ts";
 import { refusedRequestSentence } from "./api.server.ts";
 import type { Actor } from "./permissions.server.ts";
 
@@ -37,15 +35,13 @@ function refusal(network: NetworkRow, issues: ValidationIssue[]): Extract<Ladder
  * budget or a stopped run is thrown, see computeRefusal).
  */
 export async function runLadderOnNetwork(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderRun> {
-  const { document } = await currentDocument(db, network);
-  const outcome = await ladderOf(document, request, actor, signal);
+  const outcome = await ladderOf(db, network, request, actor, signal);
   return outcome.ok ? { ok: true, ladder: outcome.ladder, revision: network.current_revision } : refusal(network, outcome.issues);
 }
 
 /** The same for the API, whose answer the worker writes as JSON text. */
 export async function ladderJsonOnNetwork(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderJsonRun> {
-  const { document } = await currentDocument(db, network);
-  const outcome = await ladderOf(document, request, actor, signal, "json");
+  const outcome = await ladderOf(db, network, request, actor, signal, "json");
   return outcome.ok ? { ok: true, json: outcome.json, revision: network.current_revision } : refusal(network, outcome.issues);
 }
 
@@ -141,10 +137,9 @@ export async function startLadderJob(
   request: unknown,
   save: { userId: number; basedOn: string | null } | null,
 ): Promise<JobView<LadderJobResult>> {
-  const { document } = await currentDocument(db, network);
-  payFor(actor, ladderCost(document, request));
+  const run = await ladderWork(db, network, request, actor);
   return startJob<LadderJobResult>(save ? "ladder-save" : "ladder", actor, network.id, async (signal, onProgress) => {
-    const outcome = await compute({ kind: "ladder", document, request }, { signal, onProgress, timeLimitMs: 2 * JOB_TIME_LIMIT_MS });
+    const outcome = await run({ signal, onProgress, timeLimitMs: 2 * JOB_TIME_LIMIT_MS });
     if (!outcome.ok) return refusal(network, outcome.issues);
     if (save) {
       const refused = await storeLadderStudy(db, network, save.userId, request, save.basedOn);

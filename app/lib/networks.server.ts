@@ -1,13 +1,14 @@
 // Network writes shared by the pages and the API: every document is validated by the network
 // file's schema before anything is stored, and every change is a new numbered revision.
 import type { Db } from "#db/database.ts";
-import { appendRevision, insertNetwork, markNetworkDeleted, readRevision, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
+import { appendRevision, insertNetwork, markNetworkDeleted, readRevision, readRevisionText, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";
 import { findTeam } from "#db/teams.ts";
 import { revokeLinksOfNetwork } from "#db/shareLinks.ts";
 import { auditNetworkDeletion } from "./audit.server.ts";
 import { networkNameSchema } from "./fieldSchemas.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import { isTrustedRevision, trustRevision } from "./compute/trustedRevisions.server.ts";
 
 export type CreateResult = { ok: true; network: NetworkRow; document: Network } | { ok: false; issues: ValidationIssue[] };
 export type SaveResult =
@@ -27,6 +28,7 @@ export async function createNetwork(
     authorId: input.authorId,
     message: input.message,
   });
+  trustRevision(network.id, network.current_revision);
   return { ok: true, network, document: checked.network };
 }
 
@@ -44,7 +46,9 @@ export async function saveNetworkDocument(
     authorId: input.authorId,
     message: input.message,
   });
-  return result.ok ? { ok: true, revision: result.revision, document: checked.network } : { ok: false, reason: "stale", currentRevision: result.currentRevision };
+  if (!result.ok) return { ok: false, reason: "stale", currentRevision: result.currentRevision };
+  trustRevision(input.networkId, result.revision);
+  return { ok: true, revision: result.revision, document: checked.network };
 }
 
 /** The current revision's document of a network, as stored (already validated when saved). */
@@ -52,6 +56,19 @@ export async function currentDocument(db: Db, network: NetworkRow) {
   const revision = await readRevision(db, network.id, network.current_revision);
   if (!revision) throw new Error(`Network ${network.id} has no revision ${network.current_revision}`);
   return revision;
+}
+
+/**
+ * The current revision as stored: its JSON text, unparsed, its bus count (read from the text; only
+ * a bus has "nominalKV"), and whether this process has validated it with the current validator
+ * (on save, or on a first solve), so the compute pool may trust it and skip the validation.
+ */
+export async function currentDocumentText(db: Db, network: NetworkRow): Promise<{ text: string; buses: number; trusted: boolean }> {
+  const text = await readRevisionText(db, network.id, network.current_revision);
+  if (text === undefined) throw new Error(`Network ${network.id} has no revision ${network.current_revision}`);
+  let buses = 0;
+  for (let at = text.indexOf('"nominalKV":'); at !== -1; at = text.indexOf('"nominalKV":', at + 12)) buses++;
+  return { text, buses, trusted: isTrustedRevision(network.id, network.current_revision) };
 }
 
 /**

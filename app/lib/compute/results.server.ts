@@ -6,10 +6,11 @@ import { data } from "react-router";
 import type { NetworkRow } from "#db/schema.ts";
 import type { LadderOutcome } from "#solver/ladder.ts";
 import type { Db } from "../db.server.ts";
-import { currentDocument } from "../networks.server.ts";
+import { currentDocumentText } from "../networks.server.ts";
+import { trustRevision } from "./trustedRevisions.server.ts";
 import type { Actor } from "../permissions.server.ts";
 import { solveCost, spend, type BudgetRefusal } from "./budget.server.ts";
-import { compute, ComputeStopped } from "./pool.server.ts";
+import { compute, ComputeStopped, type ComputeOptions } from "./pool.server.ts";
 import type { CsvOutcome, JsonOutcome, ReportData } from "./tasks.ts";
 
 /** The caller's budget was spent; `refusal` says how long to wait. */
@@ -44,9 +45,9 @@ export function payFor(actor: Actor, cost: number): void {
 }
 
 /** A ladder's units: one solve per candidate voltage (at most MAX_ALTERNATIVES are accepted). */
-export function ladderCost(document: unknown, request: unknown): number {
+function ladderBusCost(buses: number, request: unknown): number {
   const voltages = (request as { voltagesKV?: unknown[] } | null)?.voltagesKV?.length ?? 1;
-  return solveCost(busCountOf(document)) * Math.max(1, Math.min(voltages, 12));
+  return solveCost(buses) * Math.max(1, Math.min(voltages, 12));
 }
 
 /**
@@ -65,20 +66,45 @@ export function studyCost(document: unknown, request: unknown): number {
   return solveCost(busCountOf(document)) * (cases + outageCases * branches + years * cases);
 }
 
-/** One calculation per key: later askers (even while it runs) get the same promise, free. */
-function once<T>(key: string, payer: string, cost: number, make: () => Promise<T>): Promise<T> {
+/**
+ * One calculation per key: later askers (even while it runs) get the same promise, free, without
+ * even reading the revision; the first reads it (as stored, see currentDocumentText), pays and runs.
+ */
+async function once<T>(key: string, payer: string, make: (stored: StoredRevision) => { cost: number; run: () => Promise<T> }, stored: () => Promise<StoredRevision>): Promise<T> {
   const hit = cache.get(key) as Promise<T> | undefined;
   if (hit) {
     cache.delete(key);
     cache.set(key, hit);
     return hit;
   }
+  const { cost, run } = make(await stored());
+  const again = cache.get(key) as Promise<T> | undefined;
+  if (again) return again;
   pay(payer, cost);
-  const made = make();
+  const made = run();
   cache.set(key, made);
   made.catch(() => cache.delete(key));
   while (cache.size > CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
   return made;
+}
+
+type StoredRevision = Awaited<ReturnType<typeof currentDocumentText>> & { network: NetworkRow };
+
+function storedRevision(db: Db, network: NetworkRow): () => Promise<StoredRevision> {
+  return async () => ({ ...(await currentDocumentText(db, network)), network });
+}
+
+/** The task's input for a stored revision; a revision that solves is trusted from then on. */
+function storedInput(revision: StoredRevision) {
+  return { stored: { text: revision.text, trusted: revision.trusted } };
+}
+
+function trustWhenSolved<T extends { ok: boolean } | { solved: { ok: boolean } }>(revision: StoredRevision, answer: Promise<T>): Promise<T> {
+  return answer.then((value) => {
+    const ok = "solved" in value ? value.solved.ok : value.ok;
+    if (ok) trustRevision(revision.network.id, revision.network.current_revision);
+    return value;
+  });
 }
 
 function revisionKey(kind: string, network: NetworkRow, extra = ""): string {
@@ -86,38 +112,54 @@ function revisionKey(kind: string, network: NetworkRow, extra = ""): string {
 }
 
 /** Load flow, fault levels and checks of the network's current revision, as the API's JSON. */
-export async function solvedRevisionJson(db: Db, network: NetworkRow, actor: Actor): Promise<JsonOutcome> {
-  const { document } = await currentDocument(db, network);
-  return once(revisionKey("solve", network), payerOf(actor), solveCost(busCountOf(document)), () => compute({ kind: "solve-json", document }));
-}
-
-/** The current revision's bus or branch results as CSV, or { ok: false } when it does not solve. */
-export async function revisionCsv(db: Db, network: NetworkRow, table: "buses" | "branches", actor: Actor): Promise<CsvOutcome> {
-  const { document } = await currentDocument(db, network);
-  return once(revisionKey("csv", network, table), payerOf(actor), solveCost(busCountOf(document)), () => compute({ kind: "csv", document, table }));
-}
-
-/** The study report's numbers for the current revision and the saved study (kept per both). */
-export async function revisionReport(
-  db: Db,
-  network: NetworkRow,
-  study: { request: unknown; updatedAt: string } | null,
-  actor: Actor,
-): Promise<ReportData> {
-  const { document } = await currentDocument(db, network);
-  const voltages = (study?.request as { voltagesKV?: unknown[] } | undefined)?.voltagesKV?.length ?? 0;
-  const cost = solveCost(busCountOf(document)) * (1 + voltages);
-  return once(revisionKey("report", network, study?.updatedAt ?? ""), payerOf(actor), cost, () =>
-    compute({ kind: "report", document, study: study?.request ?? null }),
+export function solvedRevisionJson(db: Db, network: NetworkRow, actor: Actor): Promise<JsonOutcome> {
+  return once(
+    revisionKey("solve", network),
+    payerOf(actor),
+    (revision) => ({ cost: solveCost(revision.buses), run: () => trustWhenSolved(revision, compute({ kind: "solve-json", ...storedInput(revision) })) }),
+    storedRevision(db, network),
   );
 }
 
-/** The voltage ladder for a document and a request (not kept: each request asks something new). */
-export function ladderOf(document: unknown, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderOutcome>;
-export function ladderOf(document: unknown, request: unknown, actor: Actor, signal: AbortSignal | undefined, form: "json"): Promise<JsonOutcome>;
-export async function ladderOf(document: unknown, request: unknown, actor: Actor, signal?: AbortSignal, form?: "json") {
-  pay(payerOf(actor), ladderCost(document, request));
-  return form === "json" ? compute({ kind: "ladder-json", document, request }, { signal }) : compute({ kind: "ladder", document, request }, { signal });
+/** The current revision's bus or branch results as CSV, or { ok: false } when it does not solve. */
+export function revisionCsv(db: Db, network: NetworkRow, table: "buses" | "branches", actor: Actor): Promise<CsvOutcome> {
+  return once(
+    revisionKey("csv", network, table),
+    payerOf(actor),
+    (revision) => ({ cost: solveCost(revision.buses), run: () => trustWhenSolved(revision, compute({ kind: "csv", table, ...storedInput(revision) })) }),
+    storedRevision(db, network),
+  );
+}
+
+/** The study report's numbers for the current revision and the saved study (kept per both). */
+export function revisionReport(db: Db, network: NetworkRow, study: { request: unknown; updatedAt: string } | null, actor: Actor): Promise<ReportData> {
+  const voltages = (study?.request as { voltagesKV?: unknown[] } | undefined)?.voltagesKV?.length ?? 0;
+  return once(
+    revisionKey("report", network, study?.updatedAt ?? ""),
+    payerOf(actor),
+    (revision) => ({
+      cost: solveCost(revision.buses) * (1 + voltages),
+      run: () => trustWhenSolved(revision, compute({ kind: "report", study: study?.request ?? null, ...storedInput(revision) })),
+    }),
+    storedRevision(db, network),
+  );
+}
+
+/** The voltage ladder on a network's current revision, as stored (not kept: each request asks something new). */
+export function ladderOf(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal?: AbortSignal): Promise<LadderOutcome>;
+export function ladderOf(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal: AbortSignal | undefined, form: "json"): Promise<JsonOutcome>;
+export async function ladderOf(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal?: AbortSignal, form?: "json") {
+  const revision = await storedRevision(db, network)();
+  pay(payerOf(actor), ladderBusCost(revision.buses, request));
+  const input = storedInput(revision);
+  return form === "json" ? compute({ kind: "ladder-json", request, ...input }, { signal }) : compute({ kind: "ladder", request, ...input }, { signal });
+}
+
+/** The ladder as a job's work: the stored revision read now and paid for now; run when the job calls it. */
+export async function ladderWork(db: Db, network: NetworkRow, request: unknown, actor: Actor): Promise<(options: ComputeOptions) => Promise<LadderOutcome>> {
+  const revision = await storedRevision(db, network)();
+  pay(payerOf(actor), ladderBusCost(revision.buses, request));
+  return (options) => compute({ kind: "ladder", request, ...storedInput(revision) }, options);
 }
 
 /** Solve a document sent with the request (not stored, so not kept), as the API's JSON. */
@@ -135,14 +177,15 @@ export function computeRefusalOf(failure: unknown): { status: number; error: str
 }
 
 /** The saved ladder study's ladder on the current revision, kept per revision and study (the ladder page shows it on every visit). */
-export async function savedLadderOf(
-  network: NetworkRow,
-  document: unknown,
-  study: { request: unknown; updatedAt: string },
-  actor: Actor,
-): Promise<LadderOutcome> {
-  return once(revisionKey("saved-ladder", network, study.updatedAt), payerOf(actor), ladderCost(document, study.request), () =>
-    compute({ kind: "ladder", document, request: study.request }),
+export function savedLadderOf(db: Db, network: NetworkRow, study: { request: unknown; updatedAt: string }, actor: Actor): Promise<LadderOutcome> {
+  return once(
+    revisionKey("saved-ladder", network, study.updatedAt),
+    payerOf(actor),
+    (revision) => ({
+      cost: ladderBusCost(revision.buses, study.request),
+      run: () => compute({ kind: "ladder", request: study.request, ...storedInput(revision) }),
+    }),
+    storedRevision(db, network),
   );
 }
 

@@ -3,24 +3,40 @@
 // stored document and answers something a structured clone carries back (no functions, no classes).
 import { layoutSingleLine, type SingleLineLayout } from "#app/components/report/singleLineLayout.ts";
 import { branchesCsv, busesCsv } from "#solver/csv.ts";
-import { solveNetwork, type SolveOutcome } from "#solver/index.ts";
+import { solveNetwork, solveValidated, type SolveOutcome } from "#solver/index.ts";
 import type { MessagePort } from "node:worker_threads";
 import type { JobProgress } from "./jobView.ts";
 import { runLadder, type LadderOutcome, type LadderProgress } from "#solver/ladder.ts";
-import { validateNetwork, type ValidationIssue } from "#solver/schema.ts";
+import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { runStudySync, type StudyOutcome, type StudyProgress } from "#solver/study/index.ts";
 
 /** Drawings of more buses than this are left out of the report, which says so in a sentence. */
 export const DRAWING_MAX_BUSES = 400;
 
-export type ComputeTask =
-  | { kind: "solve"; document: unknown }
-  | { kind: "solve-json"; document: unknown }
-  | { kind: "ladder-json"; document: unknown; request: unknown }
-  | { kind: "csv"; document: unknown; table: "buses" | "branches" }
-  | { kind: "ladder"; document: unknown; request: unknown }
-  | { kind: "report"; document: unknown; study: unknown | null }
-  | { kind: "study"; document: unknown; request: unknown };
+/**
+ * A stored revision as it is stored: its JSON text, parsed in the worker (not on the request
+ * thread, and a string crosses to the worker far cheaper than an object graph), and whether the
+ * server has seen it pass the checks (trustedRevisions.server.ts), so the worker need not validate.
+ * Only the server sets it, from the database; a document from a request is always `document`.
+ */
+export interface StoredDocument {
+  text: string;
+  trusted: boolean;
+}
+
+/** What a task works on: a document from a request (validated in the worker), or a stored revision. */
+export type TaskInput = { document: unknown; stored?: undefined } | { stored: StoredDocument; document?: undefined };
+
+export type ComputeTask = TaskInput &
+  (
+    | { kind: "solve" }
+    | { kind: "solve-json" }
+    | { kind: "ladder-json"; request: unknown }
+    | { kind: "csv"; table: "buses" | "branches" }
+    | { kind: "ladder"; request: unknown }
+    | { kind: "report"; study: unknown | null }
+    | { kind: "study"; request: unknown }
+  );
 
 export type { JobProgress } from "./jobView.ts";
 
@@ -79,12 +95,13 @@ export interface ComputeAnswers {
   study: StudyOutcome;
 }
 
-export function solveTask(document: unknown): SolveOutcome {
-  return solveNetwork(document);
+/** Solve: validated first, unless it is a stored revision the server trusts. */
+export function solveTask(document: unknown, trusted = false): SolveOutcome {
+  return trusted ? solveValidated(document as Network) : solveNetwork(document);
 }
 
-export function csvTask(document: unknown, table: "buses" | "branches"): CsvOutcome {
-  const solved = solveNetwork(document);
+export function csvTask(document: unknown, table: "buses" | "branches", trusted = false): CsvOutcome {
+  const solved = solveTask(document, trusted);
   if (!solved.ok) return { ok: false };
   return { ok: true, csv: table === "buses" ? busesCsv(solved.network, solved.result) : branchesCsv(solved.network, solved.result) };
 }
@@ -94,8 +111,8 @@ export function ladderTask(document: unknown, request: unknown, onProgress?: (st
 }
 
 /** The study report's numbers: the solve, the saved ladder study (if any) and the drawing's layout. */
-export function reportTask(document: unknown, study: unknown | null): ReportData {
-  const solved = solveNetwork(document);
+export function reportTask(document: unknown, study: unknown | null, trusted = false): ReportData {
+  const solved = solveTask(document, trusted);
   if (!solved.ok) return { solved, ladder: null, drawing: null };
   const ladder = study === null ? null : runLadder(solved.network, study);
   const drawing = solved.network.buses.length <= DRAWING_MAX_BUSES ? layoutSingleLine(solved.network) : null;
@@ -103,33 +120,37 @@ export function reportTask(document: unknown, study: unknown | null): ReportData
 }
 
 /** A study; the network's own issues come back under "network" (as the ladder's do), the request's as they are. */
-export function studyTask(document: unknown, request: unknown, onStep?: (step: StudyProgress) => void): StudyOutcome {
+export function studyTask(document: unknown, request: unknown, onStep?: (step: StudyProgress) => void, trusted = false): StudyOutcome {
+  // The study validates the network once itself; a first look here tells the network's own issues from the request's.
+  if (trusted) return runStudySync(document, request, onStep);
   const checked = validateNetwork(document);
   if (!checked.ok) return { ok: false, issues: checked.issues.map((i) => ({ path: i.path ? `network.${i.path}` : "network", message: i.message })) };
   return runStudySync(checked.network, request, onStep);
 }
 
 export function runTask(task: ComputeTask & { progress?: MessagePort }): ComputeAnswers[ComputeTask["kind"]] {
+  const document: unknown = task.stored ? JSON.parse(task.stored.text) : task.document;
+  const trusted = task.stored?.trusted === true;
   switch (task.kind) {
     case "solve":
-      return solveTask(task.document);
+      return solveTask(document, trusted);
     case "solve-json": {
-      const solved = solveTask(task.document);
+      const solved = solveTask(document, trusted);
       return solved.ok ? { ok: true, json: JSON.stringify(solved.result) } : solved;
     }
     case "ladder-json": {
-      const run = ladderTask(task.document, task.request);
+      const run = ladderTask(document, task.request);
       if (!run.ok) return run;
       const { sectionBus, section, money, alternatives, cheapest, sensitivity, inverseSquareReference } = run.ladder;
       return { ok: true, json: JSON.stringify({ sectionBus, section, money, alternatives, cheapest, sensitivity, inverseSquareReference }) };
     }
     case "csv":
-      return csvTask(task.document, task.table);
+      return csvTask(document, task.table, trusted);
     case "ladder":
-      return ladderTask(task.document, task.request, reporter(task.progress, ladderProgressOf));
+      return ladderTask(document, task.request, reporter(task.progress, ladderProgressOf));
     case "report":
-      return reportTask(task.document, task.study);
+      return reportTask(document, task.study, trusted);
     case "study":
-      return studyTask(task.document, task.request, reporter(task.progress, studyProgressOf));
+      return studyTask(document, task.request, reporter(task.progress, studyProgressOf), trusted);
   }
 }

@@ -53,7 +53,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   // The saved study is run again on the current revision, so what the page shows is never stale.
   const savedRun =
     saved.study && checked.ok
-      ? await savedLadderOf(network, checked.network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"))
+      ? await savedLadderOf(db, network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"))
       : null;
   return {
     id: network.id,

@@ -77,3 +77,29 @@ describe("results kept per revision", () => {
     expect(other).toBeInstanceOf(BudgetExceeded);
   }, 120_000);
 });
+
+describe("stored revisions, validated once", () => {
+  it("are trusted once saved here, counted by their buses as stored, and an untrusted one is validated on first use", async () => {
+    const { currentDocumentText } = await import("#app/lib/networks.server.ts");
+    const { appendRevision, findNetwork } = await import("#db/networks.ts");
+    const { solvedRevisionJson } = await import("#app/lib/compute/results.server.ts");
+    const team = await makeTeam("Trusted revisions");
+    const db = await getDb();
+    const created = await createNetwork(db, { teamId: team.teamId, document: syntheticFeeder(250), authorId: team.userIds.owner });
+    if (!created.ok) throw new Error("feeder does not validate");
+    expect(await currentDocumentText(db, created.network)).toMatchObject({ buses: 250, trusted: true });
+
+    // A revision stored without this process validating it (as by an older release) that the
+    // checks now refuse: a bus at 0 kV. Its first solve validates and answers the checks' issue.
+    const broken = structuredClone(created.document);
+    broken.buses[3].nominalKV = 0;
+    const stored = await appendRevision(db, { networkId: created.network.id, expectedRevision: 1, document: broken, authorId: team.userIds.owner });
+    expect(stored.ok).toBe(true);
+    const network = (await findNetwork(db, created.network.id))!;
+    expect(await currentDocumentText(db, network)).toMatchObject({ buses: 250, trusted: false });
+    const answer = await solvedRevisionJson(db, network, { kind: "user", userId: team.userIds.viewer });
+    expect(answer.ok).toBe(false);
+    expect(!answer.ok && answer.issues[0].path).toBe("buses[3].nominalKV");
+    expect((await currentDocumentText(db, network)).trusted).toBe(false);
+  }, 60_000);
+});
