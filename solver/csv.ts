@@ -27,7 +27,7 @@ export function toCsv(header: readonly string[], rows: readonly Cell[][]): strin
 }
 
 /** A table of the shared results columns, each number at the CSV's precision. */
-function columnsCsv<Row>(columns: readonly ResultColumn<Row>[], rows: readonly Row[]): string {
+export function columnsCsv<Row>(columns: readonly ResultColumn<Row>[], rows: readonly Row[]): string {
   const header = columns.map((c) => c.csv ?? c.key);
   const cells = rows.map((row) =>
     columns.map((c) => {
