@@ -74,6 +74,9 @@ export interface OutageRow {
   lowestVoltagePu: number | null;
 }
 
+/** An outage row without its checks: what the columns read. */
+export type OutageSummary = Omit<OutageRow, "checks">;
+
 export interface FirmCapacityRow {
   key: string;
   hvBus: string;
@@ -306,7 +309,7 @@ export const outageColumns = {
   lowestVoltageId: { key: "lowestVoltageId", header: "Lowest bus", value: (r) => r.lowestVoltageId, csv: "lowest_voltage_bus" },
   lowestVoltageName: { key: "lowestVoltageName", header: "Lowest bus", value: (r) => r.lowestVoltageName },
   lowestVoltagePu: { key: "lowestVoltagePu", header: "Voltage", quantity: "pu", value: (r) => r.lowestVoltagePu, csv: "lowest_voltage_pu" },
-} satisfies Record<string, ResultColumn<OutageRow>>;
+} satisfies Record<string, ResultColumn<OutageSummary>>;
 
 export const firmCapacityColumns = {
   substation: { key: "substation", header: "Substation", value: (r) => r.substation },

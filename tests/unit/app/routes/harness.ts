@@ -20,7 +20,7 @@ type RouteFunction = (args: any) => unknown;
 async function fromResponse(response: Response): Promise<Outcome> {
   const type = response.headers.get("Content-Type") ?? "";
   const text = await response.text();
-  return { status: response.status, body: type.includes("json") && text ? JSON.parse(text) : text, headers: response.headers };
+  return { status: response.status, body: type.includes("json") && !type.includes("ndjson") && text ? JSON.parse(text) : text, headers: response.headers };
 }
 
 function isDataWithInit(value: unknown): value is { data: unknown; init: ResponseInit | null } {
