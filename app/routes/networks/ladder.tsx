@@ -132,9 +132,14 @@ export default function LadderPage({ loaderData }: Route.ComponentProps) {
           </>
         }
         actions={
-          <Link to={`/networks/${id}/report`} className="btn">
-            Study report
-          </Link>
+          <>
+            <Link to={`/networks/${id}/study`} className="btn">
+              Study
+            </Link>
+            <Link to={`/networks/${id}/report`} className="btn">
+              Study report
+            </Link>
+          </>
         }
       />
       {document ? (

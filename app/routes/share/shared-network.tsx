@@ -105,9 +105,14 @@ export default function SharedNetwork({ loaderData }: Route.ComponentProps) {
           </>
         }
         actions={
-          <Link to={`${here}/report`} className="btn btn-small">
-            Study report
-          </Link>
+          <>
+            <Link to={`${here}/study`} className="btn btn-small">
+              Study
+            </Link>
+            <Link to={`${here}/report`} className="btn btn-small">
+              Study report
+            </Link>
+          </>
         }
       />
       {document ? (

@@ -111,6 +111,9 @@ const CASES: Case[] = [
     body: { form: { intent: "start", elementId: "", guestName: "Matrix guest", body: "A guest's note" } },
     expect: viaLink(200, 403),
   },
+  { route: "s/:token/study", method: "GET", path: "/s/{token}/study", expect: viaLink(200, 302) },
+  { route: "s/:token/study/run", method: "GET", path: "/s/{token}/study/run", expect: viaLink(200, 302) },
+  { route: "s/:token/study.csv", method: "GET", path: "/s/{token}/study.csv?table=envelope", expect: viaLink(200, 302) },
 
   // Networks pages
   { route: "networks", method: "GET", path: "/networks", expect: signedIn(200, 302) },
@@ -152,6 +155,19 @@ const CASES: Case[] = [
   },
   { route: "networks/:networkId/report", method: "GET", path: "/networks/{network}/report", expect: view(302) },
   { route: "networks/:networkId/report", method: "GET", path: "/networks/{other}/report", expect: { ...view(302), editLink: 404 } },
+  { route: "networks/:networkId/study", method: "GET", path: "/networks/{network}/study", expect: view(302) },
+  { route: "networks/:networkId/study", method: "GET", path: "/networks/{other}/study?outages=on", expect: { ...view(302), editLink: 404 } },
+  { route: "networks/:networkId/study/run", method: "GET", path: "/networks/{network}/study/run", expect: view(302) },
+  { route: "networks/:networkId/study.csv", method: "GET", path: "/networks/{network}/study.csv?table=cases", expect: view(302) },
+  { route: "networks/:networkId/cases", method: "GET", path: "/networks/{network}/cases", expect: view(302) },
+  {
+    route: "networks/:networkId/cases",
+    method: "POST",
+    path: "/networks/{network}/cases",
+    // A case without a name: whoever may edit is let in and told what to fix; nothing is written.
+    body: { form: { intent: "save", revision: "1", originalId: "", name: "" } },
+    expect: onNetwork({ viewer: 403, editor: 400, owner: 400 }, 302),
+  },
   { route: "networks/:networkId/share", method: "GET", path: "/networks/{network}/share", expect: onNetwork({ viewer: 403, editor: 403, owner: 200 }, 302) },
   {
     route: "networks/:networkId/share",
