@@ -109,6 +109,8 @@ export const LIMIT_WORDS: Record<CheckKind, string> = {
   "line-overload": "line over ampacity",
   "transformer-overload": "transformer over rating",
   "breaking-current": "fault current over breaking",
+  "minimum-fault-level": "fault level below minimum",
+  "weak-grid": "short-circuit ratio low",
   "not-converged": "load not carried",
 };
 
@@ -266,6 +268,10 @@ export function limitQuantity(kind: CheckKind): Quantity {
       return "MVA";
     case "breaking-current":
       return "kA";
+    case "minimum-fault-level":
+      return "MVA";
+    case "weak-grid":
+      return "ratio";
     case "not-converged":
       return "pct";
   }
