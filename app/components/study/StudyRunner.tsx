@@ -85,7 +85,7 @@ export function StudyRunner({ url, csvBase, query, expectedLoadFlows }: { url: s
   const progress = state.phase === "running" ? state.progress : null;
   const total = progress?.total ?? expectedLoadFlows;
   return (
-    <div className="panel ks-study-progress" aria-busy="true">
+    <div className="panel p-5 ks-study-progress" aria-busy="true">
       <label htmlFor="study-progress" className="field-label">
         Running the study on the server
       </label>

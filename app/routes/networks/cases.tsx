@@ -161,7 +161,7 @@ export default function CasesPage({ loaderData }: Route.ComponentProps) {
       {answer?.message && answer.intent !== "save" && answer.intent !== "growth" ? <Notice tone="error">{answer.message}</Notice> : null}
       {loaderData.unknownCase ? <Notice tone="error">There is no case “{loaderData.unknownCase}”; pick one from the list.</Notice> : null}
 
-      <section className="panel" aria-labelledby="cases-list">
+      <section className="panel p-5" aria-labelledby="cases-list">
         <h2 id="cases-list" className="text-lg">
           Cases stored with the network
         </h2>
@@ -251,7 +251,7 @@ export default function CasesPage({ loaderData }: Route.ComponentProps) {
         />
       ) : null}
 
-      <section className="panel mt-4" aria-labelledby="cases-growth">
+      <section className="panel p-5 mt-4" aria-labelledby="cases-growth">
         <h2 id="cases-growth" className="text-lg">
           Load growth
         </h2>
@@ -334,7 +334,7 @@ function CaseEditor({
   const out = new Set(fields.outOfService);
   const errorList = Object.entries(errors);
   return (
-    <section className="panel mt-4 ks-case-editor" aria-labelledby="case-editor">
+    <section className="panel p-5 mt-4 ks-case-editor" aria-labelledby="case-editor">
       <h2 id="case-editor" className="text-lg">
         {isNew ? "New operating case" : `Edit “${fields.name || fields.originalId}”`}
       </h2>

@@ -98,7 +98,7 @@ export default function StudyPage({ loaderData }: Route.ComponentProps) {
         </Notice>
       ) : (
         <>
-          <section className="panel ks-study-form" aria-labelledby="study-what">
+          <section className="panel p-5 ks-study-form" aria-labelledby="study-what">
             <h2 id="study-what" className="text-lg">
               What to study
             </h2>
