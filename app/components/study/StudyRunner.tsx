@@ -6,15 +6,19 @@ import { Notice } from "#app/components/Notice.tsx";
 import { StudyTables } from "#app/components/study/StudyTables.tsx";
 import type { StudyView } from "#app/lib/studyView.ts";
 import type { StudyCsvTable } from "#solver/study/csv.ts";
-import type { StudyProgress } from "#solver/study/index.ts";
+
+/** What the server reports while the study runs: load flows done of the most it needs, and a sentence. */
+interface StudyProgress {
+  done: number;
+  total: number;
+  stage: string;
+}
 
 type RunState =
   | { phase: "starting" }
   | { phase: "running"; progress: StudyProgress }
   | { phase: "done"; view: StudyView; revision: number }
   | { phase: "failed"; error: string; issues: { path: string; message: string }[] };
-
-const STAGE_WORDS: Record<StudyProgress["stage"], string> = { cases: "operating cases", outages: "outages", years: "years of growth" };
 
 async function readStream(response: Response, onLine: (line: Record<string, unknown>) => void) {
   const reader = response.body!.pipeThrough(new TextDecoderStream()).getReader();
@@ -92,7 +96,7 @@ export function StudyRunner({ url, csvBase, query, expectedLoadFlows }: { url: s
       <progress id="study-progress" max={total} value={progress?.done ?? 0} />
       <p role="status" className="field-hint">
         {progress
-          ? `${progress.done.toLocaleString("en-GB")} of ${progress.total.toLocaleString("en-GB")} load flows solved (${STAGE_WORDS[progress.stage]}).`
+          ? `${progress.stage}.`
           : `Starting: about ${total.toLocaleString("en-GB")} load flows to solve.`}
       </p>
     </div>

@@ -8,6 +8,6 @@ import { studyCsvResponse } from "#app/lib/studyRun.server.ts";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const db = await getDb();
-  const { network } = await networkReader(db, request, params);
-  return studyCsvResponse(db, network, new URL(request.url).searchParams, request.signal);
+  const { network, actor } = await networkReader(db, request, params);
+  return studyCsvResponse(db, network, actor, new URL(request.url).searchParams, request.signal);
 }

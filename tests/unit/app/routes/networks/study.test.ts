@@ -9,7 +9,8 @@ import { loader as pageLoader } from "#app/routes/networks/study.tsx";
 import { loader as runLoader } from "#app/routes/networks/study-run.ts";
 import { loader as csvLoader } from "#app/routes/networks/study-csv.ts";
 import { validateNetwork } from "#solver/schema.ts";
-import { call, getRequest, jsonRequest, type Outcome } from "../harness.ts";
+import { insertMembership } from "#db/teams.ts";
+import { call, cookieFor, getRequest, jsonRequest, makeUser, type Outcome } from "../harness.ts";
 import { demoDocument, freshWorld, makePeople, type People, type World } from "../reviewWorld.ts";
 
 let people: People;
@@ -19,6 +20,16 @@ beforeAll(async () => {
   people = await makePeople("Study page");
   world = await freshWorld(people, "Study page");
 });
+
+/**
+ * A viewer of the team of their own: each account has its own compute budget, and a full study
+ * of the demo (N-1 and 20 years) spends most of one.
+ */
+async function newViewer(): Promise<string> {
+  const user = await makeUser("Study reader");
+  await insertMembership(await getDb(), people.team.id, user.id, "viewer");
+  return cookieFor(user);
+}
 
 const params = () => ({ networkId: String(world.networkId) });
 const page = (query: string, cookie = people.cookies.viewer) => call(pageLoader, getRequest(`/networks/${world.networkId}/study${query}`, cookie), params());
@@ -64,24 +75,24 @@ describe("the study page", () => {
 
 describe("the study stream", () => {
   it("reports progress up to every load flow, then rows equal to the API's study of the same revision", async () => {
-    const outcome = await run("?outages=on&years=on");
+    const outcome = await run("?outages=on&years=on", await newViewer());
     expect(outcome.status).toBe(200);
     const all = lines(outcome);
     const progress = all.filter((l) => l.progress).map((l) => l.progress);
     const last = all.at(-1)!;
     expect(last.view).toBeDefined();
     // 3 cases + 3 × 5 outages + 20 years × 3 cases.
-    expect(progress.at(-1)).toEqual({ done: 3 + 15 + 60, total: 3 + 15 + 60, stage: "years" });
+    expect(progress.at(-1)).toMatchObject({ done: 3 + 15 + 60, total: 3 + 15 + 60, stage: expect.stringMatching(/^Years of growth/) });
     expect(progress.map((p) => p.done)).toEqual([...progress.map((p) => p.done)].sort((a, b) => a - b));
 
-    const api = await call(studyApi, jsonRequest("POST", `/api/networks/${world.networkId}/study`, { cookie: people.cookies.viewer, body: { outages: true, years: true } }), params());
+    const api = await call(studyApi, jsonRequest("POST", `/api/networks/${world.networkId}/study`, { cookie: await newViewer(), body: { outages: true, years: true } }), params());
     const checked = validateNetwork(demoDocument("Study page main"));
     if (!checked.ok) throw new Error("the demo must validate");
     expect(last.view).toEqual(JSON.parse(JSON.stringify(studyView(checked.network, api.body))));
   });
 
   it("loses the town's 7 MW with its one feeder out at peak, and 3.5 MW at half load (by hand: 7 × 0.5)", async () => {
-    const view = lines(await run("?outages=on")).at(-1)!.view;
+    const view = lines(await run("?outages=on", await newViewer())).at(-1)!.view;
     const town = (caseId: string) => view.outages.rows.find((o: any) => o.case.id === caseId && o.elementId === "l-town");
     expect(town("winter-peak").lostLoadMW).toBe(7);
     expect(town("summer-light").lostLoadMW).toBe(3.5);
@@ -95,7 +106,7 @@ describe("the study stream", () => {
   });
 
   it("runs the years on a growth given for this run", async () => {
-    const view = lines(await run("?years=on&rate=5&horizon=10")).at(-1)!.view;
+    const view = lines(await run("?years=on&rate=5&horizon=10", await newViewer())).at(-1)!.view;
     expect(view.growth).toMatchObject({ ratePctPerYear: 5, years: 10 });
     expect(view.years.rows.every((y: any) => y.firstYear >= 0 && y.firstYear <= 10)).toBe(true);
   });
@@ -113,20 +124,30 @@ describe("the study stream", () => {
     expect(lines(live).at(-1)!.view.cases).toHaveLength(3);
     expect((await viaLink(world.tokens.revokedLink)).status).toBe(410);
   });
+
+  it("refuses a study past the reader's compute budget with 429 and a sentence, before streaming", async () => {
+    const reader = await newViewer();
+    expect((await run("?outages=on&years=on", reader)).status).toBe(200);
+    const refused = await run("?outages=on&years=on&rate=3&horizon=20", reader);
+    expect(refused.status).toBe(429);
+    expect(refused.body.error).toMatch(/\w/);
+  });
 });
 
 describe("the study CSV", () => {
   it("downloads each table of the study the page shows", async () => {
-    const outcome = await csv("?table=outages&outages=on");
+    const reader = await newViewer();
+    const outcome = await csv("?table=outages&outages=on", reader);
     expect(outcome.status).toBe(200);
     expect(outcome.headers.get("Content-Type")).toMatch(/text\/csv/);
     expect(outcome.headers.get("Content-Disposition")).toMatch(/study-outages\.csv/);
     const rows = String(outcome.body).trimEnd().split("\r\n").map((r) => r.split(","));
     const lost = rows[0].indexOf("lost_load_MW");
     expect(rows.find((r) => r[0] === "winter-peak" && r[1] === "l-town")![lost]).toBe("7");
-    for (const table of ["cases", "envelope"]) expect((await csv(`?table=${table}`)).status).toBe(200);
-    expect((await csv("?table=years&years=on")).status).toBe(200);
-    expect((await csv("?table=firm-capacity&outages=on")).status).toBe(200);
+    for (const table of ["cases", "envelope"]) expect((await csv(`?table=${table}`, reader)).status).toBe(200);
+    expect((await csv("?table=years&years=on", reader)).status).toBe(200);
+    // The study just run for the N-1 table answers this one too, at no cost.
+    expect((await csv("?table=firm-capacity&outages=on", reader)).status).toBe(200);
   });
 
   it("says what is missing instead of an empty file", async () => {
