@@ -1,4 +1,4 @@
-// Command line: `npm run solve -- FILE.json [--csv buses|branches] [--no-faults]`.
+// Command line: `npm run solve -- FILE.json [--csv buses|branches|sources] [--no-faults]`.
 // The only solver file that touches Node: it hands the process's arguments, files and streams to
 // `runCommandLine` and sets the exit status (0 solved, 1 not converged, 2 unusable input).
 import { readFileSync } from "node:fs";

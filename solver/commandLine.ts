@@ -2,11 +2,12 @@
 // streams in, the exit status out. `cli.ts` wires it to Node; tests call it directly.
 // Results go to standard output and nothing else does; every complaint goes to standard error.
 // Exit status: 0 solved (also with check violations), 1 load flow not converged, 2 unusable input.
-import { branchesCsv, busesCsv, solveNetwork, type ValidationIssue } from "#solver/index.ts";
+import { solveNetwork, type ValidationIssue } from "#solver/index.ts";
+import { isCsvTable, resultsCsv, type CsvTable } from "#solver/csv.ts";
 import { runStudySync } from "#solver/study/index.ts";
 
 export const USAGE =
-  "usage: npm run solve -- FILE.json [--csv buses|branches] [--no-faults]\n" +
+  "usage: npm run solve -- FILE.json [--csv buses|branches|sources] [--no-faults]\n" +
   "       npm run solve -- FILE.json --study [--outages] [--years] [--no-faults]";
 
 export type ExitStatus = 0 | 1 | 2;
@@ -20,7 +21,7 @@ export interface CommandLineIo {
 
 interface Arguments {
   file: string;
-  csv?: "buses" | "branches";
+  csv?: CsvTable;
   faults: boolean;
   /** The study object (operating cases, envelope, energy) instead of one load flow. */
   study: boolean;
@@ -37,7 +38,7 @@ function parseArguments(argv: readonly string[]): Arguments | string {
     const arg = argv[i];
     if (arg === "--csv") {
       const what = argv[++i];
-      if (what !== "buses" && what !== "branches") return `--csv needs "buses" or "branches", not ${what === undefined ? "nothing" : `"${what}"`}`;
+      if (!isCsvTable(what)) return `--csv needs "buses", "branches" or "sources", not ${what === undefined ? "nothing" : `"${what}"`}`;
       csv = what;
     } else if (arg === "--no-faults") faults = false;
     else if (arg === "--study") study.study = true;
@@ -90,8 +91,7 @@ export function runCommandLine(argv: readonly string[], io: CommandLineIo): Exit
   if (!outcome.ok) return invalid(outcome.issues);
 
   const { network, result } = outcome;
-  if (args.csv === "buses") io.stdout(busesCsv(network, result));
-  else if (args.csv === "branches") io.stdout(branchesCsv(network, result));
+  if (args.csv) io.stdout(resultsCsv(args.csv, network, result));
   else io.stdout(`${JSON.stringify(result, null, 2)}\n`);
 
   if (result.loadFlow.converged) return 0;

@@ -1,7 +1,7 @@
 // Results as RFC 4180 CSV: comma-separated, CRLF line ends, fields with a comma, quote or line
 // break in double quotes with inner quotes doubled. Units are in the header names.
 import { roundForCsv } from "#solver/quantities.ts";
-import { branchColumns, branchRows, busColumns, busRows, faultColumns, faultRows, type BusRow, type FaultRow, type ResultColumn } from "#solver/resultTables.ts";
+import { branchColumns, branchRows, busColumns, busRows, faultColumns, faultRows, sourceColumns, sourceRows, type BusRow, type FaultRow, type ResultColumn } from "#solver/resultTables.ts";
 import type { SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
 
@@ -51,13 +51,30 @@ export function busesCsv(network: Network, result: SolveResult): string {
       return fault ? column.value(fault) : undefined;
     },
   });
-  return columnsCsv([c.id, c.name, c.nominalKV, c.vPu, c.vKV, c.angleDeg, ...[f.ik3kA, f.ik3MVA, f.ip3kA, f.ik1kA, f.rOverX, f.note].map(withFault)], rows);
+  return columnsCsv([c.id, c.name, c.nominalKV, c.vPu, c.vKV, c.angleDeg, ...[f.ik3kA, f.ik3MVA, f.ip3kA, f.ik1kA, f.rOverX, f.note, f.ik3MinKA, f.sk3MinMVA, f.ik1MinKA, f.minFaultMVA, f.ipMethod].map(withFault)], rows);
 }
 
 export function branchesCsv(network: Network, result: SolveResult): string {
   const c = branchColumns;
   return columnsCsv(
-    [c.id, c.name, c.kind, c.fromBus, c.toBus, c.pFromMW, c.qFromMvar, c.pToMW, c.qToMvar, c.lossKW, c.currentA, c.loadingPct, c.fromCurrentA, c.toCurrentA],
+    [c.id, c.name, c.kind, c.fromBus, c.toBus, c.pFromMW, c.qFromMvar, c.pToMW, c.qToMvar, c.lossKW, c.currentA, c.loadingPct, c.fromCurrentA, c.toCurrentA, c.tapPct, c.tapNote],
     branchRows(network, result),
   );
+}
+
+export function sourcesCsv(network: Network, result: SolveResult): string {
+  const c = sourceColumns;
+  return columnsCsv([c.id, c.name, c.busId, c.kind, c.control, c.pMW, c.qMvar, c.ratedMVA, c.scr], sourceRows(network, result));
+}
+
+/** The tables the results CSV offers. */
+export const CSV_TABLES = ["buses", "branches", "sources"] as const;
+export type CsvTable = (typeof CSV_TABLES)[number];
+
+export function isCsvTable(value: unknown): value is CsvTable {
+  return (CSV_TABLES as readonly unknown[]).includes(value);
+}
+
+export function resultsCsv(table: CsvTable, network: Network, result: SolveResult): string {
+  return table === "buses" ? busesCsv(network, result) : table === "branches" ? branchesCsv(network, result) : sourcesCsv(network, result);
 }

@@ -51,3 +51,17 @@ export function equipmentRules(net: Network, add: Add): void {
       add(["transformers", i, "tapPct"], `${who}: its starting tap ${t.tapPct} % lies outside its range ${t.tapMinPct} to ${t.tapMaxPct} %`);
   });
 }
+
+/** Whether a network uses any version 2 equipment field (converter plants, pf control, regulating taps, minimum fault levels). */
+export function usesVersion2Equipment(net: Pick<Network, "buses" | "sources" | "transformers">): boolean {
+  return (
+    (net.buses ?? []).some((b) => b.minFaultMVA !== undefined) ||
+    (net.sources ?? []).some((s) => s.kind === "converter" || s.control === "pf" || s.shortCircuitMinMVA !== undefined || s.faultCurrentPct !== undefined || s.powerFactor !== undefined) ||
+    (net.transformers ?? []).some((t) => t.tapControl !== undefined)
+  );
+}
+
+/** The network as version 2 when an edit has given it a version 2 field; otherwise unchanged. */
+export function withNeededVersion<T extends Pick<Network, "version" | "buses" | "sources" | "transformers">>(net: T): T {
+  return net.version < 2 && usesVersion2Equipment(net) ? { ...net, version: 2 } : net;
+}

@@ -20,7 +20,7 @@ export type {
   ValidationResult,
 } from "#solver/schema.ts";
 export type * from "#solver/results.ts";
-export { busesCsv, branchesCsv } from "#solver/csv.ts";
+export { busesCsv, branchesCsv, sourcesCsv, resultsCsv, type CsvTable } from "#solver/csv.ts";
 export { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/loadFlow/index.ts";
 
 export interface SolveOptions {

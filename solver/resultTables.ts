@@ -29,7 +29,24 @@ export interface FaultRow {
   rOverX: number;
   breakingKA: number | undefined;
   note: string;
+  /** IEC 60909-0 minimum case (c_min, weakest infeeds, conductors at end-of-fault temperature, no converters). */
+  ik3MinKA: number;
+  /** S″k3min = √3 · U_n · I″k3min. */
+  sk3MinMVA: number;
+  /** Null where the bus is unearthed, as for the maximum. */
+  ik1MinKA: number | null;
+  /** The minimum S″k3 the planner asks of the bus, where asked. */
+  minFaultMVA: number | undefined;
+  /** How i_p was found at this bus. */
+  ipMethod: "radial" | "branch-sum" | "equivalent-frequency";
 }
+
+/** How each bus's peak current was found, in words (IEC 60909-0 methods for κ). */
+export const IP_METHOD_WORDS: Record<FaultRow["ipMethod"], string> = {
+  radial: "κ from R/X (one radial path)",
+  "branch-sum": "sum of partial peaks by branch",
+  "equivalent-frequency": "method C (equivalent frequency)",
+};
 
 export type BranchKind = "transformer" | "overhead" | "cable";
 
@@ -58,16 +75,25 @@ export interface BranchRow {
   /** The larger of the two ends' currents. */
   currentA: number;
   loadingPct: number | null;
+  /** Transformers: the tap in use (after regulation where it regulates). */
+  tapPct: number | undefined;
+  /** Regulating transformers: whether it regulates, and whether the range ran out before the band. */
+  regulating: boolean;
+  tapLimited: boolean;
 }
 
 export interface SourceRow {
   id: string;
   name: string;
+  busId: string;
   busName: string;
   kind: "grid" | "generator" | "converter";
   control: "slack" | "pv" | "pq" | "pf";
   pMW: number;
   qMvar: number;
+  /** Converter plants: rated MVA and the short-circuit ratio at the plant's bus (S″k3min / rated MVA). */
+  ratedMVA: number | undefined;
+  scr: number | undefined;
 }
 
 export interface ResultColumn<Row> {
@@ -111,6 +137,11 @@ export function faultRows(network: Network, result: SolveResult): FaultRow[] {
       rOverX: f.rOverX,
       breakingKA: bus.breakingKA,
       note: f.note ?? "",
+      ik3MinKA: f.ik3MinKA,
+      sk3MinMVA: Math.sqrt(3) * bus.nominalKV * f.ik3MinKA,
+      ik1MinKA: unearthed ? null : f.ik1MinKA,
+      minFaultMVA: bus.minFaultMVA,
+      ipMethod: f.ipMethod,
     }];
   });
 }
@@ -124,6 +155,7 @@ export function endCurrentA(pMW: number, qMvar: number, vKV: number | undefined)
 /** Transformers first, then lines, each in file order, as the solver reports them. */
 export function branchRows(network: Network, result: SolveResult): BranchRow[] {
   const { busName, vKV } = lookups(network, result);
+  const regulating = new Set(network.transformers.filter((t) => t.tapControl).map((t) => t.id));
   const elements = new Map<string, { name: string; kind: BranchKind }>([
     ...network.transformers.map((t): [string, { name: string; kind: BranchKind }] => [t.id, { name: t.name, kind: "transformer" }]),
     ...network.lines.map((l): [string, { name: string; kind: BranchKind }] => [l.id, { name: l.name, kind: l.kind }]),
@@ -153,6 +185,9 @@ export function branchRows(network: Network, result: SolveResult): BranchRow[] {
       lossKW: b.lossKW,
       currentA: b.currentA,
       loadingPct: b.loadingPct,
+      tapPct: b.tapPct,
+      regulating: regulating.has(b.id),
+      tapLimited: b.tapLimited === true,
     };
   });
 }
@@ -160,10 +195,23 @@ export function branchRows(network: Network, result: SolveResult): BranchRow[] {
 export function sourceRows(network: Network, result: SolveResult): SourceRow[] {
   const { busName } = lookups(network, result);
   const readings = new Map(result.loadFlow.sources.map((s) => [s.id, s]));
+  const scr = new Map((result.faults?.converters ?? []).map((c) => [c.id, c.scr]));
   return network.sources.flatMap((s) => {
     const r = readings.get(s.id);
     if (!r) return [];
-    return [{ id: s.id, name: s.name, busName: busName(s.bus), kind: s.kind, control: s.control, pMW: r.pMW, qMvar: r.qMvar }];
+    const converter = s.kind === "converter";
+    return [{
+      id: s.id,
+      name: s.name,
+      busId: s.bus,
+      busName: busName(s.bus),
+      kind: s.kind,
+      control: s.control,
+      pMW: r.pMW,
+      qMvar: r.qMvar,
+      ratedMVA: converter ? s.ratedMVA : undefined,
+      scr: converter ? scr.get(s.id) : undefined,
+    }];
   });
 }
 
@@ -188,6 +236,11 @@ export const faultColumns = {
   rOverX: { key: "rOverX", header: "R/X", quantity: "ratio", value: (r) => r.rOverX, csv: "r_over_x" },
   breakingKA: { key: "breakingKA", header: "Breaking", quantity: "kA", value: (r) => r.breakingKA },
   note: { key: "note", header: "Note", value: (r) => r.note, csv: "fault_note" },
+  ik3MinKA: { key: "ik3MinKA", header: "I″k3 min", quantity: "kA", value: (r) => r.ik3MinKA, csv: "ik3min_kA" },
+  sk3MinMVA: { key: "sk3MinMVA", header: "S″k3 min", quantity: "MVA", value: (r) => r.sk3MinMVA, csv: "sk3min_MVA" },
+  ik1MinKA: { key: "ik1MinKA", header: "I″k1 min", quantity: "kA", value: (r) => r.ik1MinKA, csv: "ik1min_kA" },
+  minFaultMVA: { key: "minFaultMVA", header: "S″k3 min asked", quantity: "MVA", value: (r) => r.minFaultMVA, csv: "min_fault_asked_MVA" },
+  ipMethod: { key: "ipMethod", header: "ip method", value: (r) => IP_METHOD_WORDS[r.ipMethod], csv: "ip_method" },
 } satisfies Record<string, ResultColumn<FaultRow>>;
 
 export const branchColumns = {
@@ -210,16 +263,28 @@ export const branchColumns = {
   qSendMvar: { key: "qSendMvar", header: "Q", quantity: "Mvar", value: (r) => r.sending.qMvar },
   pReceiveMW: { key: "pReceiveMW", header: "P out", quantity: "MW", value: (r) => -r.receiving.pMW },
   qReceiveMvar: { key: "qReceiveMvar", header: "Q out", quantity: "Mvar", value: (r) => -r.receiving.qMvar },
+  tapPct: { key: "tapPct", header: "Tap", quantity: "pct", value: (r) => r.tapPct, csv: "tap_pct" },
+  tapNote: { key: "tapNote", header: "Tap changer", value: (r) => tapWords(r), csv: "tap_changer" },
 } satisfies Record<string, ResultColumn<BranchRow>>;
 
 export const sourceColumns = {
-  name: { key: "name", header: "Source", value: (r) => r.name },
+  id: { key: "id", header: "Id", value: (r) => r.id, csv: "source_id" },
+  name: { key: "name", header: "Source", value: (r) => r.name, csv: "source_name" },
   busName: { key: "busName", header: "Bus", value: (r) => r.busName },
-  kind: { key: "kind", header: "Kind", value: (r) => SOURCE_KIND_WORDS[r.kind] },
-  control: { key: "control", header: "Control", value: (r) => r.control },
-  pMW: { key: "pMW", header: "P", quantity: "MW", value: (r) => r.pMW },
-  qMvar: { key: "qMvar", header: "Q", quantity: "Mvar", value: (r) => r.qMvar },
+  busId: { key: "busId", header: "Bus id", value: (r) => r.busId, csv: "bus" },
+  kind: { key: "kind", header: "Kind", value: (r) => SOURCE_KIND_WORDS[r.kind], csv: "kind" },
+  control: { key: "control", header: "Control", value: (r) => r.control, csv: "control" },
+  pMW: { key: "pMW", header: "P", quantity: "MW", value: (r) => r.pMW, csv: "p_MW" },
+  qMvar: { key: "qMvar", header: "Q", quantity: "Mvar", value: (r) => r.qMvar, csv: "q_Mvar" },
+  ratedMVA: { key: "ratedMVA", header: "Rated", quantity: "MVA", value: (r) => r.ratedMVA, csv: "rated_MVA" },
+  scr: { key: "scr", header: "SCR", quantity: "ratio", value: (r) => r.scr, csv: "scr" },
 } satisfies Record<string, ResultColumn<SourceRow>>;
+
+/** A transformer's tap changer in words: "regulating", "range ran out", or nothing when the tap is fixed. */
+export function tapWords(row: BranchRow): string {
+  if (!row.regulating) return "";
+  return row.tapLimited ? "regulating; range ran out before the band" : "regulating";
+}
 
 /** "HV 90.2 A · LV 524 A" for a transformer, the one current for a line: a label per winding. */
 export function windingCurrents(row: BranchRow, text: (amps: number) => string): string {

@@ -34,6 +34,15 @@ export function upperLimitStatus(value: number | null | undefined, limit: number
   return "within";
 }
 
+/** A value with a lower limit only: the minimum fault level against what the planner asks of a bus. */
+export function lowerLimitStatus(value: number | null | undefined, limit: number | undefined, quantity: Quantity): LimitStatus | undefined {
+  if (value === null || value === undefined || limit === undefined) return undefined;
+  const shown = roundShownAgainst(value, [limit], quantity);
+  if (shown < limit) return "beyond";
+  if (shown <= limit * (1 + NEAR_LIMIT_FRACTION)) return "near";
+  return "within";
+}
+
 /**
  * The value as readingAgainstLimit shows it: at the quantity's precision, or finer where that
  * precision would make it equal to a limit it is not equal to.

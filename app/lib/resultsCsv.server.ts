@@ -4,6 +4,7 @@ import type { Db } from "#db/database.ts";
 import type { NetworkRow } from "#db/schema.ts";
 import { computeRefusal, revisionCsv } from "./compute/results.server.ts";
 import { downloadFileStem } from "./downloadName.ts";
+import { isCsvTable } from "#solver/csv.ts";
 import type { Actor } from "./permissions.server.ts";
 
 function plainText(sentence: string, status: number): Response {
@@ -12,8 +13,8 @@ function plainText(sentence: string, status: number): Response {
 
 /** `table` is the request's `?table=` value, checked here so that every caller answers alike. */
 export async function resultsCsvResponse(db: Db, network: NetworkRow, table: string | null, actor: Actor): Promise<Response> {
-  if (table !== "buses" && table !== "branches") {
-    return plainText("Name the table: ?table=buses or ?table=branches.", 400);
+  if (!isCsvTable(table)) {
+    return plainText("Name the table: ?table=buses, ?table=branches or ?table=sources.", 400);
   }
   const solved = await revisionCsv(db, network, table, actor).catch((failure) => computeRefusal(failure, "text"));
   if (!solved.ok) {

@@ -5,7 +5,8 @@ import { StatusText } from "#app/components/StatusText.tsx";
 import { DataTable, type Column } from "#app/components/DataTable.tsx";
 import { checkLine } from "#app/lib/checkText.ts";
 import { fixed, readingAgainstLimit, readingNumber, readingText } from "#app/lib/format.ts";
-import { statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
+import { lowerLimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
+import { WEAK_GRID_SCR } from "#solver/faults/breakingChecks.ts";
 import { QUANTITY_UNIT } from "#solver/quantities.ts";
 import {
   BRANCH_KIND_WORDS,
@@ -15,11 +16,15 @@ import {
   busRows,
   faultColumns,
   faultRows,
+  sourceColumns,
+  sourceRows,
+  tapWords,
   windingCurrents,
   type BranchRow,
   type BusRow,
   type FaultRow,
   type ResultColumn,
+  type SourceRow,
 } from "#solver/resultTables.ts";
 import type { SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
@@ -150,11 +155,96 @@ export function FaultTable({ network, result }: { network: Network; result: Solv
   );
 }
 
+/** The minimum case by IEC 60909-0 at every bus, against the minimum the planner asks where asked, and how i_p was found. */
+export function MinimumFaultTable({ network, result }: { network: Network; result: SolveResult }) {
+  const c = faultColumns;
+  return (
+    <Scroll label="Minimum short-circuit currents">
+      <DataTable<FaultRow>
+        className={REPORT_TABLE}
+        caption={
+          <>
+            Minimum short-circuit currents by IEC 60909-0 (c<sub>min</sub> 1.00 above 1 kV, 0.95 at or below; the weakest infeeds; lines and
+            cables at 80 °C; no converter plants), and the method each bus's i<sub>p</sub> used
+          </>
+        }
+        columns={[
+          {
+            header: "Bus",
+            cell: (r) => (
+              <>
+                {r.name}
+                <span className="ks-cell-note">{readingText(r.nominalKV, "kV")}</span>
+              </>
+            ),
+          },
+          shared(c.sk3MinMVA, (r) => readingAgainstLimit(r.sk3MinMVA, [r.minFaultMVA], "MVA")),
+          { header: "Status", cell: (r) => <StatusText status={lowerLimitStatus(r.sk3MinMVA, r.minFaultMVA, "MVA")} none="no minimum asked" /> },
+          shared(c.minFaultMVA),
+          shared(c.ik3MinKA),
+          shared(c.ik1MinKA, (r) => (r.ik1MinKA === null ? "unearthed" : readingNumber(r.ik1MinKA, "kA"))),
+          shared(c.ipMethod),
+        ]}
+        rows={faultRows(network, result)}
+        rowKey={(r) => r.id}
+      />
+    </Scroll>
+  );
+}
+
+/** Converter plants (output and short-circuit ratio) and regulating transformers (the tap chosen); nothing when the network has neither. */
+export function EquipmentTables({ network, result }: { network: Network; result: SolveResult }) {
+  const converters = sourceRows(network, result).filter((r) => r.kind === "converter");
+  const taps = branchRows(network, result).filter((r) => r.regulating);
+  const s = sourceColumns;
+  const b = branchColumns;
+  return (
+    <>
+      {converters.length > 0 ? (
+        <Scroll label="Converter plants">
+          <DataTable<SourceRow>
+            className={REPORT_TABLE}
+            caption={`Converter plants: output, and the short-circuit ratio S″k3 min / rated MVA at the plant's bus (below ${WEAK_GRID_SCR} counts as weak)`}
+            columns={[
+              shared(s.name),
+              shared(s.busName),
+              shared(s.control),
+              shared(s.pMW),
+              shared(s.qMvar),
+              shared(s.ratedMVA),
+              shared(s.scr, (r) => readingAgainstLimit(r.scr ?? null, [WEAK_GRID_SCR], "ratio")),
+              { header: "Status", cell: (r) => <StatusText status={lowerLimitStatus(r.scr, WEAK_GRID_SCR, "ratio")} /> },
+            ]}
+            rows={converters}
+            rowKey={(r) => r.id}
+          />
+        </Scroll>
+      ) : null}
+      {taps.length > 0 ? (
+        <Scroll label="Regulating transformers">
+          <DataTable<BranchRow>
+            className={REPORT_TABLE}
+            caption="Regulating transformers: the tap the on-load tap changer settled on"
+            columns={[
+              shared(b.name),
+              shared(b.tapPct),
+              { header: "Tap changer", cell: (r) => tapWords(r) },
+              { header: "Status", cell: (r) => <StatusText status={r.tapLimited ? "beyond" : "within"} /> },
+            ]}
+            rows={taps}
+            rowKey={(r) => r.id}
+          />
+        </Scroll>
+      ) : null}
+    </>
+  );
+}
+
 export function CheckList({ network, result }: { network: Network; result: SolveResult }) {
   if (result.checks.length === 0)
     return (
       <p className="ks-status ks-status-within">
-        <span aria-hidden="true">{statusCue.within.icon}</span> Every voltage, loading and breaking current is within its limit.
+        <span aria-hidden="true">{statusCue.within.icon}</span> Every voltage, loading, breaking current, minimum fault level and short-circuit ratio is within its limit.
       </p>
     );
   return (

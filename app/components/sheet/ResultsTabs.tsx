@@ -10,9 +10,10 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import type { Network } from "#solver/schema.ts";
+import type { CsvTable } from "#solver/csv.ts";
 import { StatusText } from "#app/components/StatusText.tsx";
 import { fixed, readingAgainstLimit, readingNumber } from "#app/lib/format.ts";
-import { statusSeverity, upperLimitStatus, voltageStatus, type LimitStatus } from "#app/lib/limitStatus.ts";
+import { lowerLimitStatus, statusSeverity, upperLimitStatus, voltageStatus, worstStatus, type LimitStatus } from "#app/lib/limitStatus.ts";
 import { QUANTITY_UNIT } from "#solver/quantities.ts";
 import {
   BRANCH_KIND_WORDS,
@@ -162,6 +163,8 @@ const branchTable: ColumnDef<BranchRow>[] = [
   shared(branch.pReceiveMW),
   shared(branch.qReceiveMvar),
   { id: "kind", accessorFn: (r) => BRANCH_KIND_WORDS[r.kind], header: "Kind" },
+  shared(branch.tapPct),
+  shared(branch.tapNote),
 ];
 
 const source = sourceColumns;
@@ -172,10 +175,13 @@ const sourceTable: ColumnDef<SourceRow>[] = [
   shared(source.busName),
   shared(source.kind),
   shared(source.control),
+  shared(source.scr),
+  shared(source.ratedMVA),
 ];
 
 const fault = faultColumns;
-const faultStatus = (r: FaultRow) => upperLimitStatus(Math.max(r.ik3kA, r.ik1kA ?? 0), r.breakingKA, "kA");
+const faultStatus = (r: FaultRow) =>
+  worstStatus([upperLimitStatus(Math.max(r.ik3kA, r.ik1kA ?? 0), r.breakingKA, "kA"), lowerLimitStatus(r.sk3MinMVA, r.minFaultMVA, "MVA")]);
 const againstBreaking = (kA: number | null, r: FaultRow) => (kA === null ? "unearthed" : readingAgainstLimit(kA, [r.breakingKA], "kA"));
 const faultTable: ColumnDef<FaultRow>[] = [
   named({ key: "name", header: "Bus", value: (r) => r.name }),
@@ -185,7 +191,12 @@ const faultTable: ColumnDef<FaultRow>[] = [
   shared(fault.breakingKA),
   shared(fault.ik3MVA),
   shared(fault.ip3kA),
+  shared(fault.sk3MinMVA, (r) => readingAgainstLimit(r.sk3MinMVA, [r.minFaultMVA], "MVA")),
+  shared(fault.minFaultMVA),
+  shared(fault.ik3MinKA),
+  shared(fault.ik1MinKA, (r) => (r.ik1MinKA === null ? "unearthed" : readingNumber(r.ik1MinKA, "kA"))),
   shared(fault.rOverX),
+  shared(fault.ipMethod),
   shared({ key: "nominalKV", header: "Nominal", quantity: "kV", value: (r) => r.nominalKV }),
   shared(fault.note),
 ];
@@ -205,7 +216,7 @@ const tabs: { id: TabId; label: string }[] = [
   { id: "profile", label: "Voltage profile" },
 ];
 
-function CsvLink({ table, csvBase, revision }: { table: "buses" | "branches"; csvBase: string | null; revision: number }) {
+function CsvLink({ table, csvBase, revision }: { table: CsvTable; csvBase: string | null; revision: number }) {
   if (csvBase === null) return null;
   return (
     <a className="btn btn-small" href={`${csvBase}/results.csv?table=${table}`} download>
@@ -283,7 +294,15 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
       </>
     );
   } else if (active === "sources") {
-    panel = <ResultsTable caption="Source outputs" data={rows.sources} columns={sourceTable} />;
+    panel = (
+      <>
+        <ResultsTable caption="Source outputs" data={rows.sources} columns={sourceTable} />
+        <div className="ks-results-foot">
+          <CsvLink table="sources" csvBase={csvFrom} revision={savedRevision} />
+          <p className="ks-muted">SCR: a converter plant's short-circuit ratio, S″k3 min at its bus over its rated MVA (below 3 counts as weak).</p>
+        </div>
+      </>
+    );
   } else if (active === "totals") {
     const totals = readings.result.loadFlow.totals;
     panel = (
@@ -302,8 +321,9 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
       <>
         <ResultsTable caption="Fault levels by IEC 60909-0" data={rows.faults} columns={faultTable} />
         <p className="ks-muted ks-results-foot">
-          IEC 60909-0 equivalent voltage source at each bus, c max; the status compares the larger of I″k3 and I″k1 with the
-          switchgear breaking current.
+          IEC 60909-0 equivalent voltage source at each bus: I″k3, I″k1 and ip with c max (converter plants as current
+          sources), the minimum case with c min, the weakest infeeds, conductors at 80 °C and no converters. The status compares
+          the larger of I″k3 and I″k1 with the switchgear breaking current, and S″k3 min with the minimum asked of the bus.
         </p>
       </>
     ) : (

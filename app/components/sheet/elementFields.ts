@@ -47,6 +47,7 @@ export function fieldsFor(kind: ElementKind, element: AnyElement): FieldDef[] {
         quantity("vMinPu"),
         quantity("vMaxPu"),
         quantity("breakingKA", { optional: true }),
+        quantity("minFaultMVA", { optional: true, hint: "a grid-connection requirement; checked against the IEC 60909-0 minimum case" }),
       ];
     case "source":
       return sourceFields(element as Source);
@@ -128,6 +129,7 @@ function sourceFields(source: Source): FieldDef[] {
       choices: [
         { value: "grid", label: "Grid infeed" },
         { value: "generator", label: "Generator" },
+        { value: "converter", label: "Converter plant (solar, wind, battery)" },
       ],
     },
     {
@@ -138,13 +140,15 @@ function sourceFields(source: Source): FieldDef[] {
         { value: "slack", label: "Slack: holds voltage and angle" },
         { value: "pv", label: "PV: holds P and voltage" },
         { value: "pq", label: "PQ: fixed P and Q" },
+        ...(source.kind === "converter" ? [{ value: "pf", label: "PF: P at a set power factor" }] : []),
       ],
     },
   ];
-  if (source.control !== "pq") fields.push(quantity("voltagePu"));
+  if (source.control !== "pq" && source.control !== "pf") fields.push(quantity("voltagePu"));
   if (source.control === "slack") fields.push(quantity("angleDeg"));
   if (source.control !== "slack") fields.push(quantity("pMW"));
   if (source.control === "pq") fields.push(quantity("qMvar"));
+  if (source.control === "pf") fields.push(quantity("powerFactor"));
   if (source.control === "pv")
     fields.push(
       quantity("qMinMvar", { optional: true }),
@@ -153,9 +157,12 @@ function sourceFields(source: Source): FieldDef[] {
   if (source.kind === "grid")
     fields.push(
       quantity("shortCircuitMVA"),
+      quantity("shortCircuitMinMVA", { optional: true, hint: "for minimum fault levels; the maximum when empty" }),
       quantity("xOverR", { optional: true }),
       quantity("z0OverZ1", { optional: true }),
     );
+  else if (source.kind === "converter")
+    fields.push(quantity("ratedMVA"), quantity("faultCurrentPct", { hint: "the maker's stated maximum (IEC 60909-0:2016 full-converter unit)" }));
   else
     fields.push(
       quantity("ratedMVA"),

@@ -7,7 +7,8 @@ import type { SheetNode, Side, TerminalId } from "./flowModel.ts";
 import { flowArrow } from "./readingFormat.ts";
 import { readingAgainstLimit, readingNumber } from "#app/lib/format.ts";
 import { UNEARTHED_NOTE } from "#solver/faults/index.ts";
-import { type LimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
+import { type LimitStatus, lowerLimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
+import { WEAK_GRID_SCR } from "#solver/faults/breakingChecks.ts";
 import { useSheet } from "./sheetStore.ts";
 import {
   CapacitorSymbol,
@@ -74,6 +75,8 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
   const vStatus = reading ? voltageStatus(reading.vPu, bus.vMinPu, bus.vMaxPu) : undefined;
   const faultStatus = fault ? upperLimitStatus(Math.max(fault.ik3kA, fault.ik1kA), bus.breakingKA, "kA") : undefined;
   const unearthed = fault?.note === UNEARTHED_NOTE;
+  const sk3MinMVA = fault ? Math.sqrt(3) * bus.nominalKV * fault.ik3MinKA : undefined;
+  const minimumStatus = lowerLimitStatus(sk3MinMVA, bus.minFaultMVA, "MVA");
   return (
     <div className="ks-node ks-bus" style={{ width: data.width, height: data.height }}>
       <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
@@ -105,6 +108,12 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
               <div className={`ks-fault ${faultStatus ? statusCue[faultStatus].className : ""}`}>
                 I″k3 {readingAgainstLimit(fault.ik3kA, [bus.breakingKA], "kA")} kA · I″k1 {unearthed ? "unearthed" : `${readingAgainstLimit(fault.ik1kA, [bus.breakingKA], "kA")} kA`}{" "}
                 <StatusMark status={faultStatus} />
+              </div>
+            ) : null}
+            {fault && sk3MinMVA !== undefined ? (
+              <div className={`ks-fault ${minimumStatus ? statusCue[minimumStatus].className : ""}`}>
+                S″k3 min {readingAgainstLimit(sk3MinMVA, [bus.minFaultMVA], "MVA")} MVA{bus.minFaultMVA !== undefined ? ` (asked ${readingNumber(bus.minFaultMVA, "MVA")})` : ""}{" "}
+                <StatusMark status={minimumStatus} />
               </div>
             ) : null}
           </ReadingBlock>
@@ -165,6 +174,14 @@ function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
       <Terminal id="hv" side={hvSide} readOnly={readOnly} />
       <Terminal id="lv" side={data.sides.lv ?? "right"} readOnly={readOnly} />
       <BranchReadings id={id} fromSide={hvSide} reversed={branch ? branch.fromBus !== t.hvBus : false} ratedLoading />
+      {t.tapControl && branch?.tapPct !== undefined ? (
+        <ReadingBlock>
+          <div className={branch.tapLimited ? statusCue.beyond.className : undefined}>
+            regulating: tap {branch.tapPct > 0 ? "+" : ""}
+            {readingNumber(branch.tapPct, "pct")} %{branch.tapLimited ? " · range ran out" : ""} <StatusMark status={branch.tapLimited ? "beyond" : undefined} />
+          </div>
+        </ReadingBlock>
+      ) : null}
     </div>
   );
 }
@@ -201,6 +218,7 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "right";
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.sources.get(id) : undefined));
+  const scr = useSheet((s) => (s.solve.kind === "solved" && s.showFaults ? s.solve.readings.result.faults?.converters.find((c) => c.id === id)?.scr : undefined));
   const Symbol = source.kind === "grid" ? GridInfeedSymbol : source.kind === "converter" ? ConverterSymbol : GeneratorSymbol;
   return (
     <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
@@ -215,6 +233,11 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
           <div>
             {readingNumber(reading.pMW, "MW")} MW · {readingNumber(reading.qMvar, "Mvar")} Mvar
           </div>
+          {scr !== undefined ? (
+            <div className={scr < WEAK_GRID_SCR ? statusCue.beyond.className : undefined}>
+              SCR {readingAgainstLimit(scr, [WEAK_GRID_SCR], "ratio")} <StatusMark status={scr < WEAK_GRID_SCR ? "beyond" : undefined} />
+            </div>
+          ) : null}
         </ReadingBlock>
       ) : null}
     </div>

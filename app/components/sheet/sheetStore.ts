@@ -3,6 +3,7 @@
 // between two editors on one page). The network document is the source of truth; the xyflow
 // nodes and edges are derived from it. zundo records the document and the layout, so every edit
 // is one undo step; a drag is held aside while it lasts and committed in one step at the end.
+import { withNeededVersion } from "#solver/equipmentRules.ts";
 import { createContext, useContext } from "react";
 import { createStore, useStore, type StoreApi } from "zustand";
 import { temporal, type TemporalState } from "zundo";
@@ -147,7 +148,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
           updateElement: (id, element) => {
             const entry = indexElements(get().document).get(id);
             if (!entry) return;
-            apply({ document: replaceElement(get().document, entry, element), layout: get().layout });
+            apply({ document: withNeededVersion(replaceElement(get().document, entry, element)), layout: get().layout });
           },
           updateNetwork: (fields) => apply({ document: { ...get().document, ...fields }, layout: get().layout }),
           deleteSelection: () => {

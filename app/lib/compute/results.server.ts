@@ -5,6 +5,7 @@
 import { data } from "react-router";
 import type { NetworkRow } from "#db/schema.ts";
 import type { LadderOutcome } from "#solver/ladder.ts";
+import type { CsvTable } from "#solver/csv.ts";
 import type { Db } from "../db.server.ts";
 import { currentDocumentText } from "../networks.server.ts";
 import { trustRevision } from "./trustedRevisions.server.ts";
@@ -122,7 +123,7 @@ export function solvedRevisionJson(db: Db, network: NetworkRow, actor: Actor): P
 }
 
 /** The current revision's bus or branch results as CSV, or { ok: false } when it does not solve. */
-export function revisionCsv(db: Db, network: NetworkRow, table: "buses" | "branches", actor: Actor): Promise<CsvOutcome> {
+export function revisionCsv(db: Db, network: NetworkRow, table: CsvTable, actor: Actor): Promise<CsvOutcome> {
   return once(
     revisionKey("csv", network, table),
     payerOf(actor),

@@ -2,7 +2,7 @@
 // (worker.ts) so the thread that answers requests only reads, writes and sends. Each takes the
 // stored document and answers something a structured clone carries back (no functions, no classes).
 import { layoutSingleLine, type SingleLineLayout } from "#app/components/report/singleLineLayout.ts";
-import { branchesCsv, busesCsv } from "#solver/csv.ts";
+import { resultsCsv, type CsvTable } from "#solver/csv.ts";
 import { solveNetwork, solveValidated, type SolveOutcome } from "#solver/index.ts";
 import type { MessagePort } from "node:worker_threads";
 import type { JobProgress } from "./jobView.ts";
@@ -32,7 +32,7 @@ export type ComputeTask = TaskInput &
     | { kind: "solve" }
     | { kind: "solve-json" }
     | { kind: "ladder-json"; request: unknown }
-    | { kind: "csv"; table: "buses" | "branches" }
+    | { kind: "csv"; table: CsvTable }
     | { kind: "ladder"; request: unknown }
     | { kind: "report"; study: unknown | null }
     | { kind: "study"; request: unknown }
@@ -100,10 +100,10 @@ export function solveTask(document: unknown, trusted = false): SolveOutcome {
   return trusted ? solveValidated(document as Network) : solveNetwork(document);
 }
 
-export function csvTask(document: unknown, table: "buses" | "branches", trusted = false): CsvOutcome {
+export function csvTask(document: unknown, table: CsvTable, trusted = false): CsvOutcome {
   const solved = solveTask(document, trusted);
   if (!solved.ok) return { ok: false };
-  return { ok: true, csv: table === "buses" ? busesCsv(solved.network, solved.result) : branchesCsv(solved.network, solved.result) };
+  return { ok: true, csv: resultsCsv(table, solved.network, solved.result) };
 }
 
 export function ladderTask(document: unknown, request: unknown, onProgress?: (step: LadderProgress) => void): LadderOutcome {

@@ -7,7 +7,7 @@ import { LossPlot } from "#app/components/ladder/LossPlot.tsx";
 import { MoneySummary, UnitCostNote } from "#app/components/ladder/MoneyInputs.tsx";
 import { defaultProfileEnd, ProfilePlot } from "#app/components/ladder/ProfilePlot.tsx";
 import { InputTables } from "#app/components/report/InputTables.tsx";
-import { BranchTable, BusTable, CheckList, FaultTable } from "#app/components/report/ResultTables.tsx";
+import { BranchTable, BusTable, CheckList, EquipmentTables, FaultTable, MinimumFaultTable } from "#app/components/report/ResultTables.tsx";
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
 import { StudyInputs } from "#app/components/report/StudyInputs.tsx";
 import { Notice } from "#app/components/Notice.tsx";
@@ -144,6 +144,7 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
                 </p>
                 <BusTable network={solved.network} result={solved.result} />
                 <BranchTable network={solved.network} result={solved.result} />
+                <EquipmentTables network={solved.network} result={solved.result} />
               </>
             ) : (
               <Notice tone="error">{solved.result.loadFlow.message ?? "The load flow did not converge."}</Notice>
@@ -153,6 +154,7 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
           <section className="ks-report-part" aria-labelledby="report-faults">
             <h2 id="report-faults">3. Fault levels</h2>
             <FaultTable network={solved.network} result={solved.result} />
+            <MinimumFaultTable network={solved.network} result={solved.result} />
           </section>
 
           <section className="ks-report-part" aria-labelledby="report-checks">

@@ -83,7 +83,7 @@ describe("npm run solve", () => {
     expect(buses.status).toBe(0);
     expect(buses.stdout.split("\r\n")[0]).toMatch(/^bus_id,bus_name,nominal_kV,voltage_pu,voltage_kV,angle_deg/);
     const branches = run([join(FIXTURE_DIR, "zip-mirewater.json"), "--csv", "branches", "--no-faults"]);
-    expect(branches.stdout.split("\r\n")[0]).toBe("branch_id,branch_name,kind,from_bus,to_bus,p_from_MW,q_from_Mvar,p_to_MW,q_to_Mvar,loss_kW,current_A,loading_pct,current_from_A,current_to_A");
+    expect(branches.stdout.split("\r\n")[0]).toBe("branch_id,branch_name,kind,from_bus,to_bus,p_from_MW,q_from_Mvar,p_to_MW,q_to_Mvar,loss_kW,current_A,loading_pct,current_from_A,current_to_A,tap_pct,tap_changer");
     expect(branches.stdout.split("\r\n").filter(Boolean)).toHaveLength(5);
     const wrong = run([join(FIXTURE_DIR, "zip-mirewater.json"), "--csv", "loads"]);
     expect(wrong.status).toBe(2);

@@ -1,6 +1,6 @@
 // RFC 4180 output: quoting, CRLF line ends, units in the header.
 import { describe, expect, it } from "vitest";
-import { branchesCsv, busesCsv, csvField, toCsv } from "#solver/csv.ts";
+import { branchesCsv, busesCsv, csvField, sourcesCsv, toCsv } from "#solver/csv.ts";
 import { solveNetwork } from "#solver/index.ts";
 import type { NetworkInput } from "#solver/schema.ts";
 import { fixture } from "./fixtures.ts";
@@ -63,7 +63,7 @@ describe("result tables", () => {
 
   it("buses: one row per bus with units in the header, values as solved", () => {
     const rows = parseCsv(busesCsv(network, result));
-    expect(rows[0]).toEqual(["bus_id", "bus_name", "nominal_kV", "voltage_pu", "voltage_kV", "angle_deg", "ik3_kA", "sk3_MVA", "ip3_kA", "ik1_kA", "r_over_x", "fault_note"]);
+    expect(rows[0]).toEqual(["bus_id", "bus_name", "nominal_kV", "voltage_pu", "voltage_kV", "angle_deg", "ik3_kA", "sk3_MVA", "ip3_kA", "ik1_kA", "r_over_x", "fault_note", "ik3min_kA", "sk3min_MVA", "ik1min_kA", "min_fault_asked_MVA", "ip_method"]);
     expect(rows).toHaveLength(network.buses.length + 1);
     expect(rows[3][1]).toBe('Ling Cross, "north" 33 kV');
     // Six significant figures (the CSV's precision): within half a unit of the sixth figure.
@@ -78,7 +78,7 @@ describe("result tables", () => {
 
   it("branches: one row per line and transformer with MW, Mvar, kW, A and % in the header", () => {
     const rows = parseCsv(branchesCsv(network, result));
-    expect(rows[0]).toEqual(["branch_id", "branch_name", "kind", "from_bus", "to_bus", "p_from_MW", "q_from_Mvar", "p_to_MW", "q_to_Mvar", "loss_kW", "current_A", "loading_pct", "current_from_A", "current_to_A"]);
+    expect(rows[0]).toEqual(["branch_id", "branch_name", "kind", "from_bus", "to_bus", "p_from_MW", "q_from_Mvar", "p_to_MW", "q_to_Mvar", "loss_kW", "current_A", "loading_pct", "current_from_A", "current_to_A", "tap_pct", "tap_changer"]);
     expect(rows).toHaveLength(network.lines.length + network.transformers.length + 1);
     const transformerRow = rows.find((r) => r[0] === "t-wold")!;
     expect(transformerRow[2]).toBe("transformer");
@@ -106,5 +106,49 @@ describe("result tables", () => {
     expect(Number(row[header.indexOf("current_to_A")])).toBeCloseTo(lv, 2);
     // The larger of the two is the solver's own branch current.
     expect(Math.max(hv, lv)).toBeCloseTo(reading.currentA, 1);
+  });
+});
+
+describe("version 2 readings in the CSV: minimum fault levels, regulating taps and converter plants", () => {
+  const solar = solveNetwork(fixture("hollin-moor-solar.json").document);
+  const tarn = solveNetwork(fixture("tarn-head-calder-flats.json").document);
+  if (!solar.ok || !tarn.ok) throw new Error("demo invalid");
+  const table = (text: string) => {
+    const [header, ...rows] = parseCsv(text);
+    return rows.map((r) => Object.fromEntries(header.map((h, i) => [h, r[i]])));
+  };
+
+  it("gives S″k3min = √3 · U_n · I″k3min at every bus (the three-phase power formula) and names the peak method", () => {
+    const buses = table(busesCsv(solar.network, solar.result));
+    for (const row of buses) {
+      const un = Number(row.nominal_kV);
+      expect(Number(row.sk3min_MVA)).toBeCloseTo(Math.sqrt(3) * un * Number(row.ik3min_kA), 0);
+      // The minimum case (c_min, weakest infeed, hot conductors, no converters) is below the maximum.
+      expect(Number(row.ik3min_kA)).toBeLessThan(Number(row.ik3_kA));
+      expect(row.ip_method).not.toBe("");
+    }
+  });
+
+  it("gives each converter plant's output and its short-circuit ratio S″k3min / rated MVA (its definition), the grid infeed none", () => {
+    const sources = table(sourcesCsv(solar.network, solar.result));
+    const plant = sources.find((r) => r.kind === "converter plant")!;
+    const drawn = solar.network.sources.find((s) => s.id === plant.source_id)!;
+    const bus = table(busesCsv(solar.network, solar.result)).find((r) => r.bus_id === plant.bus)!;
+    expect(Number(plant.scr)).toBeCloseTo(Number(bus.sk3min_MVA) / drawn.ratedMVA!, 2);
+    expect(Number(plant.p_MW)).toBeCloseTo(solar.result.loadFlow.sources.find((s) => s.id === drawn.id)!.pMW, 4);
+    expect(sources.find((r) => r.kind === "grid infeed")!.scr).toBe("");
+  });
+
+  it("gives the regulating tap's position and says it regulates; a fixed tap reads as drawn with no word", () => {
+    const branches = table(branchesCsv(tarn.network, tarn.result));
+    const regulating = tarn.network.transformers.find((t) => t.tapControl)!;
+    const row = branches.find((r) => r.branch_id === regulating.id)!;
+    expect(row.tap_changer).toMatch(/^regulating/);
+    expect(Number(row.tap_pct)).toBe(tarn.result.loadFlow.branches.find((b) => b.id === regulating.id)!.tapPct);
+    const fixedTap = tarn.network.transformers.find((t) => !t.tapControl)!;
+    const fixedRow = branches.find((r) => r.branch_id === fixedTap.id)!;
+    expect(fixedRow.tap_changer).toBe("");
+    expect(Number(fixedRow.tap_pct)).toBe(fixedTap.tapPct);
+    expect(branches.find((r) => r.kind === "line")!.tap_pct).toBe("");
   });
 });

@@ -56,9 +56,9 @@ describe("GET /api/networks/:id/results.csv", () => {
   });
 
   it("names the table when it is missing or unknown", async () => {
-    const answer = await download("sources", cookies.viewer);
+    const answer = await download("loads", cookies.viewer);
     expect(answer.status).toBe(400);
-    expect(answer.body).toMatch(/table=buses or \?table=branches/);
+    expect(answer.body).toMatch(/table=buses, \?table=branches or \?table=sources/);
   });
 
   it("refuses someone outside the team and someone not signed in", async () => {
