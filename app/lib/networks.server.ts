@@ -59,6 +59,18 @@ export async function currentDocument(db: Db, network: NetworkRow) {
 }
 
 /**
+ * The stored revision's document as the network file's checks see it: a revision this process has
+ * validated (on save, or before) is trusted as stored, with no second validation on each page
+ * view; any other is validated now and trusted once it passes.
+ */
+export function checkedRevision(network: NetworkRow, document: unknown): ReturnType<typeof validateNetwork> {
+  if (isTrustedRevision(network.id, network.current_revision)) return { ok: true, network: document as Network };
+  const checked = validateNetwork(document);
+  if (checked.ok) trustRevision(network.id, network.current_revision);
+  return checked;
+}
+
+/**
  * The current revision as stored: its JSON text, unparsed, its bus count (read from the text; only
  * a bus has "nominalKV"), and whether this process has validated it with the current validator
  * (on save, or on a first solve), so the compute pool may trust it and skip the validation.

@@ -36,11 +36,10 @@ import { refusedRequestSentence } from "#app/lib/api.server.ts";
 import { savedLadderStudy, startLadderJob, type LadderJobResult } from "#app/lib/ladder.server.ts";
 import { JobStatus } from "#app/components/jobs/JobStatus.tsx";
 import { useJob } from "#app/components/jobs/useJob.ts";
-import { currentDocument } from "#app/lib/networks.server.ts";
+import { currentDocument, checkedRevision } from "#app/lib/networks.server.ts";
 import { networkAccess, roleAllows } from "#app/lib/permissions.server.ts";
 import { candidateVoltagesKV } from "#solver/iec60038.ts";
 import { checkLadderRequest, findSection, type Ladder } from "#solver/ladder.ts";
-import { validateNetwork } from "#solver/schema.ts";
 import "#app/components/report/drawing.css";
 import "#app/components/ladder/ladder.css";
 
@@ -49,7 +48,7 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: `Voltage ladder 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { db, network, role, actor } = await requireNetwork(request, params, "view");
   const [revision, saved] = await Promise.all([currentDocument(db, network), savedLadderStudy(db, network.id)]);
-  const checked = validateNetwork(revision.document);
+  const checked = checkedRevision(network, revision.document);
   // The saved study is run again on the current revision, so what the page shows is never stale.
   const savedRun =
     saved.study && checked.ok

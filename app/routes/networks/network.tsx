@@ -7,10 +7,9 @@ import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireNetwork } from "#app/lib/access.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { teamEquipmentTypes } from "#app/lib/library.server.ts";
-import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
+import { currentDocument, teamNameOf, checkedRevision } from "#app/lib/networks.server.ts";
 import { roleAllows } from "#app/lib/permissions.server.ts";
 import { reviewNotesFor } from "#app/lib/reviewNotes.server.ts";
-import { validateNetwork } from "#solver/schema.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.name ?? "Network"} · Kilostep` }];
 
@@ -22,7 +21,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     reviewNotesFor(db, network.id, { userId: user.id, canView: true, canEdit: roleAllows(role, "edit") }),
   ]);
   const library = await teamEquipmentTypes(db, { id: network.team_id, name: teamName });
-  const checked = validateNetwork(revision.document);
+  const checked = checkedRevision(network, revision.document);
   return {
     id: network.id,
     name: network.name,

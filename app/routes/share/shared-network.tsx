@@ -11,12 +11,11 @@ import { SheetEditor } from "#app/components/sheet/SheetEditor.tsx";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { closedLinkAnswer } from "#app/lib/networkReader.server.ts";
-import { currentDocument } from "#app/lib/networks.server.ts";
+import { currentDocument, checkedRevision } from "#app/lib/networks.server.ts";
 import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
 import { reviewNotesFor } from "#app/lib/reviewNotes.server.ts";
 import { getSessionUser } from "#app/lib/session.server.ts";
 import { grantFromLink, noteShareLinkUse, openShareLink, shareLinkActor } from "#app/lib/shareLinks.server.ts";
-import { validateNetwork } from "#solver/schema.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data?.kind === "view" ? `${data.name} (shared) · Kilostep` : "Share link · Kilostep" },
@@ -48,7 +47,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     currentDocument(db, network),
     reviewNotesFor(db, network.id, { userId: null, canView: true, canEdit: false, guestLinkId: link.id }),
   ]);
-  const checked = validateNetwork(revision.document);
+  const checked = checkedRevision(network, revision.document);
   return {
     kind: "view" as const,
     here,

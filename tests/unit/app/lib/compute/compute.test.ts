@@ -101,5 +101,10 @@ describe("stored revisions, validated once", () => {
     expect(answer.ok).toBe(false);
     expect(!answer.ok && answer.issues[0].path).toBe("buses[3].nominalKV");
     expect((await currentDocumentText(db, network)).trusted).toBe(false);
+    // The pages (sheet, ladder, shared view) read it through the same rule.
+    const { checkedRevision } = await import("#app/lib/networks.server.ts");
+    const pageView = checkedRevision(network, broken);
+    expect(!pageView.ok && pageView.issues[0].path).toBe("buses[3].nominalKV");
+    expect(checkedRevision(created.network, created.document)).toEqual({ ok: true, network: created.document });
   }, 60_000);
 });
