@@ -7,6 +7,7 @@ import { documentIssues, type SheetIssue } from "./documentIssues.ts";
 import { checkField, fieldsFor, type FieldDef } from "./elementFields.ts";
 import { applyConductorType, applyTransformerType } from "./equipmentApply.ts";
 import { ConductorPicker, TransformerTypePicker, type EquipmentTypes } from "./EquipmentPicker.tsx";
+import { ConductorSizing } from "./ConductorSizing.tsx";
 import { QuantityField, ReadOnlyValue, SelectField, TextField } from "./fields.tsx";
 import { parseWireId, terminalField, wireId } from "./flowModel.ts";
 import { describeElement, indexElements, type AnyElement, type ElementEntry } from "#app/lib/networkElements.ts";
@@ -104,6 +105,13 @@ function ElementForm({ entry, doc, readOnly, issues, library }: { entry: Element
             actions.updateElement(entry.element.id, applied.line);
             return applied.note;
           }}
+        />
+      ) : null}
+      {entry.kind === "line" ? (
+        <ConductorSizing
+          line={entry.element as Line}
+          teamTypes={library.conductors ?? []}
+          onApply={(conductor) => actions.updateElement(entry.element.id, applyConductorType(entry.element as Line, conductor, doc.frequencyHz).line)}
         />
       ) : null}
       {fields.map((field) => {

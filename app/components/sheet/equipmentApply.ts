@@ -23,7 +23,8 @@ export function applyTransformerType(t: Transformer, type: TransformerType): Tra
 
 export function applyConductorType(line: Line, conductor: ConductorType, frequencyHz: 50 | 60): { line: Line; note?: string } {
   const values = conductorAtFrequency(conductor, frequencyHz);
-  const next: Line = { ...line, rOhmPerKm: values.rOhmPerKm, xOhmPerKm: values.xOhmPerKm, ampacityA: values.ampacityA };
+  // The construction follows the type: a cable picked for an overhead line makes it a cable.
+  const next: Line = { ...line, kind: conductor.kind, rOhmPerKm: values.rOhmPerKm, xOhmPerKm: values.xOhmPerKm, ampacityA: values.ampacityA };
   if (values.bMicroSiemensPerKm !== undefined) next.bMicroSiemensPerKm = values.bMicroSiemensPerKm;
   return { line: next, note: values.note };
 }
