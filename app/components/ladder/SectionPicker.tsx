@@ -3,6 +3,7 @@
 import { useId } from "react";
 import { FieldError } from "#app/components/FormField.tsx";
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
+import { DRAWING_MAX_BUSES } from "#app/components/report/singleLineLayout.ts";
 import type { Section } from "#solver/ladder.ts";
 import type { Line, Network } from "#solver/schema.ts";
 import { indexElements } from "#solver/elements.ts";
@@ -25,15 +26,22 @@ export function SectionPicker({
   const errorId = `${selectId}-error`;
   return (
     <div className="ks-section-picker">
-      <div className="ks-drawing-frame">
-        <SingleLineDrawing
-          network={network}
-          highlightBusIds={section?.busIds ?? []}
-          onPickBus={onPick}
-          pickLabel={(name) => `Re-rate the section of ${name}`}
-          label={`Single-line drawing of ${network.name}; each bus is a button that picks its section`}
-        />
-      </div>
+      {network.buses.length <= DRAWING_MAX_BUSES ? (
+        <div className="ks-drawing-frame">
+          <SingleLineDrawing
+            network={network}
+            highlightBusIds={section?.busIds ?? []}
+            onPickBus={onPick}
+            pickLabel={(name) => `Re-rate the section of ${name}`}
+            label={`Single-line drawing of ${network.name}; each bus is a button that picks its section`}
+          />
+        </div>
+      ) : (
+        <p className="text-sm text-ink-soft">
+          The drawing is left out: the network has {network.buses.length.toLocaleString("en-GB")} buses, more than the {DRAWING_MAX_BUSES} a page
+          can show legibly. Pick the section by one of its buses from the list.
+        </p>
+      )}
       <div className="ks-section-choice">
         <div>
           <label htmlFor={selectId} className="field-label">

@@ -5,6 +5,9 @@
 // rows of their own; slack sources sit on the left of theirs.
 import type { Network } from "#solver/schema.ts";
 
+/** Drawings of more buses than this are left out (report, ladder page), each saying so in a sentence: no page can show them legibly. */
+export const DRAWING_MAX_BUSES = 400;
+
 export const COLUMN_WIDTH = 170;
 export const ROW_HEIGHT = 140;
 export const LEFT_MARGIN = 130;

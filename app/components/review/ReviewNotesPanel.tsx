@@ -46,6 +46,9 @@ export interface ReviewNotesPanelProps {
 
 type ActionAnswer = { ok: boolean; message: string };
 
+/** Up to this many elements, "Pin to" lists them all; beyond, the element selected on the sheet. */
+const PIN_LIST_MAX = 300;
+
 function NoteBadges({ counts, onPick }: { counts: Record<string, number>; onPick: (elementId: string) => void }) {
   const nodes = useNodes();
   return (
@@ -190,6 +193,8 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
     if (fetcher.state === "idle" && fetcher.data?.ok) formRef.current?.reset();
   }, [fetcher.state, fetcher.data]);
 
+  // A large drawing's every element would be tens of thousands of options: offer the selected one instead.
+  const pinChoices = elements.length <= PIN_LIST_MAX ? elements : elements.filter((e) => e.element.id === selected);
   const open = threads.filter((t) => !t.resolvedAt).length;
   const resolvedCount = threads.length - open;
   const shown = threads.filter((t) => (filter === null || (t.elementId ?? "") === filter) && (showResolved || !t.resolvedAt));
@@ -239,12 +244,13 @@ export function ReviewNotesPanel({ threads, mayWrite, signedIn, action, signInBa
             </label>
             <select id="ks-note-pin" name="elementId" className="input" value={pinTo} onChange={(e) => setPinTo(e.target.value)}>
               <option value="">The sheet as a whole</option>
-              {elements.map((e) => (
+              {pinChoices.map((e) => (
                 <option key={e.element.id} value={e.element.id}>
                   {kindWord(e)}: {e.element.name}
                 </option>
               ))}
             </select>
+            {elements.length > PIN_LIST_MAX ? <p className="field-hint">Select an element on the sheet to pin the note to it.</p> : null}
             <label htmlFor="ks-note-body" className="field-label">
               Note
             </label>

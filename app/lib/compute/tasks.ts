@@ -1,7 +1,7 @@
 // The heavy work the server does, as plain functions of plain data: they run in a worker thread
 // (worker.ts) so the thread that answers requests only reads, writes and sends. Each takes the
 // stored document and answers something a structured clone carries back (no functions, no classes).
-import { layoutSingleLine, type SingleLineLayout } from "#app/components/report/singleLineLayout.ts";
+import { DRAWING_MAX_BUSES, layoutSingleLine, type SingleLineLayout } from "#app/components/report/singleLineLayout.ts";
 import { resultsCsv, type CsvTable } from "#solver/csv.ts";
 import { solveNetwork, solveValidated, type SolveOutcome } from "#solver/index.ts";
 import type { MessagePort } from "node:worker_threads";
@@ -9,9 +9,6 @@ import type { JobProgress } from "./jobView.ts";
 import { runLadder, type LadderOutcome, type LadderProgress } from "#solver/ladder.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { runStudySync, type StudyOutcome, type StudyProgress } from "#solver/study/index.ts";
-
-/** Drawings of more buses than this are left out of the report, which says so in a sentence. */
-export const DRAWING_MAX_BUSES = 400;
 
 /**
  * A stored revision as it is stored: its JSON text, parsed in the worker (not on the request

@@ -15,9 +15,10 @@ import { getDb } from "#app/lib/db.server.ts";
 import { formatDate, formatDateTime } from "#app/lib/format.ts";
 import { savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { networkReader } from "#app/lib/networkReader.server.ts";
+import { reportPart, REPORT_ROWS_MAX, type ReportExtent } from "#app/lib/reportExtent.ts";
 import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
 import { computeRefusal, revisionReport } from "#app/lib/compute/results.server.ts";
-import { DRAWING_MAX_BUSES } from "#app/lib/compute/tasks.ts";
+import { DRAWING_MAX_BUSES } from "#app/components/report/singleLineLayout.ts";
 import { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/index.ts";
 import { ladderRequestSchema, type AlternativeOverrides } from "#solver/ladder.ts";
 import "#app/components/report/drawing.css";
@@ -37,6 +38,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const report = await revisionReport(db, network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"));
   const { solved, ladder: ladderRun, drawing } = report;
   const overrides = saved.study ? (ladderRequestSchema.parse(saved.study.request).overrides as (AlternativeOverrides | null)[] | undefined) : undefined;
+  const section = ladderRun?.ok ? ladderRun.ladder.section : null;
+  // A large network's report lists the first part of each table: the page stays a few hundred kilobytes.
+  const part = solved.ok ? reportPart(solved.network, solved.result, { alsoBuses: section ? [...section.busIds, ...section.endBusIds] : [] }) : null;
   return {
     id: network.id,
     name: network.name,
@@ -46,7 +50,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     viaLink,
     preparedAt: new Date().toISOString(),
     revision: { number: network.current_revision, savedAt: revision.createdAt, by: revision.authorName, message: revision.message },
-    solved: solved.ok ? { network: solved.network, result: solved.result } : null,
+    solved: part ? { network: part.network, result: part.result } : null,
+    extent: part?.extent ?? null,
+    // Where this reader downloads every row: the API for the team, the link's own address for a view link.
+    csvBase: viaLink ? home : `/api/networks/${network.id}`,
     documentIssues: solved.ok ? [] : solved.issues,
     study: saved.study ? { ...saved.study, overrides } : null,
     studyUnreadable: saved.unreadable,
@@ -56,10 +63,23 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-const counted = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`;
+const counted = (n: number, one: string, many: string) => `${n.toLocaleString("en-GB")} ${n === 1 ? one : many}`;
+
+/** Said under a table a large network's report lists only the first part of. */
+function ListedPart({ extent, csvBase }: { extent: ReportExtent; csvBase: string }) {
+  if (!extent.trimmed) return null;
+  return (
+    <p className="text-sm text-ink-soft">
+      This network has {counted(extent.buses.total, "bus", "buses")} and {counted(extent.branches.total, "branch", "branches")}: the tables list the first{" "}
+      {extent.buses.listed.toLocaleString("en-GB")} buses in the file's order (at most {REPORT_ROWS_MAX} besides those a listed limit names) and the
+      elements among them. Every row is in the CSV downloads: <a href={`${csvBase}/results.csv?table=buses`}>buses</a> and{" "}
+      <a href={`${csvBase}/results.csv?table=branches`}>branches</a>.
+    </p>
+  );
+}
 
 export default function ReportPage({ loaderData }: Route.ComponentProps) {
-  const { id, name, solved, study, ladder, home, viaLink } = loaderData;
+  const { id, name, solved, study, ladder, home, viaLink, extent, csvBase } = loaderData;
   return (
     <article className="ks-report" aria-labelledby="report-title">
       <div className="ks-report-tools">
@@ -107,11 +127,11 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
             <h2 id="report-network">1. The network</h2>
             <p>
               {[
-                counted(solved.network.buses.length, "bus", "buses"),
-                counted(solved.network.transformers.length, "transformer", "transformers"),
-                counted(solved.network.lines.length, "line or cable", "lines and cables"),
-                counted(solved.network.loads.length, "load", "loads"),
-                counted(solved.network.shunts.length, "shunt", "shunts"),
+                counted(extent!.counts.buses, "bus", "buses"),
+                counted(extent!.counts.transformers, "transformer", "transformers"),
+                counted(extent!.counts.lines, "line or cable", "lines and cables"),
+                counted(extent!.counts.loads, "load", "loads"),
+                counted(extent!.counts.shunts, "shunt", "shunts"),
               ].join(", ")}
               ; {solved.network.frequencyHz} Hz, system base {solved.network.baseMVA} MVA. Bus voltages from the load flow are written under each bus.
             </p>
@@ -127,8 +147,8 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
             </figure>
             ) : (
               <p>
-                The single-line drawing is left out: the network has {solved.network.buses.length} buses, more than the {DRAWING_MAX_BUSES} a
-                printed page can show legibly. The tables below list every bus and branch.
+                The single-line drawing is left out: the network has {extent!.counts.buses.toLocaleString("en-GB")} buses, more than the{" "}
+                {DRAWING_MAX_BUSES} a printed page can show legibly.
               </p>
             )}
           </section>
@@ -145,6 +165,7 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
                 <BusTable network={solved.network} result={solved.result} />
                 <BranchTable network={solved.network} result={solved.result} />
                 <EquipmentTables network={solved.network} result={solved.result} />
+                <ListedPart extent={extent!} csvBase={csvBase} />
               </>
             ) : (
               <Notice tone="error">{solved.result.loadFlow.message ?? "The load flow did not converge."}</Notice>
@@ -160,6 +181,12 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
           <section className="ks-report-part" aria-labelledby="report-checks">
             <h2 id="report-checks">4. Checks</h2>
             <CheckList network={solved.network} result={solved.result} />
+            {extent!.checks.total > extent!.checks.listed ? (
+              <p className="text-sm text-ink-soft">
+                The first {extent!.checks.listed.toLocaleString("en-GB")} of {extent!.checks.total.toLocaleString("en-GB")} broken limits are listed; the
+                CSV downloads carry every bus and branch.
+              </p>
+            ) : null}
           </section>
 
           <section className="ks-report-part ks-report-ladder" aria-labelledby="report-ladder">
@@ -186,7 +213,10 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
                 <div className="ks-report-plots">
                   <LossPlot ladder={ladder} width={PRINT_CHART_WIDTH} height={240} />
                   <CostPlot ladder={ladder} width={PRINT_CHART_WIDTH} height={240} />
-                  <ProfilePlot ladder={ladder} network={solved.network} endBusId={defaultProfileEnd(ladder, solved.network)} width={PRINT_CHART_WIDTH} height={250} />
+                  {/* The profile follows the chain through the whole network, which a large report does not carry. */}
+                  {extent!.trimmed ? null : (
+                    <ProfilePlot ladder={ladder} network={solved.network} endBusId={defaultProfileEnd(ladder, solved.network)} width={PRINT_CHART_WIDTH} height={250} />
+                  )}
                 </div>
                 <h3>Money inputs</h3>
                 <MoneySummary money={ladder.money} />
