@@ -39,7 +39,8 @@ import { syntheticFeeder } from "../../../../bench/syntheticFeeder.ts";
 import { call, getRequest, jsonRequest } from "../../routes/harness.ts";
 import { makeTeam, type TeamFixture } from "../../routes/teamFixtures.ts";
 
-const BUSES = 3_000;
+/** 3,000 in the suite; AVAILABILITY_BUSES=15000 runs the issue's full size (figures printed, same assertions). */
+const BUSES = Number(process.env.AVAILABILITY_BUSES ?? 3_000);
 const LIGHT_EVERY_MS = 100;
 
 let team: TeamFixture;
@@ -99,7 +100,8 @@ describe(`a ${BUSES}-bus network under heavy work`, () => {
     const waits = light.map((l) => l.ms);
     console.log(
       `availability (${BUSES} buses): heavy ${answers.map((a) => `${a.name} ${a.status} in ${a.ms} ms`).join(", ")}; ` +
-        `light page ${light.length} answers, p50 ${percentile(waits, 0.5)} ms, p95 ${percentile(waits, 0.95)} ms, max ${Math.max(...waits)} ms; ` +
+        `light page ${light.length} answers, p50 ${percentile(waits, 0.5)} ms, p95 ${percentile(waits, 0.95)} ms (target ≤ 300 ms), max ${Math.max(...waits)} ms (target ≤ 1,500 ms); ` +
+        `heavy answers target: 200 within 60,000 ms; ` +
         `request thread held at most ${Math.round(loopDelay.max / 1e6)} ms; load average ${loadavg().map((l) => l.toFixed(1)).join(" ")}`,
     );
     expect(answers.map((a) => [a.name, a.status])).toEqual([
