@@ -11,6 +11,8 @@ export interface LibraryField {
   optional?: boolean;
   choices?: readonly string[];
   hint?: string;
+  /** A plain number typed without a unit (a cross-section in mm²). */
+  number?: boolean;
 }
 
 /** A quantity field labelled and unit-ed as the network file's field of the same name. */
@@ -37,5 +39,9 @@ export const libraryFields: Record<LibraryTypeKind, LibraryField[]> = {
     quantity("xOhmPerKm"),
     quantity("bMicroSiemensPerKm", { optional: true }),
     quantity("ampacityA"),
+    { name: "material", label: "Conductor material", choices: ["copper", "aluminium", "acsr"], optional: true, hint: "with the cross-section, lets sizing check fault withstand" },
+    { name: "crossSectionMm2", label: "Cross-section (mm²)", number: true, optional: true, hint: "aluminium area for ACSR" },
+    { ...quantity("nominalKV", { optional: true, hint: "cables: the system voltage it is made for" }), label: "Cable system voltage" },
+    { name: "source", label: "Source of the values", optional: true, hint: "maker's datasheet, a standard, or “from memory”" },
   ],
 };

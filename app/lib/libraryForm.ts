@@ -30,6 +30,10 @@ export function readTypeForm(kind: LibraryTypeKind, fields: Record<string, strin
     if (field.choices) {
       if (!field.choices.includes(text)) fieldErrors[field.name] = `must be ${field.choices.join(" or ")}`;
       else raw[field.name] = field.name === "frequencyHz" ? Number(text) : text;
+    } else if (field.number) {
+      const value = Number(text.replace(/\s*mm(²|2)$/i, ""));
+      if (Number.isFinite(value)) raw[field.name] = value;
+      else fieldErrors[field.name] = "must be a number such as 300";
     } else if (field.kind) {
       const read = parseQuantity(text, field.kind);
       if (read.ok) raw[field.name] = read.value;

@@ -75,6 +75,10 @@ export const conductorTypeDataSchema = z
     /** For the adiabatic fault withstand when sizing a conductor. */
     material: z.enum(["copper", "aluminium", "acsr"], "must be copper, aluminium or acsr").optional(),
     crossSectionMm2: positive.max(5000, "must be at most 5000 mm²").optional(),
+    /** Cables: the system voltage the insulation is made for; sizing offers the cable at that voltage only. */
+    nominalKV: positive.max(1500, "must be at most 1500 kV").optional(),
+    /** Where the numbers come from: a maker's datasheet, a standard, or "from memory". */
+    source: z.string().trim().max(200, "must be at most 200 characters").optional(),
   })
   .superRefine((c, ctx) => {
     if (c.rOhmPerKm === 0 && c.xOhmPerKm === 0)
@@ -142,6 +146,7 @@ export function toConductorType(id: number, name: string, data: ConductorTypeDat
     bMicroSiemensPerKm: data.bMicroSiemensPerKm,
     material: data.material,
     crossSectionMm2: data.crossSectionMm2,
-    source: `${teamName} library`,
+    nominalKV: data.nominalKV,
+    source: data.source ? `${teamName} library: ${data.source}` : `${teamName} library`,
   };
 }

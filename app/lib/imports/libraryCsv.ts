@@ -48,6 +48,10 @@ export const conductorColumns: ColumnSpec<ConductorField>[] = [
   { field: "bMicroSiemensPerKm", header: "bMicroSiemensPerKm", names: ["bmicrosiemensperkm", "b", "susceptance"], kind: "microSiemensPerKm", unitBases: ["b", "susceptance"], required: false },
   { field: "ampacityA", header: "ampacityA", names: ["ampacitya", "ampacity", "rating", "ratedcurrent"], kind: "A", unitBases: ["ampacity", "ratedcurrent"], required: true },
   { field: "frequencyHz", header: "frequencyHz", names: ["frequencyhz", "frequency", "hz"], required: false },
+  { field: "material", header: "material", names: ["material"], required: false },
+  { field: "crossSectionMm2", header: "crossSectionMm2", names: ["crosssectionmm2", "crosssection", "mm2", "area"], required: false },
+  { field: "nominalKV", header: "nominalKV", names: ["nominalkv", "systemkv", "voltage"], kind: "kV", unitBases: ["nominal", "system", "voltage"], required: false },
+  { field: "source", header: "source", names: ["source", "reference", "datasheet"], required: false },
 ];
 
 export interface LibraryTypeChange {
@@ -130,6 +134,14 @@ function rowObject<F extends string>(
       const hz = Number(cell.replace(/\s*hz$/i, ""));
       if (hz === 50 || hz === 60) data.frequencyHz = hz;
       else fail(column.header, `"${cell}" is not 50 or 60 Hz`);
+    } else if (field === "material") {
+      const material = cell.trim().toLowerCase().replace("aluminum", "aluminium");
+      if (material === "copper" || material === "aluminium" || material === "acsr") data.material = material;
+      else fail(column.header, `"${cell}" is not copper, aluminium or acsr`);
+    } else if (field === "crossSectionMm2") {
+      const mm2 = Number(cell.replace(/\s*mm(²|2)$/i, ""));
+      if (Number.isFinite(mm2)) data.crossSectionMm2 = mm2;
+      else fail(column.header, `"${cell}" is not a cross-section in mm²`);
     } else if (column.spec.kind) {
       const read = readQuantityCell(cell, column, delimiter);
       if (read.ok) data[field] = read.value;

@@ -149,7 +149,8 @@ function TypeForm({ kind, entry, result }: { kind: LibraryTypeKind; entry?: Libr
               {field.optional ? <span className="text-ink-muted"> (optional)</span> : null}
             </label>
             {field.choices ? (
-              <select id={id} name={field.name} className="input" defaultValue={fieldValue(entry, field.name) || field.choices[0]}>
+              <select id={id} name={field.name} className="input" defaultValue={fieldValue(entry, field.name) || (field.optional ? "" : field.choices[0])}>
+                {field.optional ? <option value="">not given</option> : null}
                 {field.choices.map((choice) => (
                   <option key={choice} value={choice}>
                     {choice}

@@ -169,3 +169,28 @@ describe("library types and the built-in library's shapes", () => {
     expect(parsed.success).toBe(false);
   });
 });
+
+describe("library: cables and overhead conductors with their material, size and source", () => {
+  it("reads a cable and an overhead conductor from one file, each with where its values come from", () => {
+    const result = preview(
+      [
+        "name,kind,rOhmPerKm,xOhmPerKm,bMicroSiemensPerKm,ampacityA,material,crossSectionMm2,nominalKV,source",
+        "Dale 33 kV 300 Al,cable,0.1,0.115,78.5,440,aluminum,300 mm²,33 kV,maker's datasheet 2026",
+        "Dale ACSR 150,overhead,0.19,0.35,,470,acsr,150,,from memory",
+      ].join("\n"),
+    );
+    expect(result.ok).toBe(true);
+    expect(result.changes.map((c) => c.data)).toEqual([
+      { kind: "cable", frequencyHz: 50, rOhmPerKm: 0.1, xOhmPerKm: 0.115, bMicroSiemensPerKm: 78.5, ampacityA: 440, material: "aluminium", crossSectionMm2: 300, nominalKV: 33, source: "maker's datasheet 2026" },
+      { kind: "overhead", frequencyHz: 50, rOhmPerKm: 0.19, xOhmPerKm: 0.35, ampacityA: 470, material: "acsr", crossSectionMm2: 150, source: "from memory" },
+    ]);
+    const cable = toConductorType(7, "Dale 33 kV 300 Al", result.changes[0].data as never, "Dale team");
+    expect(cable).toMatchObject({ kind: "cable", nominalKV: 33, material: "aluminium", crossSectionMm2: 300, source: "Dale team library: maker's datasheet 2026" });
+  });
+
+  it("names a material it does not know", () => {
+    const result = preview([conductorHeader + ",material", "X,cable,0.1,0.1,,400,brass"].join("\n"));
+    expect(result.ok).toBe(false);
+    expect(JSON.stringify(result)).toContain('\\"brass\\" is not copper, aluminium or acsr');
+  });
+});
