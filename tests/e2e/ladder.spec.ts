@@ -66,11 +66,11 @@ test("the editor runs the Tarn Head ladder at 33, 66 and 132 kV from the network
   await page.getByRole("link", { name: "Study report" }).click();
   await expect(page.getByRole("heading", { name: TARN_HEAD, level: 1 })).toBeVisible();
   await expect(page.getByText("Kilostep study report")).toBeVisible();
-  const ladder = page.getByRole("region", { name: "5. Voltage ladder" });
+  const ladder = page.getByRole("region", { name: "6. Voltage ladder" });
   await expect(ladder.getByText("Recommended: 66 kV")).toBeVisible();
   await expect(ladder.getByRole("columnheader", { name: /^33 kV.*Cannot carry the load/ })).toBeVisible();
   await expect(page.getByRole("img", { name: `Single-line drawing of ${TARN_HEAD}` })).toBeVisible();
-  await expect(page.getByRole("region", { name: "7. Cautions" })).toContainText("not a protection study");
+  await expect(page.getByRole("region", { name: "8. Cautions" })).toContainText("not a protection study");
   await expect(page.getByRole("button", { name: "Print" })).toBeVisible();
   await chartsDrawn(page, 3);
   await page.screenshot({ path: testInfo.outputPath("report.png"), fullPage: true });

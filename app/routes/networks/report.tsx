@@ -10,6 +10,7 @@ import { InputTables } from "#app/components/report/InputTables.tsx";
 import { BranchTable, BusTable, CheckList, EquipmentTables, FaultTable, MinimumFaultTable } from "#app/components/report/ResultTables.tsx";
 import { SingleLineDrawing } from "#app/components/report/SingleLineDrawing.tsx";
 import { StudyInputs } from "#app/components/report/StudyInputs.tsx";
+import { StudySection, type ReportStudy } from "#app/components/report/StudySection.tsx";
 import { Notice } from "#app/components/Notice.tsx";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDate, formatDateTime } from "#app/lib/format.ts";
@@ -17,8 +18,10 @@ import { savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { networkReader } from "#app/lib/networkReader.server.ts";
 import { reportPart, REPORT_ROWS_MAX, type ReportExtent } from "#app/lib/reportExtent.ts";
 import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
-import { computeRefusal, revisionReport } from "#app/lib/compute/results.server.ts";
+import { computeRefusal, computeRefusalOf, revisionReport } from "#app/lib/compute/results.server.ts";
 import { DRAWING_MAX_BUSES } from "#app/components/report/singleLineLayout.ts";
+import { runStudyOnNetwork } from "#app/lib/study.server.ts";
+import { studyView } from "#app/lib/studyView.ts";
 import { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/index.ts";
 import { ladderRequestSchema, type AlternativeOverrides } from "#solver/ladder.ts";
 import "#app/components/report/drawing.css";
@@ -37,6 +40,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const [revision, team, saved] = await Promise.all([currentDocument(db, network), teamNameOf(db, network), savedLadderStudy(db, network.id)]);
   const report = await revisionReport(db, network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"));
   const { solved, ladder: ladderRun, drawing } = report;
+  const reportStudy = solved.ok ? await studyOfReport(db, network, solved.network, actor, request.signal) : { view: null, error: null, withYears: false };
   const overrides = saved.study ? (ladderRequestSchema.parse(saved.study.request).overrides as (AlternativeOverrides | null)[] | undefined) : undefined;
   const section = ladderRun?.ok ? ladderRun.ladder.section : null;
   // A large network's report lists the first part of each table: the page stays a few hundred kilobytes.
@@ -60,8 +64,28 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     ladder: ladderRun?.ok ? ladderRun.ladder : null,
     ladderIssues: ladderRun && !ladderRun.ok ? ladderRun.issues : [],
     drawing,
+    reportStudy,
   };
 }
+
+/** The operating cases with N-1, and the years when the network gives a growth; a refusal becomes the section's sentence. */
+async function studyOfReport(
+  db: Awaited<ReturnType<typeof getDb>>,
+  network: Parameters<typeof runStudyOnNetwork>[1],
+  document: { growth?: unknown },
+  actor: Parameters<typeof revisionReport>[3],
+  signal: AbortSignal,
+): Promise<ReportStudy> {
+  const withYears = document.growth !== undefined;
+  try {
+    const run = await runStudyOnNetwork(db, network, { outages: true, years: withYears }, { signal, actor });
+    if (!run.ok) return { view: null, error: run.error, withYears };
+    return { view: studyView(run.document, run.study), error: null, withYears };
+  } catch (failure) {
+    return { view: null, error: computeRefusalOf(failure).error, withYears };
+  }
+}
+
 
 const counted = (n: number, one: string, many: string) => `${n.toLocaleString("en-GB")} ${n === 1 ? one : many}`;
 
@@ -189,8 +213,10 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
             ) : null}
           </section>
 
+          <StudySection study={loaderData.reportStudy} number={5} studyHref={`${home}/study`} />
+
           <section className="ks-report-part ks-report-ladder" aria-labelledby="report-ladder">
-            <h2 id="report-ladder">5. Voltage ladder</h2>
+            <h2 id="report-ladder">6. Voltage ladder</h2>
             {study && ladder ? (
               <>
                 <p>
@@ -236,7 +262,7 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
           </section>
 
           <section className="ks-report-part" aria-labelledby="report-assumptions">
-            <h2 id="report-assumptions">6. Assumptions and inputs</h2>
+            <h2 id="report-assumptions">7. Assumptions and inputs</h2>
             <dl className="ks-report-facts ks-report-assumptions">
               <dt>System base</dt>
               <dd>
@@ -282,7 +308,7 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
       )}
 
       <section className="ks-report-part ks-report-cautions" aria-labelledby="report-cautions">
-        <h2 id="report-cautions">{solved ? "7. " : ""}Cautions</h2>
+        <h2 id="report-cautions">{solved ? "8. " : ""}Cautions</h2>
         <ul>
           <li>Results are for planning-stage screening only.</li>
           <li>Verify them against the applicable grid code, local regulations and the equipment makers' data.</li>

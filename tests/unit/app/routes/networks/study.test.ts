@@ -8,6 +8,7 @@ import { action as studyApi } from "#app/routes/api/network-study.ts";
 import { loader as pageLoader } from "#app/routes/networks/study.tsx";
 import { loader as runLoader } from "#app/routes/networks/study-run.ts";
 import { loader as csvLoader } from "#app/routes/networks/study-csv.ts";
+import { loader as reportLoader } from "#app/routes/networks/report.tsx";
 import { validateNetwork } from "#solver/schema.ts";
 import { insertMembership } from "#db/teams.ts";
 import { call, cookieFor, getRequest, jsonRequest, makeUser, type Outcome } from "../harness.ts";
@@ -166,5 +167,28 @@ describe("the study CSV", () => {
     const outcome = await call(csvLoader, getRequest(`/networks/${made.network.id}/study.csv?table=years&years=on`, people.cookies.viewer), { networkId: String(made.network.id) });
     expect(outcome.status).toBe(400);
     expect(outcome.body).toMatch(/gives no load growth/);
+  });
+});
+
+describe("the report's study part", () => {
+  it("carries the cases, N-1 and the network's years, with the same rows as the study page", async () => {
+    const reader = await newViewer();
+    const report = await call(reportLoader, getRequest(`/networks/${world.networkId}/report`, reader), params());
+    expect(report.status).toBe(200);
+    const part = report.body.reportStudy;
+    expect(part).toMatchObject({ error: null, withYears: true });
+    expect(part.view.outages.rows.find((o: any) => o.case.id === "winter-peak" && o.elementId === "l-town").lostLoadMW).toBe(7);
+    expect(part.view.growth).toMatchObject({ ratePctPerYear: 2, years: 20 });
+    const page = lines(await run("?outages=on&years=on", await newViewer())).at(-1)!.view;
+    expect(JSON.parse(JSON.stringify(part.view))).toEqual(page);
+  });
+
+  it("says why the study is missing when the reader's budget is spent, and still gives the report", async () => {
+    const reader = await newViewer();
+    expect((await run("?outages=on&years=on", reader)).status).toBe(200);
+    const report = await call(reportLoader, getRequest(`/networks/${world.networkId}/report`, reader), params());
+    expect(report.status).toBe(200);
+    expect(report.body.reportStudy.view).toBeNull();
+    expect(report.body.reportStudy.error).toMatch(/\w/);
   });
 });
