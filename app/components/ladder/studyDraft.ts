@@ -40,6 +40,8 @@ export interface StudyDraft {
   /** Keyed by voltageKey(kV). */
   alternatives: Record<string, AlternativeDraft>;
   money: MoneyDraft;
+  /** An alternative must also keep every limit with any one line or transformer out (N-1), in every case. */
+  outages: boolean;
 }
 
 export const SAVED_CONDUCTOR = "saved";
@@ -85,10 +87,10 @@ export function defaultVoltagesKV(presentKV: number, frequencyHz: 50 | 60): numb
   return offered.slice(Math.max(0, at - 1), at + 2);
 }
 
-export function draftForSection(network: Network, sectionBus: string, money: MoneyDraft = moneyDraftOf({})): StudyDraft {
+export function draftForSection(network: Network, sectionBus: string, money: MoneyDraft = moneyDraftOf({}), outages = false): StudyDraft {
   const section = findSection(network, sectionBus);
   const voltagesKV = section ? defaultVoltagesKV(section.nominalKV, network.frequencyHz) : [];
-  return { sectionBus, voltagesKV, alternatives: Object.fromEntries(voltagesKV.map((kv) => [voltageKey(kv), emptyAlternative()])), money };
+  return { sectionBus, voltagesKV, alternatives: Object.fromEntries(voltagesKV.map((kv) => [voltageKey(kv), emptyAlternative()])), money, outages };
 }
 
 /**
@@ -139,6 +141,7 @@ export function draftFromRequest(network: Network, request: LadderRequest): Stud
     voltagesKV: order.map((i) => request.voltagesKV[i]),
     alternatives,
     money: moneyDraftOf(request.money),
+    outages: request.outages === true,
   };
 }
 
@@ -150,7 +153,7 @@ function sameConductor(a: Conductor, b: Conductor): boolean {
 export function moveToSection(draft: StudyDraft, network: Network, sectionBus: string): StudyDraft {
   const now = findSection(network, draft.sectionBus);
   if (now?.busIds.includes(sectionBus)) return { ...draft, sectionBus };
-  return draftForSection(network, sectionBus, draft.money);
+  return draftForSection(network, sectionBus, draft.money, draft.outages);
 }
 
 export function toggleVoltage(draft: StudyDraft, voltageKV: number): StudyDraft {
@@ -240,6 +243,7 @@ export function requestFromDraft(draft: StudyDraft, network: Network): { request
     voltagesKV: draft.voltagesKV,
     money: money as LadderRequest["money"],
     ...(overrides.some((o) => o !== null) ? { overrides } : {}),
+    ...(draft.outages ? { outages: true } : {}),
   };
   const checked = ladderRequestSchema.safeParse(request, { error: inputMessage });
   if (!checked.success) for (const issue of zodIssues(checked.error)) errors[issue.path] ??= issue.message;

@@ -311,6 +311,24 @@ function LadderStudy() {
         {money ? <UnitCostNote money={money} /> : null}
       </section>
 
+      <section aria-labelledby="ladder-cases" className="panel ks-step">
+        <h2 id="ladder-cases" className="ks-step-title">
+          <span className="ks-step-number" aria-hidden="true">
+            5
+          </span>
+          Judged across
+        </h2>
+        <p className="field-hint ks-step-lead">
+          {network.cases && network.cases.length > 0
+            ? `Every alternative is solved in each of the network's ${network.cases.length} operating cases (${network.cases.map((c) => c.name).join(", ")}) and qualifies only if it keeps every limit in all of them; losses are summed over the cases' hours.`
+            : "The network has no operating cases, so each alternative is judged as drawn. Add cases on the Operating cases page to judge across them."}
+        </p>
+        <label className="flex items-baseline gap-2">
+          <input type="checkbox" checked={draft.outages} onChange={(event) => update({ ...draft, outages: event.target.checked })} /> Require N-1: an
+          alternative must also keep every limit with any one line or transformer out, in every case
+        </label>
+      </section>
+
       <div className="ks-run-bar">
         <button type="button" className="btn btn-primary" onClick={() => submit("run")} disabled={running}>
           {runningIntent === "run" ? "Running…" : "Run the ladder"}
@@ -400,6 +418,12 @@ function Recommendation({ ladder }: { ladder: Ladder }) {
         Recommended: {kvText(ladder.cheapest.voltageKV)}
       </p>
       <p>{ladder.cheapest.note}</p>
+      {ladder.cheapest.decidingCase ? (
+        <p>
+          Decided by the case <strong>{ladder.cheapest.decidingCase.name}</strong>
+          {ladder.cheapest.decidingCase.reason === "limits" ? ": a cheaper alternative breaks a limit there." : ": its losses weigh most in the year's energy."}
+        </p>
+      ) : null}
     </div>
   );
 }

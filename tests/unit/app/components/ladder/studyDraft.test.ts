@@ -163,3 +163,17 @@ describe("the section offered first", () => {
     expect(defaultSectionBus(network)).toBe("b0");
   });
 });
+
+describe("requiring N-1 in the ladder", () => {
+  it("asks for outages only when ticked, keeps the tick through a move to another section and a saved request", () => {
+    const plain = draftForSection(network, "b-calder-66");
+    expect(plain.outages).toBe(false);
+    expect(requestFromDraft(plain, network).request).not.toHaveProperty("outages");
+    const n1 = { ...plain, outages: true };
+    const { request, errors } = requestFromDraft(n1, network);
+    expect(errors).toEqual({});
+    expect(request.outages).toBe(true);
+    expect(draftFromRequest(network, request).outages).toBe(true);
+    expect(moveToSection(n1, network, "b-town").outages).toBe(true);
+  });
+});
