@@ -12,6 +12,8 @@ export interface ReportStudy {
   /** Why the study is missing (refused, stopped, a network it cannot study). */
   error: string | null;
   withYears: boolean;
+  /** Parts left to the study page on a large network, in a sentence. */
+  skipped: string | null;
 }
 
 export function StudySection({ study, number, studyHref }: { study: ReportStudy; number: number; studyHref: string }) {
@@ -21,9 +23,10 @@ export function StudySection({ study, number, studyHref }: { study: ReportStudy;
       {study.view ? (
         <>
           <p>
-            Each operating case solved as its own load flow ({study.view.cases.length} case{study.view.cases.length === 1 ? "" : "s"}), every line and
-            transformer out in turn in each case (N-1){study.withYears ? ", and the load grown year by year over the network's horizon" : ""}:{" "}
-            {study.view.loadFlows.toLocaleString("en-GB")} load flows in all. The <Link to={studyHref}>study page</Link> downloads each table as CSV.
+            Each operating case solved as its own load flow ({study.view.cases.length} case{study.view.cases.length === 1 ? "" : "s"})
+            {study.view.outages ? ", every line and transformer out in turn in each case (N-1)" : ""}
+            {study.withYears ? ", and the load grown year by year over the network's horizon" : ""}: {study.view.loadFlows.toLocaleString("en-GB")} load flows in
+            all. The <Link to={studyHref}>study page</Link> downloads each table as CSV.{study.skipped ? ` ${study.skipped[0].toUpperCase()}${study.skipped.slice(1)}` : ""}
           </p>
           <StudyTables view={study.view} level={3} />
         </>

@@ -40,7 +40,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const [revision, team, saved] = await Promise.all([currentDocument(db, network), teamNameOf(db, network), savedLadderStudy(db, network.id)]);
   const report = await revisionReport(db, network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"));
   const { solved, ladder: ladderRun, drawing } = report;
-  const reportStudy = solved.ok ? await studyOfReport(db, network, solved.network, actor, request.signal) : { view: null, error: null, withYears: false };
+  const reportStudy = solved.ok ? await studyOfReport(db, network, solved.network, actor, request.signal) : { view: null, error: null, withYears: false, skipped: null };
   const overrides = saved.study ? (ladderRequestSchema.parse(saved.study.request).overrides as (AlternativeOverrides | null)[] | undefined) : undefined;
   const section = ladderRun?.ok ? ladderRun.ladder.section : null;
   // A large network's report lists the first part of each table: the page stays a few hundred kilobytes.
@@ -68,21 +68,30 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
+/** Load flows the report's study may ask for; a larger N-1 or years study is left to the study page. */
+const REPORT_STUDY_LOAD_FLOWS_MAX = 1_500;
+
 /** The operating cases with N-1, and the years when the network gives a growth; a refusal becomes the section's sentence. */
 async function studyOfReport(
   db: Awaited<ReturnType<typeof getDb>>,
   network: Parameters<typeof runStudyOnNetwork>[1],
-  document: { growth?: unknown },
+  document: { growth?: { years: number }; cases?: unknown[]; lines: unknown[]; transformers: unknown[] },
   actor: Parameters<typeof revisionReport>[3],
   signal: AbortSignal,
 ): Promise<ReportStudy> {
-  const withYears = document.growth !== undefined;
+  const cases = Math.max(1, document.cases?.length ?? 0);
+  const outageFlows = cases * (document.lines.length + document.transformers.length);
+  const yearFlows = cases * (document.growth?.years ?? 0);
+  const outages = cases + outageFlows <= REPORT_STUDY_LOAD_FLOWS_MAX;
+  const withYears = document.growth !== undefined && cases + (outages ? outageFlows : 0) + yearFlows <= REPORT_STUDY_LOAD_FLOWS_MAX;
+  const left = [outages ? "" : `N-1 (${outageFlows.toLocaleString("en-GB")} load flows)`, document.growth && !withYears ? `the years (${yearFlows.toLocaleString("en-GB")} load flows)` : ""].filter(Boolean);
+  const skipped = left.length > 0 ? `${left.join(" and ")} ${left.length > 1 ? "are" : "is"} too large for a report of this network; run ${left.length > 1 ? "them" : "it"} on the study page.` : null;
   try {
-    const run = await runStudyOnNetwork(db, network, { outages: true, years: withYears }, { signal, actor });
-    if (!run.ok) return { view: null, error: run.error, withYears };
-    return { view: studyView(run.document, run.study), error: null, withYears };
+    const run = await runStudyOnNetwork(db, network, { outages, years: withYears }, { signal, actor });
+    if (!run.ok) return { view: null, error: run.error, withYears, skipped };
+    return { view: studyView(run.document, run.study), error: null, withYears, skipped };
   } catch (failure) {
-    return { view: null, error: computeRefusalOf(failure).error, withYears };
+    return { view: null, error: computeRefusalOf(failure).error, withYears, skipped };
   }
 }
 

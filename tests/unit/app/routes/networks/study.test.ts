@@ -11,6 +11,8 @@ import { loader as csvLoader } from "#app/routes/networks/study-csv.ts";
 import { loader as reportLoader } from "#app/routes/networks/report.tsx";
 import { validateNetwork } from "#solver/schema.ts";
 import { insertMembership } from "#db/teams.ts";
+import { createNetwork } from "#app/lib/networks.server.ts";
+import { starNetwork } from "../../../largeNetworks.ts";
 import { call, cookieFor, getRequest, jsonRequest, makeUser, type Outcome } from "../harness.ts";
 import { demoDocument, freshWorld, makePeople, type People, type World } from "../reviewWorld.ts";
 
@@ -190,5 +192,16 @@ describe("the report's study part", () => {
     expect(report.status).toBe(200);
     expect(report.body.reportStudy.view).toBeNull();
     expect(report.body.reportStudy.error).toMatch(/\w/);
+  });
+
+  it("leaves an N-1 too large for a report to the study page, and says so", async () => {
+    // 1,600 spurs: N-1 alone would be 1,600 load flows.
+    const made = await createNetwork(await getDb(), { teamId: people.team.id, document: starNetwork(1600), authorId: people.owner.id });
+    if (!made.ok) throw new Error("fixture must validate");
+    const report = await call(reportLoader, getRequest(`/networks/${made.network.id}/report`, await newViewer()), { networkId: String(made.network.id) });
+    expect(report.status).toBe(200);
+    expect(report.body.reportStudy.skipped).toMatch(/N-1 \(1,600 load flows\) is too large for a report/);
+    expect(report.body.reportStudy.view.outages).toBeNull();
+    expect(report.body.reportStudy.view.cases).toHaveLength(1);
   });
 });
