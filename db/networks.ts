@@ -29,8 +29,6 @@ export interface DeletedNetworkListing {
   restorableUntil: string;
 }
 
-export type AppendResult = { ok: true; revision: number } | { ok: false; currentRevision: number | null };
-
 function restoreCutoff(now: Date): string {
   return new Date(now.getTime() - RESTORE_WINDOW_DAYS * 86_400_000).toISOString();
 }
@@ -97,27 +95,38 @@ export async function readRevision(
   db: Db,
   networkId: number,
   number: number,
-): Promise<{ document: unknown; createdAt: string; authorName: string | null; message: string } | undefined> {
+): Promise<
+  | { document: unknown; createdAt: string; authorName: string | null; message: string; foldedSaves: number; problems: { path: string; message: string }[] }
+  | undefined
+> {
   const row = await db
     .selectFrom("network_revisions as r")
     .leftJoin("users as u", "u.id", "r.author_id")
-    .select(["r.document", "r.created_at", "r.message", "u.name as authorName"])
+    .select(["r.document", "r.created_at", "r.updated_at", "r.message", "r.folded_saves", "r.problems", "u.name as authorName"])
     .where("r.network_id", "=", networkId)
     .where("r.number", "=", number)
     .executeTakeFirst();
   if (!row) return undefined;
-  return { document: JSON.parse(row.document), createdAt: row.created_at, authorName: row.authorName, message: row.message };
+  return {
+    document: JSON.parse(row.document),
+    createdAt: row.updated_at ?? row.created_at,
+    authorName: row.authorName,
+    message: row.message,
+    foldedSaves: row.folded_saves,
+    problems: row.problems ? JSON.parse(row.problems) : [],
+  };
 }
 
 /** The stored document of one revision as its JSON text, unparsed (for the compute pool to parse off the request thread). */
-export async function readRevisionText(db: Db, networkId: number, number: number): Promise<string | undefined> {
+/** A revision's stored JSON text and when it was last saved (an editing session folds saves into it). */
+export async function readRevisionText(db: Db, networkId: number, number: number): Promise<{ text: string; savedAt: string } | undefined> {
   const row = await db
     .selectFrom("network_revisions")
-    .select("document")
+    .select(["document", "created_at", "updated_at"])
     .where("network_id", "=", networkId)
     .where("number", "=", number)
     .executeTakeFirst();
-  return row?.document;
+  return row && { text: row.document, savedAt: row.updated_at ?? row.created_at };
 }
 
 /** A new network whose revision 1 is the given validated document; its name is the document's. */
@@ -154,34 +163,94 @@ export async function insertNetwork(
   });
 }
 
+/** Autosaves further apart than this start a new editing session, and so a new revision. */
+export const EDITING_SESSION_GAP_MS = 30 * 60_000;
+
+export type SaveOutcome =
+  /** `savedAt` names this version of the revision (its creation, or the save folded into it). */
+  | { ok: true; revision: number; foldedSaves: number; savedAt: string }
+  | { ok: false; currentRevision: number | null };
+
+export interface RevisionWrite {
+  networkId: number;
+  expectedRevision: number;
+  document: Network;
+  /** A draft's problems; empty for a complete network. */
+  problems: { path: string; message: string }[];
+  authorId: number;
+  message?: string;
+  /**
+   * The sheet's autosave sends how many saves it knows are folded into `expectedRevision`; only
+   * then may this save fold into it, and a different count means someone saved in between.
+   */
+  foldedSaves?: number;
+  /** Whether `document` differs from an earlier stored document only in where things are drawn. */
+  layoutOnly(previousDocument: unknown): boolean;
+  now?: Date;
+}
+
 /**
- * Store `document` as the revision after `expectedRevision`, but only if that is still the
- * current one. The guarded UPDATE comes first so the write lock is taken before anything is
- * read; if it matches no row, nothing was written and the caller learns the current revision.
+ * Store `document` after `expectedRevision`, but only if that is still the current one (a
+ * compare-and-swap: a stale writer is told the current revision and nothing of theirs is stored).
+ * An autosave of the same author's open editing session (no message, not issued, saved within
+ * the session gap) folds into that revision instead of adding one.
  */
-export async function appendRevision(
-  db: Db,
-  input: { networkId: number; expectedRevision: number; document: Network; authorId: number; message?: string },
-): Promise<AppendResult> {
+export async function writeRevision(db: Db, input: RevisionWrite): Promise<SaveOutcome> {
   return db.transaction().execute(async (trx) => {
-    const now = new Date().toISOString();
-    const next = input.expectedRevision + 1;
-    const updated = await trx
-      .updateTable("networks")
-      .set({ current_revision: next, name: input.document.name, updated_at: now, updated_by: input.authorId })
+    const now = input.now ?? new Date();
+    const stamp = now.toISOString();
+    const network = await trx
+      .selectFrom("networks")
+      .select("current_revision")
       .where("id", "=", input.networkId)
-      .where("current_revision", "=", input.expectedRevision)
       .where("deleted_at", "is", null)
       .executeTakeFirst();
-    if (Number(updated.numUpdatedRows) !== 1) {
-      const current = await trx
-        .selectFrom("networks")
-        .select("current_revision")
-        .where("id", "=", input.networkId)
-        .where("deleted_at", "is", null)
+    if (!network) return { ok: false, currentRevision: null };
+    if (network.current_revision !== input.expectedRevision) return { ok: false, currentRevision: network.current_revision };
+    const current = await trx
+      .selectFrom("network_revisions")
+      .select(["id", "document", "author_id", "message", "issued_at", "folded_saves", "created_at", "updated_at"])
+      .where("network_id", "=", input.networkId)
+      .where("number", "=", input.expectedRevision)
+      .executeTakeFirstOrThrow();
+    if (input.foldedSaves !== undefined && input.foldedSaves !== current.folded_saves)
+      return { ok: false, currentRevision: network.current_revision };
+    const problems = input.problems.length ? JSON.stringify(input.problems) : null;
+    const lastChange = Date.parse(current.updated_at ?? current.created_at);
+    const fold =
+      input.foldedSaves !== undefined &&
+      input.message === undefined &&
+      current.author_id === input.authorId &&
+      current.message === "" &&
+      current.issued_at === null &&
+      input.expectedRevision > 1 &&
+      now.getTime() - lastChange < EDITING_SESSION_GAP_MS;
+    await trx
+      .updateTable("networks")
+      .set({ current_revision: fold ? input.expectedRevision : input.expectedRevision + 1, name: input.document.name, updated_at: stamp, updated_by: input.authorId })
+      .where("id", "=", input.networkId)
+      .execute();
+    if (fold) {
+      const before = await trx
+        .selectFrom("network_revisions")
+        .select("document")
+        .where("network_id", "=", input.networkId)
+        .where("number", "=", input.expectedRevision - 1)
         .executeTakeFirst();
-      return { ok: false, currentRevision: current?.current_revision ?? null };
+      await trx
+        .updateTable("network_revisions")
+        .set({
+          document: JSON.stringify(input.document),
+          problems,
+          folded_saves: current.folded_saves + 1,
+          updated_at: stamp,
+          layout_only: before && input.layoutOnly(JSON.parse(before.document)) ? 1 : 0,
+        })
+        .where("id", "=", current.id)
+        .execute();
+      return { ok: true, revision: input.expectedRevision, foldedSaves: current.folded_saves + 1, savedAt: stamp };
     }
+    const next = input.expectedRevision + 1;
     await trx
       .insertInto("network_revisions")
       .values({
@@ -189,12 +258,37 @@ export async function appendRevision(
         number: next,
         document: JSON.stringify(input.document),
         author_id: input.authorId,
-        created_at: now,
+        created_at: stamp,
         message: input.message ?? "",
+        problems,
+        layout_only: input.layoutOnly(JSON.parse(current.document)) ? 1 : 0,
       })
       .execute();
-    return { ok: true, revision: next };
+    return { ok: true, revision: next, foldedSaves: 0, savedAt: stamp };
   });
+}
+
+/** Give a revision a name (its message); a named revision closes its editing session. */
+export async function nameRevision(db: Db, networkId: number, number: number, message: string): Promise<boolean> {
+  const result = await db
+    .updateTable("network_revisions")
+    .set({ message })
+    .where("network_id", "=", networkId)
+    .where("number", "=", number)
+    .executeTakeFirst();
+  return Number(result.numUpdatedRows) === 1;
+}
+
+/** Mark a revision issued (sent out as the basis of a decision); it stays issued. */
+export async function markRevisionIssued(db: Db, networkId: number, number: number, userId: number, now = new Date()): Promise<boolean> {
+  const result = await db
+    .updateTable("network_revisions")
+    .set({ issued_at: now.toISOString(), issued_by: userId })
+    .where("network_id", "=", networkId)
+    .where("number", "=", number)
+    .where("issued_at", "is", null)
+    .executeTakeFirst();
+  return Number(result.numUpdatedRows) === 1;
 }
 
 export async function markNetworkDeleted(db: Db, networkId: number, userId: number, now = new Date()): Promise<void> {

@@ -69,6 +69,16 @@ export interface NetworkRevisionsTable {
   author_id: number | null;
   created_at: Timestamp;
   message: ColumnType<string, string | undefined, string>;
+  /** A draft's problems as JSON text ([{ path, message }]); null for a complete network. */
+  problems: string | null;
+  /** Autosaves of one editing session folded into this revision after its first save. */
+  folded_saves: ColumnType<number, number | undefined, number>;
+  /** When a folded save last changed the revision; null if none did. */
+  updated_at: Timestamp | null;
+  issued_at: Timestamp | null;
+  issued_by: number | null;
+  /** 1 when the revision only moved things on the sheet (no engineering change). */
+  layout_only: ColumnType<number, number | undefined, number>;
 }
 
 export interface LadderStudiesTable {

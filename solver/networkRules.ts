@@ -43,7 +43,9 @@ export function networkRules(net: Network, add: AddIssue): void {
   for (let i = 0; i < net.buses.length; i++) busAt.set(net.buses[i].id, i);
   const busRef = (key: (typeof COLLECTIONS)[number], i: number, field: string, busId: string, kind: string) => {
     const at = busAt.get(busId);
-    if (at === undefined) add([key, i, field], `${label(kind, net[key][i])} refers to bus "${busId}", which does not exist`);
+    // An empty reference passes only a draft's shape (schema.ts draftShape): a terminal not connected yet.
+    if (at === undefined)
+      add([key, i, field], busId === "" ? `${label(kind, net[key][i])} is not connected to a bus yet` : `${label(kind, net[key][i])} refers to bus "${busId}", which does not exist`);
     return at === undefined ? undefined : net.buses[at];
   };
 

@@ -205,6 +205,20 @@ export const networkSchema = networkShape.superRefine((net, ctx) =>
   networkRules(net, (path, message) => ctx.addIssue({ code: "custom", path, message })),
 );
 
+/**
+ * A draft: the drawing as a planner leaves it. The shape is the file's own (types, bounds, no
+ * unknown fields), except that a terminal may be connected to nothing yet (an empty bus
+ * reference); the cross-element rules become the draft's problems instead of refusing it.
+ */
+const unconnected = z.string().trim().max(100);
+const draftShape = networkShape.extend({
+  sources: z.array(sourceSchema.extend({ bus: unconnected })).default([]),
+  transformers: z.array(transformerSchema.extend({ hvBus: unconnected, lvBus: unconnected })).default([]),
+  lines: z.array(lineSchema.extend({ fromBus: unconnected, toBus: unconnected })).default([]),
+  loads: z.array(loadSchema.extend({ bus: unconnected })).default([]),
+  shunts: z.array(shuntSchema.extend({ bus: unconnected })).default([]),
+});
+
 /** Messages in a planner's words for the shape errors zod reports in its own. */
 function plainMessage(issue: z.core.$ZodRawIssue): string | undefined {
   switch (issue.code) {
@@ -238,6 +252,26 @@ export function validateNetworkWithSchema(input: unknown): ValidationResult {
     ok: false,
     issues: parsed.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })),
   };
+}
+
+export type DraftValidationResult =
+  | { ok: true; network: Network; problems: ValidationIssue[] }
+  | { ok: false; issues: ValidationIssue[] };
+
+/**
+ * Validate a draft: its shape must hold (else `ok: false`, as for a file); what the cross-element
+ * rules find comes back as `problems`, empty for a complete network.
+ */
+export function validateDraft(input: unknown): DraftValidationResult {
+  const complete = validateNetwork(input);
+  if (complete.ok) return { ok: true, network: complete.network, problems: [] };
+  const shaped = draftShape.safeParse(input, { error: plainMessage });
+  if (!shaped.success) {
+    return { ok: false, issues: shaped.error.issues.map((issue) => ({ path: formatPath(issue.path), message: issue.message })) };
+  }
+  const problems: ValidationIssue[] = [];
+  networkRules(shaped.data as Network, (path, message) => problems.push({ path: formatPath(path), message }));
+  return { ok: true, network: shaped.data as Network, problems };
 }
 
 /** JSON Schema of the network file (input side: optional fields with defaults stay optional). */

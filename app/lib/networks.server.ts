@@ -1,18 +1,18 @@
 // Network writes shared by the pages and the API: every document is validated by the network
 // file's schema before anything is stored, and every change is a new numbered revision.
 import type { Db } from "#db/database.ts";
-import { appendRevision, insertNetwork, markNetworkDeleted, readRevision, readRevisionText, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
+import { insertNetwork, writeRevision, markNetworkDeleted, readRevision, readRevisionText, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";
 import { findTeam } from "#db/teams.ts";
 import { revokeLinksOfNetwork } from "#db/shareLinks.ts";
 import { auditNetworkDeletion } from "./audit.server.ts";
 import { networkNameSchema } from "./fieldSchemas.ts";
-import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import { validateDraft, validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { isTrustedRevision, trustRevision } from "./compute/trustedRevisions.server.ts";
 
 export type CreateResult = { ok: true; network: NetworkRow; document: Network } | { ok: false; issues: ValidationIssue[] };
 export type SaveResult =
-  | { ok: true; revision: number; document: Network }
+  | { ok: true; revision: number; document: Network; foldedSaves: number; problems: ValidationIssue[] }
   | { ok: false; reason: "invalid"; issues: ValidationIssue[] }
   | { ok: false; reason: "stale"; currentRevision: number | null };
 
@@ -28,27 +28,48 @@ export async function createNetwork(
     authorId: input.authorId,
     message: input.message,
   });
-  trustRevision(network.id, network.current_revision);
+  // Revision 1 is written with the network, so its creation time is the network's.
+  trustRevision(network.id, network.current_revision, network.created_at);
   return { ok: true, network, document: checked.network };
 }
 
-/** Save a document as the next revision if `expectedRevision` is still current. */
+/** The document without where its buses are drawn: what an engineering change changes. */
+function withoutLayout(document: unknown): string {
+  if (!document || typeof document !== "object") return JSON.stringify(document);
+  const doc = document as { buses?: unknown };
+  const buses = Array.isArray(doc.buses)
+    ? doc.buses.map((bus) => (bus && typeof bus === "object" ? { ...(bus as object), x: undefined, y: undefined } : bus))
+    : doc.buses;
+  return JSON.stringify({ ...doc, buses });
+}
+
+/**
+ * Save a document after `expectedRevision` if that is still current. A draft (the file's shape,
+ * cross-element rules failing) is kept with its problems; only a wrong shape is refused. The
+ * sheet's autosave passes `foldedSaves` so that one editing session stays one revision.
+ */
 export async function saveNetworkDocument(
   db: Db,
-  input: { networkId: number; expectedRevision: number; document: unknown; authorId: number; message?: string },
+  input: { networkId: number; expectedRevision: number; document: unknown; authorId: number; message?: string; foldedSaves?: number },
 ): Promise<SaveResult> {
-  const checked = validateNetwork(input.document);
+  const checked = validateDraft(input.document);
   if (!checked.ok) return { ok: false, reason: "invalid", issues: checked.issues };
-  const result = await appendRevision(db, {
+  const next = JSON.stringify(checked.network);
+  const nextEngineering = withoutLayout(checked.network);
+  const result = await writeRevision(db, {
     networkId: input.networkId,
     expectedRevision: input.expectedRevision,
     document: checked.network,
+    problems: checked.problems,
     authorId: input.authorId,
     message: input.message,
+    foldedSaves: input.foldedSaves,
+    layoutOnly: (previous) => JSON.stringify(previous) !== next && withoutLayout(previous) === nextEngineering,
   });
   if (!result.ok) return { ok: false, reason: "stale", currentRevision: result.currentRevision };
-  trustRevision(input.networkId, result.revision);
-  return { ok: true, revision: result.revision, document: checked.network };
+  // Only a complete network is trusted: a draft would fail the checks the pool then skips.
+  if (!checked.problems.length) trustRevision(input.networkId, result.revision, result.savedAt);
+  return { ok: true, revision: result.revision, foldedSaves: result.foldedSaves, document: checked.network, problems: checked.problems };
 }
 
 /** The current revision's document of a network, as stored (already validated when saved). */
@@ -58,15 +79,26 @@ export async function currentDocument(db: Db, network: NetworkRow) {
   return revision;
 }
 
+type StoredDocument = { document: unknown; createdAt: string };
+
 /**
  * The stored revision's document as the network file's checks see it: a revision this process has
  * validated (on save, or before) is trusted as stored, with no second validation on each page
- * view; any other is validated now and trusted once it passes.
+ * view; any other is validated now and trusted once it passes. `createdAt` is when the revision
+ * was last saved, which names its version (an editing session folds saves into it).
  */
-export function checkedRevision(network: NetworkRow, document: unknown): ReturnType<typeof validateNetwork> {
-  if (isTrustedRevision(network.id, network.current_revision)) return { ok: true, network: document as Network };
-  const checked = validateNetwork(document);
-  if (checked.ok) trustRevision(network.id, network.current_revision);
+export function checkedRevision(network: NetworkRow, revision: StoredDocument): ReturnType<typeof validateNetwork> {
+  if (isTrustedRevision(network.id, network.current_revision, revision.createdAt)) return { ok: true, network: revision.document as Network };
+  const checked = validateNetwork(revision.document);
+  if (checked.ok) trustRevision(network.id, network.current_revision, revision.createdAt);
+  return checked;
+}
+
+/** As checkedRevision, for the sheet, which also opens a draft: its cross-element problems come back as `problems`. */
+export function checkedDraft(network: NetworkRow, revision: StoredDocument): ReturnType<typeof validateDraft> {
+  if (isTrustedRevision(network.id, network.current_revision, revision.createdAt)) return { ok: true, network: revision.document as Network, problems: [] };
+  const checked = validateDraft(revision.document);
+  if (checked.ok && !checked.problems.length) trustRevision(network.id, network.current_revision, revision.createdAt);
   return checked;
 }
 
@@ -75,12 +107,13 @@ export function checkedRevision(network: NetworkRow, document: unknown): ReturnT
  * a bus has "nominalKV"), and whether this process has validated it with the current validator
  * (on save, or on a first solve), so the compute pool may trust it and skip the validation.
  */
-export async function currentDocumentText(db: Db, network: NetworkRow): Promise<{ text: string; buses: number; trusted: boolean }> {
-  const text = await readRevisionText(db, network.id, network.current_revision);
-  if (text === undefined) throw new Error(`Network ${network.id} has no revision ${network.current_revision}`);
+export async function currentDocumentText(db: Db, network: NetworkRow): Promise<{ text: string; savedAt: string; buses: number; trusted: boolean }> {
+  const stored = await readRevisionText(db, network.id, network.current_revision);
+  if (stored === undefined) throw new Error(`Network ${network.id} has no revision ${network.current_revision}`);
+  const { text, savedAt } = stored;
   let buses = 0;
   for (let at = text.indexOf('"nominalKV":'); at !== -1; at = text.indexOf('"nominalKV":', at + 12)) buses++;
-  return { text, buses, trusted: isTrustedRevision(network.id, network.current_revision) };
+  return { text, savedAt, buses, trusted: isTrustedRevision(network.id, network.current_revision, savedAt) };
 }
 
 /**

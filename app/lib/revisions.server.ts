@@ -5,7 +5,7 @@ import { insertAuditEvent } from "#db/auditEvents.ts";
 import { readRevision } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";
 import { listRevisions } from "#db/revisions.ts";
-import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
+import { validateDraft, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { saveNetworkDocument } from "./networks.server.ts";
 import { diffRevisions, type RevisionDiff } from "./revisionDiff.ts";
 
@@ -16,7 +16,8 @@ export type CheckedRevision =
 export async function checkedRevision(db: Db, networkId: number, number: number): Promise<CheckedRevision | undefined> {
   const revision = await readRevision(db, networkId, number);
   if (!revision) return undefined;
-  const checked = validateNetwork(revision.document);
+  // A draft is a revision like any other: it compares and restores.
+  const checked = validateDraft(revision.document);
   if (!checked.ok) return { ok: false, number, issues: checked.issues };
   return { ok: true, number, createdAt: revision.createdAt, authorName: revision.authorName, message: revision.message, document: checked.network };
 }

@@ -8,6 +8,7 @@ import * as libraryTypesAndApiTokens from "./2026-12-10-01-library-types-and-api
 import * as sharingAndReview from "./2026-12-11-01-sharing-and-review.ts";
 import * as verifiedAddresses from "./2026-12-12-01-verified-addresses.ts";
 import * as guestReviewNotes from "./2026-12-13-01-guest-review-notes.ts";
+import * as draftsAndEditingSessions from "./2026-12-13-02-drafts-and-editing-sessions.ts";
 
 export const migrations: Record<string, Migration> = {
   "2026-12-01-01-accounts-and-teams": accountsAndTeams,
@@ -17,6 +18,7 @@ export const migrations: Record<string, Migration> = {
   "2026-12-11-01-sharing-and-review": sharingAndReview,
   "2026-12-12-01-verified-addresses": verifiedAddresses,
   "2026-12-13-01-guest-review-notes": guestReviewNotes,
+  "2026-12-13-02-drafts-and-editing-sessions": draftsAndEditingSessions,
 };
 
 export const migrationProvider: MigrationProvider = {

@@ -45,7 +45,7 @@ export function ChecksPanel() {
     summary = `Not solved: ${solve.issues.length} ${solve.issues.length === 1 ? "thing" : "things"} to fix`;
     body = <IssueList issues={solve.issues} lead="The drawing is not a complete network yet, so there are no readings:" />;
   } else {
-    const { result, elapsedMs } = solve.readings;
+    const { result, elapsedMs, problems, leftOut } = solve.readings;
     const converged = result.loadFlow.converged;
     const limitChecks = result.checks.filter((c) => c.kind !== "not-converged");
     summary = !converged
@@ -53,8 +53,15 @@ export function ChecksPanel() {
       : limitChecks.length
         ? `${limitChecks.length} ${limitChecks.length === 1 ? "limit" : "limits"} broken`
         : "Every limit kept";
+    if (problems.length) summary = `${summary} · ${problems.length} ${problems.length === 1 ? "thing" : "things"} to finish`;
     body = (
       <>
+        {problems.length ? (
+          <IssueList
+            issues={problems}
+            lead={`Not finished yet: ${leftOut.size} ${leftOut.size === 1 ? "element is" : "elements are"} left out of the solution (marked on the sheet); the rest is solved.`}
+          />
+        ) : null}
         {!converged ? (
           <p className="ks-check ks-check-issue" role="alert">
             <span aria-hidden="true">✕ </span>
@@ -78,10 +85,11 @@ export function ChecksPanel() {
             ))}
           </ul>
         ) : null}
-        <p className="ks-panel-foot">
-          Solved in the browser in {fixed(elapsedMs, 1)} ms
-          {converged ? `, ${result.loadFlow.iterations} iterations` : ""}.
-        </p>
+        {converged ? (
+          <p className="ks-panel-foot">
+            Solved in the browser in {fixed(elapsedMs, 1)} ms, {result.loadFlow.iterations} iterations.
+          </p>
+        ) : null}
       </>
     );
   }

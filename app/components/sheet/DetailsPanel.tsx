@@ -2,7 +2,7 @@
 // Every value is checked by the network file's own element schema before it is written.
 import { useMemo } from "react";
 import { formatQuantity } from "#app/lib/unitFormat.ts";
-import type { Line, Network, Transformer } from "#solver/schema.ts";
+import type { Line, Load, Network, Transformer } from "#solver/schema.ts";
 import { documentIssues, type SheetIssue } from "./documentIssues.ts";
 import { checkField, fieldsFor, type FieldDef } from "./elementFields.ts";
 import { applyConductorType, applyTransformerType } from "./equipmentApply.ts";
@@ -164,11 +164,43 @@ function ElementForm({ entry, doc, readOnly, issues, library }: { entry: Element
           <div key={field.key}>
             {input}
             {field.key === "tapPct" ? <TapButtons transformer={entry.element as Transformer} commit={commit} /> : null}
+            {entry.kind === "load" && field.key === "pMW" ? <PowerFactorField load={entry.element as Load} commit={commit} /> : null}
             {field.key === notesAfter ? perUnit : null}
           </div>
         );
       })}
     </div>
+  );
+}
+
+/** cos φ = P / √(P² + Q²); undefined without a flow of active power. */
+export function loadPowerFactor(load: Pick<Load, "pMW" | "qMvar">): number | undefined {
+  const apparent = Math.hypot(load.pMW, load.qMvar);
+  return apparent > 0 && load.pMW !== 0 ? Number((Math.abs(load.pMW) / apparent).toPrecision(4)) : undefined;
+}
+
+/** Q for a power factor at the load's P: Q = P · tan(acos(cos φ)), lagging (Q > 0) unless Q was leading. */
+export function reactiveForPowerFactor(load: Pick<Load, "pMW" | "qMvar">, powerFactor: number): number {
+  const q = Math.abs(load.pMW) * Math.tan(Math.acos(powerFactor));
+  return Number((load.qMvar < 0 ? -q : q).toPrecision(10));
+}
+
+/** Planners often know a load's power factor rather than its Q: typing one sets Q at this P. */
+function PowerFactorField({ load, commit }: { load: Load; commit(key: string, value: unknown): string | undefined }) {
+  return (
+    <QuantityField
+      label="Power factor cos φ"
+      unit="ratio"
+      value={loadPowerFactor(load)}
+      optional
+      hint={load.qMvar < 0 ? "leading; sets the reactive power Q at this P" : "lagging; sets the reactive power Q at this P"}
+      onCommit={(value) => {
+        if (value === undefined) return undefined;
+        if (!(value > 0 && value <= 1)) return "must be above 0 and at most 1";
+        if (load.pMW === 0) return "needs an active power P first";
+        return commit("qMvar", reactiveForPowerFactor(load, value));
+      }}
+    />
   );
 }
 

@@ -1,11 +1,12 @@
 // The sheet itself: xyflow drawing the nodes and wires derived from the document, and turning
 // the planner's drags, connections and selections back into edits of the store.
-import { useCallback, useEffect, useMemo, useRef, type DragEvent } from "react";
+import { useCallback, useEffect, useMemo, useRef, type CSSProperties, type DragEvent } from "react";
 import {
   Background,
   BackgroundVariant,
   ConnectionLineType,
   ConnectionMode,
+  MiniMap,
   Panel,
   ReactFlow,
   useReactFlow,
@@ -26,13 +27,32 @@ import {
   type XY,
 } from "./flowModel.ts";
 import { nodeTypes } from "./nodes.tsx";
+import { VoltageLegend } from "./SheetToolbar.tsx";
+import { strokeFor } from "./voltageClasses.ts";
 import { partKinds, type PartKind } from "./sheetEdits.ts";
 import { useSheet, useSheetActions, useSheetStoreApi } from "./sheetStore.ts";
 import { edgeTypes } from "./wires.tsx";
 
 export const PART_DRAG_TYPE = "application/x-kilostep-part";
 
-const FAR_ZOOM = 0.5;
+/**
+ * How much the sheet says at each zoom. Close in, every reading; further out, fewer and larger:
+ * names and the first line of each reading, their text scaled so that it stays legible on
+ * screen; far out, busbars only. The scale is capped so larger text does not swamp the drawing.
+ */
+const CLOSE_ZOOM = 0.9;
+const FAR_ZOOM = 0.4;
+const MAX_TEXT_SCALE = 3.2;
+
+function zoomDetail(zoom: number): { className: string; textScale: number } {
+  const textScale = Math.min(MAX_TEXT_SCALE, Math.max(1, 1 / zoom));
+  if (zoom >= CLOSE_ZOOM) return { className: "ks-sheet", textScale: 1 };
+  return { className: zoom < FAR_ZOOM ? "ks-sheet ks-sheet-mid ks-sheet-far" : "ks-sheet ks-sheet-mid", textScale: Math.round(textScale * 20) / 20 };
+}
+
+function busColour(node: SheetNode): string {
+  return node.type === "bus" ? strokeFor((node.data.element as { nominalKV: number }).nominalKV).colour : "#b9b2a2";
+}
 
 const snapToGrid = (p: XY): XY => ({ x: Math.round(p.x / GRID_PX) * GRID_PX, y: Math.round(p.y / GRID_PX) * GRID_PX });
 
@@ -133,10 +153,11 @@ export function SheetCanvas() {
   useEffect(() => {
     if (!viewMovedByHand.current && paneWidth > 0 && paneHeight > 0) void fitView({ padding: 0.2, maxZoom: 1.25 });
   }, [paneWidth, paneHeight, fitView]);
-  // Below this zoom, 11 px text is smaller than 5 px on screen: names and Readings are left out,
-  // which also keeps a large sheet quick to redraw.
-  const far = useFlowStore((flow) => flow.transform[2] < FAR_ZOOM);
-  const showReadings = useSheet((s) => s.showReadings);
+  const detail = useFlowStore((flow) => {
+    const { className, textScale } = zoomDetail(flow.transform[2]);
+    return `${className}|${textScale}`;
+  });
+  const [sheetClass, textScale] = detail.split("|");
 
   const flow = useMemo(
     () => documentToFlow(document, layout, { selection: new Set(selection), overrides: dragPositions ?? undefined }),
@@ -259,14 +280,14 @@ export function SheetCanvas() {
       onMoveStart={(event) => {
         if (event) viewMovedByHand.current = true;
       }}
-      className={far ? "ks-sheet ks-sheet-far" : "ks-sheet"}
+      className={sheetClass}
+      style={{ "--ks-text-scale": textScale } as CSSProperties}
       aria-label="The sheet"
     >
-      {far && showReadings ? (
-        <Panel position="top-right" className="ks-far-hint">
-          Zoom in to read names and Readings
-        </Panel>
-      ) : null}
+      <MiniMap className="ks-minimap" style={{ width: 150, height: 96 }} pannable zoomable nodeColor={busColour} nodeStrokeWidth={0} ariaLabel="Overview of the drawing" />
+      <Panel position="top-left" className="ks-legend-panel">
+        <VoltageLegend />
+      </Panel>
       <Background id="minor" variant={BackgroundVariant.Lines} gap={GRID_PX} lineWidth={0.5} color="var(--ks-grid-minor)" />
       <Background id="major" variant={BackgroundVariant.Lines} gap={GRID_PX * 5} lineWidth={0.8} color="var(--ks-grid-major)" />
     </ReactFlow>

@@ -1,8 +1,11 @@
-// The sheet editor: parts shelf, the sheet, Details and Checks beside it, Results under it.
-// One store per editor (see sheetStore.ts); saving, drafts and live solving hang off that store.
+// The sheet editor: a workspace that fills its frame. The parts shelf and the side dock
+// (Details, Checks, notes) sit beside the drawing and fold away; Results sit under the drawing in
+// a panel the planner resizes, so drawing and numbers are seen together. On a phone the parts
+// stack: drawing, Checks, Results, Details. One store per editor (see sheetStore.ts); saving,
+// drafts and live solving hang off that store.
 import "@xyflow/react/dist/style.css";
 import "./sheet.css";
-import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode } from "react";
+import { useCallback, useEffect, useMemo, useRef, useState, type CSSProperties, type ReactNode } from "react";
 import { ReactFlowProvider, useReactFlow } from "@xyflow/react";
 import type { Network } from "#solver/schema.ts";
 import { browserEnvironment, startAutosave, type Autosave } from "./autosave.ts";
@@ -13,6 +16,7 @@ import type { EquipmentTypes } from "./EquipmentPicker.tsx";
 import { freeSpotNear, GRID_PX, partSize, sheetGeometry, type XY } from "./flowModel.ts";
 import { READINGS_MEASURE, useLiveSolve } from "./liveSolve.ts";
 import { PartsShelf } from "./PartsShelf.tsx";
+import { DEFAULT_RESULTS_SHARE, ResultsSplitter } from "./ResultsSplitter.tsx";
 import { ResultsTabs } from "./ResultsTabs.tsx";
 import { ConflictBanner, DraftBanner, NoticeToast } from "./SheetBanners.tsx";
 import { SheetCanvas } from "./SheetCanvas.tsx";
@@ -27,6 +31,8 @@ export interface SheetEditorProps {
   networkId: string | number;
   document: Network;
   revision: number;
+  /** Autosaves already folded into that revision: the editing session continues after a reload. */
+  foldedSaves?: number;
   /** Viewers: no shelf, no dragging or connecting, Details read only, no saving. */
   readOnly?: boolean;
   /** The team's own equipment types, offered before the built-in ones. */
@@ -35,18 +41,25 @@ export interface SheetEditorProps {
   aside?: ReactNode;
   /** Where the results CSV downloads come from (default the network's API); null hides them. */
   resultsCsvBase?: string | null;
+  /** The page's own slim header (title and links); given, the editor fills the window. */
+  head?: ReactNode;
 }
 
-export function SheetEditor({ networkId, document, revision, readOnly = false, library, aside, resultsCsvBase }: SheetEditorProps) {
-  const [store] = useState(() => createSheetStore({ networkId: String(networkId), document, revision, readOnly }));
+export function SheetEditor({ networkId, document, revision, foldedSaves, readOnly = false, library, aside, resultsCsvBase, head }: SheetEditorProps) {
+  const [store] = useState(() => createSheetStore({ networkId: String(networkId), document, revision, foldedSaves, readOnly }));
   return (
     <SheetStoreContext.Provider value={store}>
       <ReactFlowProvider>
-        <EditorLayout library={library ?? {}} aside={aside} resultsCsvBase={resultsCsvBase} />
+        <EditorLayout library={library ?? {}} aside={aside} resultsCsvBase={resultsCsvBase} head={head} />
       </ReactFlowProvider>
     </SheetStoreContext.Provider>
   );
 }
+
+/** Below this width the shelf and the dock start folded, so the drawing keeps the room. */
+const ROOMY_WIDTH_PX = 1100;
+/** Below this width the dock's panels are lists under the drawing (sheet.css), so they stay. */
+const PHONE_WIDTH_PX = 768;
 
 /**
  * The sheet's pan and zoom keep the pointer from taking focus, so a Details field would stay
@@ -64,10 +77,12 @@ function EditorLayout({
   library,
   aside,
   resultsCsvBase,
+  head,
 }: {
   library: EquipmentTypes;
   aside: ReactNode;
   resultsCsvBase: string | null | undefined;
+  head: ReactNode;
 }) {
   const store = useSheetStoreApi();
   const readOnly = useSheet((s) => s.readOnly);
@@ -76,9 +91,17 @@ function EditorLayout({
   const canvasRef = useRef<HTMLDivElement>(null);
   const saver = useRef<Autosave | null>(null);
   const [draft, setDraft] = useState<Draft | undefined>();
-  const { fitView, screenToFlowPosition } = useReactFlow();
+  const { fitView, screenToFlowPosition, zoomIn, zoomOut } = useReactFlow();
+  const [shelfOpen, setShelfOpen] = useState(true);
+  const [dockOpen, setDockOpen] = useState(true);
+  const [resultsShare, setResultsShare] = useState(DEFAULT_RESULTS_SHARE);
 
   useLiveSolve(store);
+
+  useEffect(() => {
+    if (window.innerWidth < ROOMY_WIDTH_PX) setShelfOpen(false);
+    if (window.innerWidth < ROOMY_WIDTH_PX && window.innerWidth >= PHONE_WIDTH_PX) setDockOpen(false);
+  }, []);
 
   useEffect(() => {
     const env = browserEnvironment();
@@ -140,6 +163,7 @@ function EditorLayout({
   const handlers: ShortcutHandlers = useMemo(
     () => ({
       fit,
+      zoom: (direction) => void (direction === "in" ? zoomIn : zoomOut)({ duration: 150 }),
       placeAtCentre,
       nudge: (dx, dy) => {
         const { document, layout, selection, actions } = store.getState();
@@ -152,13 +176,20 @@ function EditorLayout({
         if (Object.keys(moves).length) actions.commitMoves(moves);
       },
     }),
-    [fit, placeAtCentre, store],
+    [fit, placeAtCentre, store, zoomIn, zoomOut],
   );
   useSheetShortcuts(store, rootRef, handlers);
 
+  const panels = { shelfOpen, dockOpen, onShelf: () => setShelfOpen(!shelfOpen), onDock: () => setDockOpen(!dockOpen) };
   return (
-    <div ref={rootRef} className={`ks-editor${readOnly ? " ks-editor-readonly" : ""}`}>
-      <SheetToolbar onFit={fit} />
+    <div
+      ref={rootRef}
+      className={`ks-editor${head ? " ks-editor-full" : ""}${readOnly ? " ks-editor-readonly" : ""}`}
+      data-shelf={readOnly || !shelfOpen ? "closed" : "open"}
+      data-dock={dockOpen ? "open" : "closed"}
+    >
+      {head ? <header className="ks-head">{head}</header> : null}
+      <SheetToolbar onFit={fit} panels={panels} />
       <ConflictBanner onReloadTheirs={() => void saver.current?.reloadTheirs()} onKeepMine={() => saver.current?.keepMine()} />
       {draft ? (
         <DraftBanner
@@ -175,20 +206,29 @@ function EditorLayout({
           }}
         />
       ) : null}
-      <NoticeToast />
-      <div className="ks-editor-main">
-        {readOnly ? null : <PartsShelf onPlace={placeAtCentre} />}
-        <div className="ks-centre">
+      <div className="ks-workspace">
+        {readOnly || !shelfOpen ? null : <PartsShelf onPlace={placeAtCentre} />}
+        <div className="ks-centre" style={{ "--ks-results-share": `${resultsShare}%` } as CSSProperties}>
           <div className="ks-canvas" ref={canvasRef} onPointerDownCapture={commitFieldBeingTyped}>
             <SheetCanvas />
+            <NoticeToast />
           </div>
-          <ResultsTabs csvBase={resultsCsvBase} />
+          <ResultsSplitter share={resultsShare} onChange={setResultsShare} />
+          <div className="ks-results-dock">
+            <ResultsTabs csvBase={resultsCsvBase} />
+          </div>
         </div>
-        <div className="ks-side">
-          <DetailsPanel library={library} />
-          <ChecksPanel />
-          {aside}
-        </div>
+        {dockOpen ? (
+          <div className="ks-side" id="ks-dock">
+            <div className="ks-dock-details">
+              <DetailsPanel library={library} />
+            </div>
+            <div className="ks-dock-checks">
+              <ChecksPanel />
+            </div>
+            <div className="ks-dock-aside">{aside}</div>
+          </div>
+        ) : null}
       </div>
       <ShortcutHelp />
     </div>

@@ -1,4 +1,6 @@
-// The bar above the sheet: history, layout and view actions, the save state, the voltage legend.
+// The bar above the sheet: the panels, history, layout and view actions, and the save state.
+// It stays one slim row: longer explanations go to Checks or a tooltip, never into the bar.
+import { useReactFlow } from "@xyflow/react";
 import { fixed } from "#app/lib/format.ts";
 import { afterNextPaint } from "./shortcuts.ts";
 import { useSheet, useSheetActions, useSheetHistory, type SaveStatus } from "./sheetStore.ts";
@@ -15,12 +17,12 @@ function saveText(save: SaveStatus, readOnly: boolean): { icon: string; text: st
       return { icon: "↻", text: "Saving…", tone: "ks-save-quiet" };
     case "offline":
       return { icon: "⚡", text: "Offline", tone: "ks-save-warn", detail: "Changes are kept in this browser and saved when the connection is back." };
-    case "invalid":
+    case "draft":
       return {
-        icon: "✕",
-        text: "Not saved",
-        tone: "ks-save-bad",
-        detail: `Not a complete network yet: ${save.issues[0]?.message ?? ""}${save.issues.length > 1 ? ` (and ${save.issues.length - 1} more, see Checks)` : ""}. Kept in this browser.`,
+        icon: "✓",
+        text: `Saved as a draft · ${save.problems.length} ${save.problems.length === 1 ? "problem" : "problems"}`,
+        tone: "ks-save-draft",
+        detail: "Not a complete network yet; the server keeps it as it is. Checks lists what is left to do.",
       };
     case "conflict":
       return { icon: "✕", text: "Not saved", tone: "ks-save-bad", detail: "Someone saved a newer revision." };
@@ -35,13 +37,13 @@ export function SaveIndicator() {
   const revision = useSheet((s) => s.savedRevision);
   const shown = saveText(save, readOnly);
   return (
-    <div className={`ks-save ${shown.tone}`} role="status" aria-live="polite">
+    <div className={`ks-save ${shown.tone}`} role="status" aria-live="polite" title={shown.detail}>
       <span aria-hidden="true" className="ks-save-icon">
         {shown.icon}
       </span>
       <span className="ks-save-text">{shown.text}</span>
-      <span className="ks-muted"> · revision {revision}</span>
-      {shown.detail ? <span className="ks-save-detail">{shown.detail}</span> : null}
+      <span className="ks-muted ks-save-revision"> · revision {revision}</span>
+      {shown.detail ? <span className="sr-only">{shown.detail}</span> : null}
     </div>
   );
 }
@@ -61,22 +63,40 @@ export function VoltageLegend() {
   );
 }
 
-export function SheetToolbar({ onFit }: { onFit(): void }) {
+export interface PanelToggles {
+  shelfOpen: boolean;
+  dockOpen: boolean;
+  onShelf(): void;
+  onDock(): void;
+}
+
+/** "Solved in" only for a load flow that converged: beside "did not converge" it would mislead. */
+function useSolvedInMs(): number | undefined {
+  return useSheet((s) => (s.solve.kind === "solved" && s.solve.readings.result.loadFlow.converged ? s.solve.readings.elapsedMs : undefined));
+}
+
+export function SheetToolbar({ onFit, panels }: { onFit(): void; panels: PanelToggles }) {
   const actions = useSheetActions();
   const readOnly = useSheet((s) => s.readOnly);
   const showReadings = useSheet((s) => s.showReadings);
   const showFaults = useSheet((s) => s.showFaults);
   const canUndo = useSheetHistory((h) => h.pastStates.length > 0);
   const canRedo = useSheetHistory((h) => h.futureStates.length > 0);
-  const elapsedMs = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.elapsedMs : undefined));
+  const elapsedMs = useSolvedInMs();
+  const { zoomIn, zoomOut } = useReactFlow();
   return (
     <div className="ks-toolbar" role="toolbar" aria-label="Sheet tools">
+      {readOnly ? null : (
+        <button type="button" className="btn btn-small ks-panel-toggle" aria-expanded={panels.shelfOpen} onClick={panels.onShelf}>
+          Parts
+        </button>
+      )}
       {readOnly ? null : (
         <div className="ks-tool-group">
           <button type="button" className="btn btn-small" onClick={actions.undo} disabled={!canUndo} aria-keyshortcuts="Control+Z">
             Undo
           </button>
-          <button type="button" className="btn btn-small" onClick={actions.redo} disabled={!canRedo} aria-keyshortcuts="Control+Shift+Z">
+          <button type="button" className="btn btn-small" onClick={actions.redo} disabled={!canRedo} aria-keyshortcuts="Control+Y Control+Shift+Z">
             Redo
           </button>
           <button type="button" className="btn btn-small" onClick={() => void actions.arrange().then(() => afterNextPaint(onFit))} aria-keyshortcuts="Shift+L">
@@ -84,24 +104,34 @@ export function SheetToolbar({ onFit }: { onFit(): void }) {
           </button>
         </div>
       )}
-      <div className="ks-tool-group">
+      <div className="ks-tool-group" role="group" aria-label="Zoom">
+        <button type="button" className="btn btn-small ks-zoom" onClick={() => void zoomOut({ duration: 150 })} aria-label="Zoom out" aria-keyshortcuts="-">
+          −
+        </button>
+        <button type="button" className="btn btn-small ks-zoom" onClick={() => void zoomIn({ duration: 150 })} aria-label="Zoom in" aria-keyshortcuts="+">
+          +
+        </button>
         <button type="button" className="btn btn-small" onClick={onFit} aria-keyshortcuts="F">
           Fit
         </button>
+      </div>
+      <div className="ks-tool-group">
         <button type="button" className="btn btn-small" aria-pressed={showReadings} onClick={() => actions.setShowReadings(!showReadings)} aria-keyshortcuts="R">
           Readings
         </button>
         <button type="button" className="btn btn-small" aria-pressed={showFaults} onClick={() => actions.setShowFaults(!showFaults)} aria-keyshortcuts="K">
           Fault levels (kA)
         </button>
-        <button type="button" className="btn btn-small" onClick={() => actions.setHelpOpen(true)} aria-keyshortcuts="Shift+?">
+        <button type="button" className="btn btn-small ks-keys" onClick={() => actions.setHelpOpen(true)} aria-keyshortcuts="Shift+?">
           Keys <kbd>?</kbd>
         </button>
       </div>
-      <VoltageLegend />
       <div className="ks-tool-end">
         {elapsedMs !== undefined ? <span className="ks-muted ks-solve-time">solved in {fixed(elapsedMs, 1)} ms</span> : null}
         <SaveIndicator />
+        <button type="button" className="btn btn-small ks-panel-toggle" aria-expanded={panels.dockOpen} aria-controls="ks-dock" onClick={panels.onDock}>
+          Details
+        </button>
       </div>
     </div>
   );

@@ -1,11 +1,12 @@
 // Every edit is saved: shortly after the planner stops, the document goes to
 // PUT /api/networks/:id with the revision it was made on. A newer revision on the server stops
 // saving and asks the planner (reload theirs, or keep mine as a new revision); nothing is
-// overwritten silently. Until the server confirms, the edits are kept in this browser.
-import { validateNetwork, type Network } from "#solver/schema.ts";
-import { documentIssues } from "./documentIssues.ts";
+// overwritten silently. Until the server confirms, the edits are kept in this browser. A drawing
+// that is not a complete network yet is saved all the same: the server keeps it as a draft and
+// lists its problems, so a cleared browser or a colleague's browser loses nothing.
+import { validateDraft, type Network } from "#solver/schema.ts";
 import { clearDrafts, writeDraft, writeLayout } from "./draftStorage.ts";
-import type { SheetStore } from "./sheetStore.ts";
+import { savedState, type SheetStore } from "./sheetStore.ts";
 
 export const AUTOSAVE_DELAY_MS = 600;
 const OFFLINE_RETRY_MS = 5000;
@@ -64,7 +65,7 @@ export function startAutosave(store: SheetStore, env: AutosaveEnvironment): Auto
   };
 
   const markClean = () => {
-    actions().setSave({ kind: "saved" });
+    actions().setSave(savedState(store.getState().document));
     if (env.storage) clearDrafts(env.storage, networkId);
   };
 
@@ -73,11 +74,6 @@ export function startAutosave(store: SheetStore, env: AutosaveEnvironment): Auto
     if (stopped || state.readOnly || state.save.kind === "conflict") return;
     if (state.document === state.savedDocument) {
       markClean();
-      return;
-    }
-    const issues = documentIssues(state.document);
-    if (issues.length) {
-      actions().setSave({ kind: "invalid", issues });
       return;
     }
     if (!env.isOnline()) {
@@ -96,11 +92,11 @@ export function startAutosave(store: SheetStore, env: AutosaveEnvironment): Auto
         method: "PUT",
         headers: { "content-type": "application/json", accept: "application/json" },
         credentials: "same-origin",
-        body: JSON.stringify({ revision: state.savedRevision, document }),
+        body: JSON.stringify({ revision: state.savedRevision, foldedSaves: state.savedFoldedSaves, document }),
       });
       const body = await readJson(response);
       if (response.ok && typeof body.revision === "number") {
-        actions().markSaved(body.revision, document);
+        actions().markSaved(body.revision, document, typeof body.foldedSaves === "number" ? body.foldedSaves : undefined);
         if (store.getState().document === document) markClean();
         else again = true;
       } else if (response.status === 409 && typeof body.currentRevision === "number") {
@@ -169,9 +165,9 @@ export function startAutosave(store: SheetStore, env: AutosaveEnvironment): Auto
           actions().setSave({ kind: "refused", message: `Their revision could not be loaded (the server answered ${response.status}). Nothing was changed.` });
           return;
         }
-        const checked = validateNetwork(body.document);
+        const checked = validateDraft(body.document);
         actions().replaceDocument(checked.ok ? checked.network : (body.document as Network));
-        actions().markSaved(body.revision, store.getState().document);
+        actions().markSaved(body.revision, store.getState().document, typeof body.foldedSaves === "number" ? body.foldedSaves : undefined);
         markClean();
       } catch {
         actions().setSave({ kind: "offline" });

@@ -3,7 +3,33 @@
 // network until the value is committed (Enter or leaving the field).
 import { useEffect, useId, useRef, useState, type KeyboardEvent, type ReactNode } from "react";
 import { unitLabel, type QuantityKind } from "#app/lib/unitFormat.ts";
+import { REVERT_FIELD_EVENT, SHEET_FIELD_ATTRIBUTE, UNCOMMITTED_ATTRIBUTE } from "./shortcuts.ts";
 import { useUnitParser } from "./unitParser.ts";
+
+/**
+ * The text of a field follows the sheet's value whenever that value changes (an undo, a redo, a
+ * reload of theirs), even while the field has focus: a field never keeps text the sheet did not
+ * put there. Ctrl+Z on a field with uncommitted typing drops that typing (shortcuts.ts).
+ */
+function useSheetFieldText(shown: string, onRevert: () => void) {
+  const [text, setText] = useState(shown);
+  const ref = useRef<HTMLInputElement>(null);
+  useEffect(() => setText(shown), [shown]);
+  const revert = useRef(onRevert);
+  revert.current = onRevert;
+  useEffect(() => {
+    const input = ref.current;
+    if (!input) return;
+    const listener = () => {
+      setText(shown);
+      revert.current();
+    };
+    input.addEventListener(REVERT_FIELD_EVENT, listener);
+    return () => input.removeEventListener(REVERT_FIELD_EVENT, listener);
+  }, [shown]);
+  const fieldProps = { ref, [SHEET_FIELD_ATTRIBUTE]: "", [UNCOMMITTED_ATTRIBUTE]: text !== shown ? "" : undefined };
+  return { text, setText, fieldProps };
+}
 
 function numberText(value: number | undefined): string {
   return value === undefined ? "" : String(Number(value.toPrecision(12)));
@@ -53,17 +79,11 @@ export interface QuantityFieldProps {
 
 export function QuantityField({ label, unit, value, optional, hint, externalError, onCommit }: QuantityFieldProps) {
   const inputId = useId();
-  const [text, setText] = useState(numberText(value));
   const [error, setError] = useState<string | undefined>();
-  const focused = useRef(false);
+  const { text, setText, fieldProps } = useSheetFieldText(numberText(value), () => setError(undefined));
   const parseQuantity = useUnitParser();
 
-  useEffect(() => {
-    if (!focused.current) {
-      setText(numberText(value));
-      setError(undefined);
-    }
-  }, [value]);
+  useEffect(() => setError(undefined), [value]);
 
   const live = parseQuantity && text.trim() && text.trim() !== numberText(value) ? parseQuantity(text, unit) : undefined;
 
@@ -127,11 +147,8 @@ export function QuantityField({ label, unit, value, optional, hint, externalErro
           placeholder={optional ? "not given" : undefined}
           aria-invalid={shownError ? true : undefined}
           aria-describedby={describedBy}
-          onFocus={() => (focused.current = true)}
-          onBlur={() => {
-            focused.current = false;
-            commit();
-          }}
+          {...fieldProps}
+          onBlur={commit}
           onChange={(event) => setText(event.target.value)}
           onKeyDown={onKeyDown}
         />
@@ -157,12 +174,8 @@ export function TextField({
   onCommit(value: string): string | undefined;
 }) {
   const inputId = useId();
-  const [text, setText] = useState(value);
   const [error, setError] = useState<string | undefined>();
-  const focused = useRef(false);
-  useEffect(() => {
-    if (!focused.current) setText(value);
-  }, [value]);
+  const { text, setText, fieldProps } = useSheetFieldText(value, () => setError(undefined));
   const commit = () => {
     if (text === value) return setError(undefined);
     const refused = onCommit(text);
@@ -178,11 +191,8 @@ export function TextField({
         autoComplete="off"
         aria-invalid={shownError ? true : undefined}
         aria-describedby={shownError ? `${inputId}-msg` : undefined}
-        onFocus={() => (focused.current = true)}
-        onBlur={() => {
-          focused.current = false;
-          commit();
-        }}
+        {...fieldProps}
+        onBlur={commit}
         onChange={(event) => setText(event.target.value)}
         onKeyDown={(event) => {
           if (event.key === "Enter") {
@@ -217,6 +227,7 @@ export function SelectField({
     <FieldFrame inputId={inputId} label={label} message={externalError ? { tone: "error", text: `${label}: ${externalError}` } : undefined}>
       <select
         id={inputId}
+        {...{ [SHEET_FIELD_ATTRIBUTE]: "" }}
         className="ks-input"
         value={value}
         aria-invalid={externalError ? true : undefined}

@@ -5,6 +5,7 @@ import { solveNetwork } from "#solver/index.ts";
 import type { Check } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
 import { documentIssues } from "./documentIssues.ts";
+import { solvablePart } from "./solvablePart.ts";
 import type { Readings, SheetStore, SolveState } from "./sheetStore.ts";
 
 /** Short: an edit should reach the Readings well inside 100 ms; it only coalesces bursts. */
@@ -12,18 +13,24 @@ const SOLVE_DEBOUNCE_MS = 30;
 
 export const READINGS_MEASURE = "kilostep:edit-to-readings";
 
+/**
+ * A draft solves its complete part (solvablePart.ts): readings there, the rest marked as left
+ * out and its problems listed, never a sheet without numbers for one loose part.
+ */
 export function solveForSheet(document: Network): SolveState {
   const started = performance.now();
+  const problems = documentIssues(document);
+  const part = problems.length ? solvablePart(document) : { network: document, leftOut: new Set<string>() };
+  if (!part) return { kind: "invalid", issues: problems };
   let outcome: ReturnType<typeof solveNetwork>;
   try {
-    outcome = solveNetwork(document);
+    outcome = solveNetwork(part.network);
   } catch (error) {
     return { kind: "failed", message: `The solver stopped on this network: ${error instanceof Error ? error.message : String(error)}` };
   }
   const elapsedMs = performance.now() - started;
   if (!outcome.ok) {
-    const issues = documentIssues(document);
-    return { kind: "invalid", issues: issues.length ? issues : outcome.issues.map((i) => ({ message: `${i.path}: ${i.message}` })) };
+    return { kind: "invalid", issues: problems.length ? problems : outcome.issues.map((i) => ({ message: `${i.path}: ${i.message}` })) };
   }
   const { result, network } = outcome;
   const converged = result.loadFlow.converged;
@@ -43,6 +50,8 @@ export function solveForSheet(document: Network): SolveState {
     sources: new Map(converged ? result.loadFlow.sources.map((s) => [s.id, s]) : []),
     faults: new Map((result.faults?.buses ?? []).map((f) => [f.id, f])),
     checksByElement,
+    leftOut: part.leftOut,
+    problems,
   };
   return { kind: "solved", readings };
 }

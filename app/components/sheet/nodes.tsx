@@ -63,7 +63,17 @@ function ReadingBlock({ children }: { children: ReactNode }) {
 
 const useReadOnly = () => useSheet((s) => s.readOnly);
 
+/** A draft's element outside the solved part: drawn faint, with the reason one click away in Checks. */
+function useLeftOut(id: string): boolean {
+  return useSheet((s) => s.solve.kind === "solved" && s.solve.readings.leftOut.has(id));
+}
+
+function LeftOutMark() {
+  return <span className="ks-left-out-mark">not solved: see Checks</span>;
+}
+
 function BusNodeView({ id, data }: NodeProps<SheetNode>) {
+  const leftOut = useLeftOut(id);
   const bus = data.element as Bus;
   const connecting = useConnection((c) => c.inProgress);
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.buses.get(id) : undefined));
@@ -78,7 +88,8 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
   const sk3MinMVA = fault ? Math.sqrt(3) * bus.nominalKV * fault.ik3MinKA : undefined;
   const minimumStatus = lowerLimitStatus(sk3MinMVA, bus.minFaultMVA, "MVA");
   return (
-    <div className="ks-node ks-bus" style={{ width: data.width, height: data.height }}>
+    <div className={`ks-node ks-bus${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
+      {leftOut ? <LeftOutMark /> : null}
       <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
         <div className="ks-node-label ks-bus-label">
           <span className="ks-bus-name">{bus.name}</span>
@@ -151,12 +162,14 @@ function BranchReadings({ id, fromSide, reversed, ratedLoading }: { id: string; 
 }
 
 function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
+  const leftOut = useLeftOut(id);
   const t = data.element as Transformer;
   const readOnly = useReadOnly();
   const hvSide = data.sides.hv ?? "left";
   const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
   return (
-    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
+      {leftOut ? <LeftOutMark /> : null}
       <Label>
         {t.name}
         <span className="ks-node-sub">
@@ -187,13 +200,15 @@ function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
 }
 
 function LineNodeView({ id, data }: NodeProps<SheetNode>) {
+  const leftOut = useLeftOut(id);
   const line = data.element as Line;
   const readOnly = useReadOnly();
   const fromSide = data.sides.from ?? "left";
   const kv = data.terminalKV.from ?? data.terminalKV.to;
   const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
   return (
-    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
+      {leftOut ? <LeftOutMark /> : null}
       <Label>
         {line.name}
         <span className="ks-node-sub">
@@ -214,6 +229,7 @@ function LineNodeView({ id, data }: NodeProps<SheetNode>) {
 }
 
 function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
+  const leftOut = useLeftOut(id);
   const source = data.element as Source;
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "right";
@@ -221,7 +237,8 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
   const scr = useSheet((s) => (s.solve.kind === "solved" && s.showFaults ? s.solve.readings.result.faults?.converters.find((c) => c.id === id)?.scr : undefined));
   const Symbol = source.kind === "grid" ? GridInfeedSymbol : source.kind === "converter" ? ConverterSymbol : GeneratorSymbol;
   return (
-    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
+      {leftOut ? <LeftOutMark /> : null}
       <Label>
         {source.name}
         <span className="ks-node-sub">{source.control === "slack" ? "slack" : source.control.toUpperCase()}</span>
@@ -244,12 +261,14 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
   );
 }
 
-function LoadNodeView({ data }: NodeProps<SheetNode>) {
+function LoadNodeView({ id, data }: NodeProps<SheetNode>) {
+  const leftOut = useLeftOut(id);
   const load = data.element as Load;
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "left";
   return (
-    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
+      {leftOut ? <LeftOutMark /> : null}
       <Label>
         {load.name}
         <span className="ks-node-sub">
@@ -262,12 +281,14 @@ function LoadNodeView({ data }: NodeProps<SheetNode>) {
   );
 }
 
-function ShuntNodeView({ data }: NodeProps<SheetNode>) {
+function ShuntNodeView({ id, data }: NodeProps<SheetNode>) {
+  const leftOut = useLeftOut(id);
   const shunt = data.element as Shunt;
   const readOnly = useReadOnly();
   const side = data.sides.t ?? "left";
   return (
-    <div className="ks-node ks-part" style={{ width: data.width, height: data.height }}>
+    <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
+      {leftOut ? <LeftOutMark /> : null}
       <Label>
         {shunt.name}
         <span className="ks-node-sub">{shunt.qMvar} Mvar</span>

@@ -9,7 +9,7 @@ import { createStore, useStore, type StoreApi } from "zustand";
 import { temporal, type TemporalState } from "zundo";
 import type { Network } from "#solver/schema.ts";
 import type { Check, SolveResult } from "#solver/results.ts";
-import type { SheetIssue } from "./documentIssues.ts";
+import { documentIssues, type SheetIssue } from "./documentIssues.ts";
 import { applyMoves, parseWireId, replaceElement, type SheetContent, type SheetLayout, type TerminalId, type XY } from "./flowModel.ts";
 import { indexElements, type AnyElement } from "#app/lib/networkElements.ts";
 import {
@@ -28,7 +28,8 @@ export type SaveStatus =
   | { kind: "pending" }
   | { kind: "saving" }
   | { kind: "offline" }
-  | { kind: "invalid"; issues: SheetIssue[] }
+  /** Saved, but not a complete network yet: the server keeps it as a draft with these problems. */
+  | { kind: "draft"; problems: SheetIssue[] }
   | { kind: "conflict"; currentRevision: number; message: string }
   | { kind: "refused"; message: string };
 
@@ -41,6 +42,10 @@ export interface Readings {
   sources: Map<string, SolveResult["loadFlow"]["sources"][number]>;
   faults: Map<string, NonNullable<SolveResult["faults"]>["buses"][number]>;
   checksByElement: Map<string, Check[]>;
+  /** A draft's elements that are not part of the solved network (see solvablePart.ts). */
+  leftOut: Set<string>;
+  /** Why they are left out: the draft's problems, empty for a complete network. */
+  problems: SheetIssue[];
 }
 
 export type SolveState =
@@ -53,6 +58,8 @@ export interface SheetInit {
   networkId: string;
   document: Network;
   revision: number;
+  /** Autosaves already folded into that revision (see writeRevision on the server). */
+  foldedSaves?: number;
   readOnly: boolean;
   layout?: SheetLayout;
 }
@@ -63,6 +70,8 @@ export interface SheetStoreState extends SheetContent {
   /** The revision the server last confirmed, and the document it holds. */
   savedRevision: number;
   savedDocument: Network;
+  /** What the server said is folded into savedRevision; unknown after taking a conflict's number. */
+  savedFoldedSaves: number | undefined;
   selection: string[];
   /** Positions of nodes while they are being dragged; committed at the end of the drag. */
   dragPositions: Record<string, XY> | null;
@@ -102,7 +111,7 @@ export interface SheetActions {
   dismissNotice(): void;
   setSave(save: SaveStatus): void;
   setSolve(solve: SolveState): void;
-  markSaved(revision: number, document: Network): void;
+  markSaved(revision: number, document: Network, foldedSaves?: number): void;
   /** Take a document from elsewhere (theirs after a conflict, or a restored draft) as an undoable edit. */
   replaceDocument(document: Network, layout?: SheetLayout): void;
   setSavedRevision(revision: number, document: Network): void;
@@ -116,6 +125,12 @@ const PASTE_SHIFT: XY = { x: 40, y: 40 };
 
 /** Performance mark at each edit: the bench measures from here to the readings drawn. */
 export const EDIT_MARK = "kilostep:sheet-edit";
+
+/** What the server holds for a saved document: complete, or a draft with its problems. */
+export function savedState(document: Network): SaveStatus {
+  const problems = documentIssues(document);
+  return problems.length ? { kind: "draft", problems } : { kind: "saved" };
+}
 
 export function createSheetStore(init: SheetInit): SheetStore {
   return createStore<SheetStoreState>()(
@@ -208,9 +223,9 @@ export function createSheetStore(init: SheetInit): SheetStore {
           dismissNotice: () => set({ notice: null }),
           setSave: (save) => set({ save }),
           setSolve: (solve) => set({ solve }),
-          markSaved: (revision, document) => set({ savedRevision: revision, savedDocument: document }),
+          markSaved: (revision, document, foldedSaves) => set({ savedRevision: revision, savedDocument: document, savedFoldedSaves: foldedSaves }),
           replaceDocument: (document, layout) => apply({ document, layout: layout ?? get().layout }, []),
-          setSavedRevision: (revision, document) => set({ savedRevision: revision, savedDocument: document }),
+          setSavedRevision: (revision, document) => set({ savedRevision: revision, savedDocument: document, savedFoldedSaves: undefined }),
         };
         return {
           networkId: init.networkId,
@@ -219,6 +234,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
           layout: init.layout ?? {},
           savedRevision: init.revision,
           savedDocument: init.document,
+          savedFoldedSaves: init.foldedSaves,
           selection: [],
           dragPositions: null,
           clipboard: null,
@@ -226,7 +242,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
           showFaults: false,
           helpOpen: false,
           notice: null,
-          save: { kind: "saved" },
+          save: savedState(init.document),
           solve: { kind: "pending" },
           focusRequest: null,
           actions,

@@ -28,6 +28,7 @@ export const shortcuts: Shortcut[] = [
   },
   { keys: "Shift+L", does: "Lay the chain out left to right", edits: true },
   { keys: "F", does: "Fit the drawing to the view" },
+  { keys: "+ / −", does: "Zoom in, zoom out" },
   { keys: "R", does: "Show or hide Readings" },
   { keys: "K", does: "Show or hide fault levels (kA)" },
   { keys: "?", does: "This help" },
@@ -43,17 +44,55 @@ function typingInto(target: EventTarget | null): boolean {
   return target.isContentEditable || ["INPUT", "TEXTAREA", "SELECT"].includes(target.tagName);
 }
 
+/** Marks the Details inputs: their value is the sheet's, so the sheet's history owns their undo. */
+export const SHEET_FIELD_ATTRIBUTE = "data-sheet-field";
+/** Set on a Details input while it holds typing that is not committed yet. */
+export const UNCOMMITTED_ATTRIBUTE = "data-uncommitted";
+/** Sent to a Details input to drop its uncommitted typing and show the sheet's value again. */
+export const REVERT_FIELD_EVENT = "kilostep:revert-field";
+
+function historyKey(event: KeyboardEvent): "undo" | "redo" | undefined {
+  if (!(event.ctrlKey || event.metaKey) || event.altKey) return undefined;
+  const lower = event.key.toLowerCase();
+  if (lower === "z") return event.shiftKey ? "redo" : "undo";
+  if (lower === "y" && !event.shiftKey) return "redo";
+  return undefined;
+}
+
+/**
+ * Ctrl+Z and Ctrl+Y belong to the sheet anywhere on the page, Details fields included: the
+ * browser's own text undo would put back characters the sheet never held (and the next Tab would
+ * save them). A field with uncommitted typing first drops that typing; the next press undoes the
+ * sheet. Other text boxes on the page (a review note) keep their own text undo.
+ */
+function ownHistoryKey(event: KeyboardEvent, store: SheetStore): boolean {
+  const which = historyKey(event);
+  if (!which) return false;
+  const target = event.target instanceof HTMLElement ? event.target : null;
+  const inSheetField = !!target?.closest(`[${SHEET_FIELD_ATTRIBUTE}]`);
+  if (typingInto(target) && !inSheetField) return false;
+  event.preventDefault();
+  const { actions, readOnly } = store.getState();
+  if (target && inSheetField && target.hasAttribute(UNCOMMITTED_ATTRIBUTE)) {
+    target.dispatchEvent(new CustomEvent(REVERT_FIELD_EVENT));
+    if (which === "undo") return true;
+  }
+  if (!readOnly) (which === "undo" ? actions.undo : actions.redo)();
+  return true;
+}
+
 export interface ShortcutHandlers {
   fit(): void;
+  zoom(direction: "in" | "out"): void;
   placeAtCentre(part: PartKind): void;
   nudge(dx: number, dy: number): void;
 }
 
-/** Keys act on the sheet from anywhere in the editor except while typing in a field. */
+/** Keys act on the sheet from anywhere in the editor except while typing in a field (undo and redo: see above). */
 export function useSheetShortcuts(store: SheetStore, root: React.RefObject<HTMLElement | null>, handlers: ShortcutHandlers): void {
   useEffect(() => {
     const onKey = (event: KeyboardEvent) => {
-      if (event.defaultPrevented || typingInto(event.target)) return;
+      if (event.defaultPrevented || ownHistoryKey(event, store) || typingInto(event.target)) return;
       // Keys belong to this editor when focus is inside it, or on the page around it (body, main).
       const editor = root.current;
       const target = event.target as Node;
@@ -72,8 +111,6 @@ export function useSheetShortcuts(store: SheetStore, root: React.RefObject<HTMLE
       }
       if (mod && !event.altKey) {
         const lower = key.toLowerCase();
-        if (lower === "z" && !event.shiftKey && !readOnly) return run(actions.undo);
-        if (((lower === "z" && event.shiftKey) || lower === "y") && !readOnly) return run(actions.redo);
         if (lower === "a") return run(actions.selectAll);
         if (lower === "c") return run(actions.copySelection);
         if (readOnly) return;
@@ -94,6 +131,8 @@ export function useSheetShortcuts(store: SheetStore, root: React.RefObject<HTMLE
       if (key === "?") return run(() => actions.setHelpOpen(true));
       if (key === "Escape") return run(() => actions.select([]));
       if (key === "f" || key === "F") return run(handlers.fit);
+      if (key === "+" || key === "=") return run(() => handlers.zoom("in"));
+      if (key === "-") return run(() => handlers.zoom("out"));
       if (key === "r" || key === "R") return run(() => actions.setShowReadings(!state.showReadings));
       if (key === "k" || key === "K") return run(() => actions.setShowFaults(!state.showFaults));
       if (readOnly) return;

@@ -39,23 +39,27 @@ const strokeProps = (s: SymbolStroke) => ({
 /** x of a point drawn at `x` in terminal-left coordinates, after mirroring. */
 const mirrored = (x: number, width: number, side: Side) => (side === "right" ? width - x : x);
 
+/**
+ * The grid infeed: our own sign, a transmission tower (legs, two cross-arms and a lattice brace)
+ * standing for the wider network behind the connection point, fed by the connecting line at its
+ * lower cross-arm.
+ */
 export function GridInfeedSymbol({ width, height, side, stroke }: { width: number; height: number; side: Side; stroke: SymbolStroke }) {
-  const box = { x: width - 40, y: height / 2 - 16, size: 32 };
-  const hatch = [];
-  for (let k = -box.size; k < box.size; k += 7) {
-    hatch.push(<line key={k} x1={box.x + k} y1={box.y + box.size} x2={box.x + k + box.size} y2={box.y} />);
-  }
-  const clipId = `ks-grid-clip-${side}-${width}`;
+  const cx = width - 18;
+  const top = height / 2 - 17;
+  const foot = height / 2 + 17;
+  const arm = height / 2 - 3;
+  const tower = "var(--color-ink-soft, #3f4b59)";
   return (
     <Frame width={width} height={height} side={side}>
-      <line x1={0} y1={height / 2} x2={box.x} y2={height / 2} {...strokeProps(stroke)} />
-      <clipPath id={clipId}>
-        <rect x={box.x} y={box.y} width={box.size} height={box.size} />
-      </clipPath>
-      <g clipPath={`url(#${clipId})`} stroke="var(--color-ink-soft, #3f4b59)" strokeWidth={1}>
-        {hatch}
+      <line x1={0} y1={height / 2} x2={cx - 12} y2={height / 2} {...strokeProps(stroke)} />
+      <line x1={cx - 12} y1={height / 2} x2={cx - 12} y2={arm} {...strokeProps(stroke)} />
+      <g stroke={tower} strokeWidth={1.6} fill="none" strokeLinejoin="round" strokeLinecap="round">
+        <path d={`M ${cx - 10} ${foot} L ${cx} ${top} L ${cx + 10} ${foot}`} />
+        <line x1={cx - 9} y1={top + 7} x2={cx + 9} y2={top + 7} />
+        <line x1={cx - 12} y1={arm} x2={cx + 12} y2={arm} />
+        <path d={`M ${cx - 6} ${arm} L ${cx + 8} ${foot - 1} M ${cx + 6} ${arm} L ${cx - 8} ${foot - 1}`} strokeWidth={1.1} />
       </g>
-      <rect x={box.x} y={box.y} width={box.size} height={box.size} {...strokeProps(stroke)} strokeWidth={Math.max(1.5, stroke.strokePx * 0.8)} />
     </Frame>
   );
 }

@@ -1,6 +1,6 @@
 // The server's computed answers, each run on the compute pool (pool.server.ts) and paid from the
-// caller's budget (budget.server.ts). Answers about a stored revision are kept per revision (a
-// revision never changes), so a download, a shared report and a page that ask for the same one
+// caller's budget (budget.server.ts). Answers about a stored revision are kept per revision and
+// last save (an autosave may fold into the revision), so a download, a shared report and a page that ask for the same one
 // share a single calculation, and only the first pays for it.
 import { data } from "react-router";
 import type { NetworkRow } from "#db/schema.ts";
@@ -103,13 +103,14 @@ function storedInput(revision: StoredRevision) {
 function trustWhenSolved<T extends { ok: boolean } | { solved: { ok: boolean } }>(revision: StoredRevision, answer: Promise<T>): Promise<T> {
   return answer.then((value) => {
     const ok = "solved" in value ? value.solved.ok : value.ok;
-    if (ok) trustRevision(revision.network.id, revision.network.current_revision);
+    if (ok) trustRevision(revision.network.id, revision.network.current_revision, revision.savedAt);
     return value;
   });
 }
 
+/** An editing session's autosaves fold into its revision, so the revision number alone does not name a document; the time of the last save does. */
 function revisionKey(kind: string, network: NetworkRow, extra = ""): string {
-  return `${kind}:${network.id}:${network.current_revision}:${extra}`;
+  return `${kind}:${network.id}:${network.current_revision}:${network.updated_at}:${extra}`;
 }
 
 /** Load flow, fault levels and checks of the network's current revision, as the API's JSON. */

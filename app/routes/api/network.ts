@@ -10,13 +10,15 @@ const putBodySchema = z.strictObject({
   revision: z.number().int().positive(),
   document: z.unknown(),
   message: revisionMessageSchema.optional(),
+  /** From the sheet's autosave: the saves it knows are folded into `revision` (see writeRevision). */
+  foldedSaves: z.number().int().min(0).optional(),
 });
 
 /** GET /api/networks/:id → { id, name, revision, role, document } */
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { db, network, role } = await requireApiNetwork(request, params, "view");
-  const { document } = await currentDocument(db, network);
-  return Response.json({ id: network.id, name: network.name, revision: network.current_revision, role, document });
+  const { document, foldedSaves } = await currentDocument(db, network);
+  return Response.json({ id: network.id, name: network.name, revision: network.current_revision, foldedSaves, role, document });
 }
 
 /** PUT saves `{ revision, document }` as the next revision (409 when stale); DELETE deletes (owner). */
@@ -32,8 +34,8 @@ export async function action({ request, params }: Route.ActionArgs) {
         parsed.error.issues.map((i) => ({ path: formatPath(i.path), message: i.message })),
       );
     }
-    const { revision, document, message } = parsed.data;
-    const saved = await saveNetworkDocument(db, { networkId, expectedRevision: revision, document, authorId: user.id, message });
+    const { revision, document, message, foldedSaves } = parsed.data;
+    const saved = await saveNetworkDocument(db, { networkId, expectedRevision: revision, document, authorId: user.id, message, foldedSaves });
     if (!saved.ok && saved.reason === "invalid") {
       return apiError(400, "The network document is not valid; nothing was saved.", issuesUnder("document", saved.issues));
     }
@@ -47,7 +49,16 @@ export async function action({ request, params }: Route.ActionArgs) {
         { status: 409 },
       );
     }
-    return Response.json({ id: networkId, name: saved.document.name, revision: saved.revision, role, document: saved.document });
+    // A draft is kept as it is; `problems` lists what the cross-element rules found (empty when complete).
+    return Response.json({
+      id: networkId,
+      name: saved.document.name,
+      revision: saved.revision,
+      foldedSaves: saved.foldedSaves,
+      role,
+      document: saved.document,
+      problems: saved.problems,
+    });
   }
 
   if (request.method === "DELETE") {

@@ -48,7 +48,7 @@ export const meta: Route.MetaFunction = ({ data }) => [{ title: `Voltage ladder 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { db, network, role, actor } = await requireNetwork(request, params, "view");
   const [revision, saved] = await Promise.all([currentDocument(db, network), savedLadderStudy(db, network.id)]);
-  const checked = checkedRevision(network, revision.document);
+  const checked = checkedRevision(network, revision);
   // The saved study is run again on the current revision, so what the page shows is never stale.
   const savedRun =
     saved.study && checked.ok

@@ -1,15 +1,17 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/network";
 import { ReviewNotesPanel } from "#app/components/review/ReviewNotesPanel.tsx";
+import type { FullWindowHandle } from "#app/components/AppShell.tsx";
 import { SheetEditor } from "#app/components/sheet/SheetEditor.tsx";
 import { Notice } from "#app/components/Notice.tsx";
-import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireNetwork } from "#app/lib/access.server.ts";
-import { formatDateTime } from "#app/lib/format.ts";
 import { teamEquipmentTypes } from "#app/lib/library.server.ts";
-import { currentDocument, teamNameOf, checkedRevision } from "#app/lib/networks.server.ts";
+import { checkedDraft, currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
 import { roleAllows } from "#app/lib/permissions.server.ts";
 import { reviewNotesFor } from "#app/lib/reviewNotes.server.ts";
+
+/** The sheet takes the window under a slim header (AppShell). */
+export const handle: FullWindowHandle = { fullWindow: true };
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.name ?? "Network"} · Kilostep` }];
 
@@ -21,7 +23,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     reviewNotesFor(db, network.id, { userId: user.id, canView: true, canEdit: roleAllows(role, "edit") }),
   ]);
   const library = await teamEquipmentTypes(db, { id: network.team_id, name: teamName });
-  const checked = checkedRevision(network, revision.document);
+  // A draft opens as it was left; its problems are the sheet's Checks.
+  const checked = checkedDraft(network, revision);
   return {
     id: network.id,
     name: network.name,
@@ -30,7 +33,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     mayShare: roleAllows(role, "share"),
     notes,
     library,
-    revision: { number: network.current_revision, savedAt: revision.createdAt, by: revision.authorName, message: revision.message },
+    revision: { number: network.current_revision, foldedSaves: revision.foldedSaves, message: revision.message },
     document: checked.ok ? checked.network : null,
     issues: checked.ok ? [] : checked.issues,
   };
@@ -38,58 +41,44 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export default function NetworkPage({ loaderData }: Route.ComponentProps) {
   const { id, name, team, role, revision, document, issues, notes, mayShare, library } = loaderData;
+  const head = (
+    <>
+      <Link to="/networks" className="ks-head-back">
+        ← Networks
+      </Link>
+      <h1 className="ks-head-title">{name}</h1>
+      <p className="ks-head-meta">
+        <Link to={`/teams/${team.id}`}>{team.name}</Link> · your role <span className="role-badge">{role}</span>
+      </p>
+      <nav className="ks-head-links" aria-label="This network">
+        <Link to={`/networks/${id}/ladder`}>Voltage ladder</Link>
+        <Link to={`/networks/${id}/report`}>Study report</Link>
+        {role !== "viewer" ? <Link to={`/networks/${id}/loads-import`}>Import loads</Link> : null}
+        <a href={`/api/networks/${id}/export`} download>
+          Download network file
+        </a>
+        <Link to={`/networks/${id}/revisions`}>Revisions</Link>
+        {mayShare ? <Link to={`/networks/${id}/share`}>Share</Link> : null}
+      </nav>
+    </>
+  );
   return (
     <>
-      <p className="mb-2 text-sm">
-        <Link to="/networks">← Networks</Link>
-      </p>
-      <PageTitle
-        title={name}
-        lead={
-          <>
-            <Link to={`/teams/${team.id}`}>{team.name}</Link> · your role <span className="role-badge">{role}</span> ·
-            revision {revision.number}, saved {formatDateTime(revision.savedAt)}
-            {revision.by ? ` by ${revision.by}` : ""}
-          </>
-        }
-        actions={
-          <>
-            <Link to={`/networks/${id}/ladder`} className="btn btn-small">
-              Voltage ladder
-            </Link>
-            <Link to={`/networks/${id}/report`} className="btn btn-small">
-              Study report
-            </Link>
-            {role !== "viewer" ? (
-              <Link to={`/networks/${id}/loads-import`} className="btn btn-small">
-                Import loads
-              </Link>
-            ) : null}
-            <a href={`/api/networks/${id}/export`} className="btn btn-small" download>
-              Download network file
-            </a>
-            <Link to={`/networks/${id}/revisions`} className="btn btn-small">
-              Revisions
-            </Link>
-            {mayShare ? (
-              <Link to={`/networks/${id}/share`} className="btn btn-small">
-                Share
-              </Link>
-            ) : null}
-          </>
-        }
-      />
       {document ? (
         <SheetEditor
           networkId={id}
           document={document}
           revision={revision.number}
+          foldedSaves={revision.foldedSaves}
           readOnly={role === "viewer"}
           library={library}
+          head={head}
           aside={<ReviewNotesPanel {...notes} action={`/networks/${id}/notes`} signInBack={`/networks/${id}`} />}
         />
       ) : (
-        <Notice tone="error">
+        <div className="p-4">
+          <h1 className="mb-3 text-2xl">{name}</h1>
+          <Notice tone="error">
           This revision no longer passes the network file's checks:
           <ul className="mt-2 list-disc pl-5">
             {issues.map((issue) => (
@@ -98,7 +87,8 @@ export default function NetworkPage({ loaderData }: Route.ComponentProps) {
               </li>
             ))}
           </ul>
-        </Notice>
+          </Notice>
+        </div>
       )}
     </>
   );

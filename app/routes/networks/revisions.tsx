@@ -11,6 +11,7 @@ import { parseId } from "#app/lib/api.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { roleAllows } from "#app/lib/permissions.server.ts";
 import { compareRevisions, restoreRevision, revisionHistory } from "#app/lib/revisions.server.ts";
+import { markRevisionIssued, nameRevision } from "#db/networks.ts";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `Revisions · ${data?.name ?? "Network"} · Kilostep` }];
 
@@ -44,7 +45,20 @@ export async function action({ request, params }: Route.ActionArgs) {
   const { db, user, network } = await requireNetwork(request, params, "edit");
   const form = await request.formData();
   const number = parseId(String(form.get("number") ?? ""));
-  if (form.get("intent") !== "restore" || number === null) return data({ ok: false, message: "Which revision? The request names none." }, { status: 400 });
+  if (number === null) return data({ ok: false, message: "Which revision? The request names none." }, { status: 400 });
+  const intent = form.get("intent");
+  if (intent === "name") {
+    const message = String(form.get("message") ?? "").trim();
+    if (!message || message.length > 200) return data({ ok: false, message: "A revision's name has 1 to 200 characters." }, { status: 400 });
+    if (!(await nameRevision(db, network.id, number, message))) return data({ ok: false, message: `There is no revision ${number}.` }, { status: 404 });
+    return { ok: true, message: `Revision ${number} is named "${message}".` };
+  }
+  if (intent === "issue") {
+    if (!(await markRevisionIssued(db, network.id, number, user.id)))
+      return data({ ok: false, message: `Revision ${number} does not exist or is already issued.` }, { status: 409 });
+    return { ok: true, message: `Revision ${number} is marked issued.` };
+  }
+  if (intent !== "restore") return data({ ok: false, message: "Unknown request: the form named no known action." }, { status: 400 });
   const restored = await restoreRevision(db, { network, number, by: user });
   if (!restored.ok) return data({ ok: false, message: restored.error }, { status: restored.status });
   return { ok: true, message: `Revision ${number} is restored as revision ${restored.revision}.` };
@@ -58,7 +72,10 @@ export default function RevisionsPage({ loaderData, actionData }: Route.Componen
       <p className="mb-2 text-sm">
         <Link to={`/networks/${id}`}>← {name}</Link>
       </p>
-      <PageTitle title="Revisions" lead={`Every save of "${name}", newest first. Revision ${current} is the current one.`} />
+      <PageTitle
+        title="Revisions"
+        lead={`Every editing session of "${name}" is one revision, newest first; name one, or mark it issued, to keep it apart. Revision ${current} is the current one.`}
+      />
       {actionData ? (
         <div className="mb-6">
           <Notice tone={actionData.ok ? "ok" : "error"}>{actionData.message}</Notice>
@@ -95,11 +112,44 @@ export default function RevisionsPage({ loaderData, actionData }: Route.Componen
                     {r.number === current ? <span className="ml-1 font-normal text-ink-muted">(current)</span> : null}
                   </td>
                   <td className="py-2 pr-3">
-                    {formatDateTime(r.createdAt)}
+                    {formatDateTime(r.savedAt)}
                     <br />
                     <span className="text-ink-muted">{r.authorName ?? "a removed account"}</span>
                   </td>
-                  <td className="py-2 pr-3">{r.message || <span className="text-ink-muted">(no message)</span>}</td>
+                  <td className="py-2 pr-3">
+                    {r.message || (
+                      <span className="text-ink-muted">
+                        Editing session{r.foldedSaves ? `, ${r.foldedSaves + 1} saves` : ""}
+                      </span>
+                    )}
+                    <span className="mt-1 flex flex-wrap gap-1">
+                      {r.issuedAt ? (
+                        <span className="role-badge">
+                          Issued {formatDateTime(r.issuedAt)}
+                          {r.issuedByName ? ` by ${r.issuedByName}` : ""}
+                        </span>
+                      ) : null}
+                      {r.layoutOnly ? <span className="role-badge">Layout only: no engineering change</span> : null}
+                      {r.problemCount ? (
+                        <span className="role-badge">
+                          Draft: {r.problemCount} {r.problemCount === 1 ? "problem" : "problems"}
+                        </span>
+                      ) : null}
+                    </span>
+                    {mayRestore ? (
+                      <Form method="post" className="mt-1 flex flex-wrap gap-1">
+                        <input type="hidden" name="intent" value="name" />
+                        <input type="hidden" name="number" value={r.number} />
+                        <label className="sr-only" htmlFor={`revision-name-${r.number}`}>
+                          Name of revision {r.number}
+                        </label>
+                        <input id={`revision-name-${r.number}`} name="message" className="input min-w-0 flex-1" defaultValue={r.message} maxLength={200} required />
+                        <button type="submit" className="btn btn-small" disabled={busy} aria-label={`Name revision ${r.number}`}>
+                          Name
+                        </button>
+                      </Form>
+                    ) : null}
+                  </td>
                   <td className="py-2">
                     <div className="flex flex-wrap gap-2">
                       <Link to={`/networks/${id}/revisions/${r.number}`} className="btn btn-small" aria-label={`Open revision ${r.number}`}>
@@ -109,6 +159,15 @@ export default function RevisionsPage({ loaderData, actionData }: Route.Componen
                         <Link to={`?from=${r.number}&to=${current}`} className="btn btn-small" aria-label={`Compare revision ${r.number} with the current one`}>
                           Compare
                         </Link>
+                      ) : null}
+                      {mayRestore && !r.issuedAt ? (
+                        <Form method="post">
+                          <input type="hidden" name="intent" value="issue" />
+                          <input type="hidden" name="number" value={r.number} />
+                          <button type="submit" className="btn btn-small" disabled={busy} aria-label={`Mark revision ${r.number} issued`}>
+                            Mark issued
+                          </button>
+                        </Form>
                       ) : null}
                       {mayRestore && r.number !== current ? (
                         <Form method="post">

@@ -47,7 +47,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     currentDocument(db, network),
     reviewNotesFor(db, network.id, { userId: null, canView: true, canEdit: false, guestLinkId: link.id }),
   ]);
-  const checked = checkedRevision(network, revision.document);
+  const checked = checkedRevision(network, revision);
   return {
     kind: "view" as const,
     here,

@@ -92,9 +92,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     return { intent: "delete-type", ok: true, message: `Deleted "${fields.typeName ?? "the type"}".` } satisfies ActionResult;
   }
   if (fields.intent === "save-type") {
-    const formKey = fields.typeId || `new-${fields.kind}`;
-    if (!isKind(fields.kind)) return data<ActionResult>({ intent: "save-type", ok: false, message: "Choose transformer or conductor.", formKey }, { status: 400 });
-    const read = readTypeForm(fields.kind, fields);
+    // "typeKind", not "kind": a conductor's own construction field is called kind.
+    const formKey = fields.typeId || `new-${fields.typeKind}`;
+    if (!isKind(fields.typeKind)) return data<ActionResult>({ intent: "save-type", ok: false, message: "Choose transformer or conductor.", formKey }, { status: 400 });
+    const read = readTypeForm(fields.typeKind, fields);
     if (!read.ok) return data<ActionResult>({ intent: "save-type", ok: false, message: "Some fields need attention.", fieldErrors: read.fieldErrors, formKey }, { status: 400 });
     const id = fields.typeId ? parseId(fields.typeId) : undefined;
     if (id === null) return data<ActionResult>({ intent: "save-type", ok: false, message: "Which type? The form names none.", formKey }, { status: 400 });
@@ -129,7 +130,7 @@ function TypeForm({ kind, entry, result }: { kind: LibraryTypeKind; entry?: Libr
   return (
     <Form method="post" className="grid gap-3 sm:grid-cols-2">
       <input type="hidden" name="intent" value="save-type" />
-      <input type="hidden" name="kind" value={kind} />
+      <input type="hidden" name="typeKind" value={kind} />
       {entry ? <input type="hidden" name="typeId" value={entry.id} /> : null}
       {entry ? <input type="hidden" name="basedOn" value={entry.updatedAt} /> : null}
       <div className="sm:col-span-2">

@@ -154,14 +154,16 @@ describe("autosave", () => {
     t.saver.stop();
   });
 
-  it("does not send an invalid document and says why", async () => {
-    const t = setup([]);
+  it("saves an unfinished drawing as a draft and says what is left to do", async () => {
+    const t = setup([(call) => json(200, { revision: 4, document: call.body!.document, problems: [{ path: "loads[2].bus", message: "not connected" }] })]);
     t.store.getState().actions.place("load", { x: 0, y: 300 });
     await vi.advanceTimersByTimeAsync(AUTOSAVE_DELAY_MS + 10);
-    expect(t.calls).toHaveLength(0);
+    expect(t.calls).toHaveLength(1);
+    expect(t.calls[0].body!.document.loads.some((load) => load.bus === "")).toBe(true);
     const save = t.store.getState().save;
-    expect(save.kind).toBe("invalid");
-    if (save.kind === "invalid") expect(save.issues[0].message).toMatch(/connect its terminal/);
+    expect(save.kind).toBe("draft");
+    if (save.kind === "draft") expect(save.problems[0].message).toMatch(/connect its terminal/);
+    expect(readDraft(t.storage, "12")).toBeUndefined();
     t.saver.stop();
   });
 });

@@ -24,11 +24,22 @@ describe("solving for the sheet", () => {
     expect(state.readings.elapsedMs).toBeGreaterThanOrEqual(0);
   });
 
-  it("shows why a drawing cannot be solved yet instead of numbers", () => {
+  it("solves the complete part of a drawing with a loose load, marks the load and says why", () => {
     const placed = placePart({ document: demo(), layout: {} }, "load", { x: 0, y: 0 });
     const state = solveForSheet(placed.document);
-    expect(state.kind).toBe("invalid");
-    if (state.kind === "invalid") expect(state.issues[0].message).toMatch(/connect its terminal to a busbar/);
+    expect(state.kind).toBe("solved");
+    if (state.kind !== "solved") return;
+    expect([...state.readings.leftOut]).toEqual([placed.id]);
+    expect(state.readings.problems[0].message).toMatch(/connect its terminal to a busbar/);
+    // The rest reads as the complete demo does: the same solver on the document without the load.
+    const complete = solveForSheet(demo());
+    if (complete.kind !== "solved") throw new Error("the demo solves");
+    expect(state.readings.buses.get("b-town")!.vPu).toBeCloseTo(complete.readings.buses.get("b-town")!.vPu, 12);
+  });
+
+  it("has nothing to solve when no busbar has a source", () => {
+    const bare = placePart({ document: { ...demo(), sources: [] }, layout: {} }, "load", { x: 0, y: 0 });
+    expect(solveForSheet(bare.document).kind).toBe("invalid");
   });
 
   it("keeps no bus numbers when the load flow does not converge", () => {

@@ -81,7 +81,7 @@ describe("results kept per revision", () => {
 describe("stored revisions, validated once", () => {
   it("are trusted once saved here, counted by their buses as stored, and an untrusted one is validated on first use", async () => {
     const { currentDocumentText } = await import("#app/lib/networks.server.ts");
-    const { appendRevision, findNetwork } = await import("#db/networks.ts");
+    const { writeRevision, findNetwork } = await import("#db/networks.ts");
     const { solvedRevisionJson } = await import("#app/lib/compute/results.server.ts");
     const team = await makeTeam("Trusted revisions");
     const db = await getDb();
@@ -93,7 +93,14 @@ describe("stored revisions, validated once", () => {
     // checks now refuse: a bus at 0 kV. Its first solve validates and answers the checks' issue.
     const broken = structuredClone(created.document);
     broken.buses[3].nominalKV = 0;
-    const stored = await appendRevision(db, { networkId: created.network.id, expectedRevision: 1, document: broken, authorId: team.userIds.owner });
+    const stored = await writeRevision(db, {
+      networkId: created.network.id,
+      expectedRevision: 1,
+      document: broken,
+      problems: [],
+      authorId: team.userIds.owner,
+      layoutOnly: () => false,
+    });
     expect(stored.ok).toBe(true);
     const network = (await findNetwork(db, created.network.id))!;
     expect(await currentDocumentText(db, network)).toMatchObject({ buses: 250, trusted: false });
@@ -103,8 +110,28 @@ describe("stored revisions, validated once", () => {
     expect((await currentDocumentText(db, network)).trusted).toBe(false);
     // The pages (sheet, ladder, shared view) read it through the same rule.
     const { checkedRevision } = await import("#app/lib/networks.server.ts");
-    const pageView = checkedRevision(network, broken);
+    const pageView = checkedRevision(network, { document: broken, createdAt: network.updated_at });
     expect(!pageView.ok && pageView.issues[0].path).toBe("buses[3].nominalKV");
-    expect(checkedRevision(created.network, created.document)).toEqual({ ok: true, network: created.document });
+    expect(checkedRevision(created.network, { document: created.document, createdAt: created.network.created_at })).toEqual({ ok: true, network: created.document });
+  }, 60_000);
+
+  it("are trusted by version: an autosave folded into a trusted revision that makes it a draft is not trusted", async () => {
+    const { currentDocumentText, saveNetworkDocument } = await import("#app/lib/networks.server.ts");
+    const { findNetwork } = await import("#db/networks.ts");
+    const team = await makeTeam("Trusted versions");
+    const db = await getDb();
+    const created = await createNetwork(db, { teamId: team.teamId, document: syntheticFeeder(20), authorId: team.userIds.owner });
+    if (!created.ok) throw new Error("feeder does not validate");
+    const author = team.userIds.owner;
+    const complete = await saveNetworkDocument(db, { networkId: created.network.id, expectedRevision: 1, document: created.document, authorId: author, foldedSaves: 0 });
+    expect(complete).toMatchObject({ ok: true, revision: 2, problems: [] });
+    expect((await currentDocumentText(db, (await findNetwork(db, created.network.id))!)).trusted).toBe(true);
+    // The same session's next autosave leaves a line pointing at no bus: revision 2 is now a draft.
+    const draft = structuredClone(created.document);
+    draft.lines[0].toBus = "";
+    const folded = await saveNetworkDocument(db, { networkId: created.network.id, expectedRevision: 2, document: draft, authorId: author, foldedSaves: 0 });
+    expect(folded).toMatchObject({ ok: true, revision: 2, foldedSaves: 1 });
+    expect(folded.ok && folded.problems.length).toBeGreaterThan(0);
+    expect((await currentDocumentText(db, (await findNetwork(db, created.network.id))!)).trusted).toBe(false);
   }, 60_000);
 });

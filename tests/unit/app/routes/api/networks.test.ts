@@ -114,7 +114,7 @@ describe("GET /api/networks/:id", () => {
   it("returns { id, name, revision, role, document } to a viewer", async () => {
     const outcome = await call(getNetwork, getRequest(`/api/networks/${networkId}`, cookies.viewer), { networkId: String(networkId) });
     expect(outcome.status).toBe(200);
-    expect(Object.keys(outcome.body).sort()).toEqual(["document", "id", "name", "revision", "role"]);
+    expect(Object.keys(outcome.body).sort()).toEqual(["document", "foldedSaves", "id", "name", "revision", "role"]);
     expect(outcome.body).toMatchObject({ id: networkId, name: tarnHead.name, revision: 1, role: "viewer" });
     expect(outcome.body.document.buses).toHaveLength(tarnHead.buses.length);
   });
@@ -172,14 +172,15 @@ describe("PUT /api/networks/:id", () => {
     expect(await revisionsOf(networkId)).toHaveLength(current + 1);
   });
 
-  it("answers an invalid document with 400, paths under document., and writes nothing", async () => {
+  it("answers a document of the wrong shape with 400, paths under document., and writes nothing", async () => {
     const before = await revisionsOf(networkId);
-    const bad = { ...tarnHead, lines: [{ ...tarnHead.lines[0], toBus: "b-nowhere" }] };
+    // A dangling reference would be kept as a draft (draftsAndSessions.test.ts); a wrong shape is not.
+    const bad = { ...tarnHead, lines: [{ ...tarnHead.lines[0], lengthKm: "far" }] };
     const outcome = await put(cookies.editor, { revision: before.length, document: bad });
     expect(outcome.status).toBe(400);
     expect(outcome.body.issues).toContainEqual({
-      path: "document.lines[0].toBus",
-      message: expect.stringContaining('"b-nowhere"'),
+      path: "document.lines[0].lengthKm",
+      message: expect.stringContaining("number"),
     });
     expect(await revisionsOf(networkId)).toEqual(before);
   });

@@ -24,7 +24,7 @@ const importCsv = (intent: string, csv: string, cookie = team.cookies.editor) =>
 
 const transformer = {
   intent: "save-type",
-  kind: "transformer",
+  typeKind: "transformer",
   name: "Fellside 25",
   ratedMVA: "25 MVA",
   hvKV: "66",
@@ -49,6 +49,22 @@ describe("team equipment library", () => {
     expect(page.types).toEqual([
       expect.objectContaining({ kind: "transformer", name: "Fellside 25", data: { ratedMVA: 25, hvKV: 66, lvKV: 11, impedancePct: 10, loadLossKW: 120, vectorGroup: "YNd11" } }),
     ]);
+  });
+
+  it("an editor adds a conductor type, whose own construction field is also called kind", async () => {
+    const saved = await post({
+      intent: "save-type",
+      typeKind: "conductor",
+      name: "Fell 100",
+      kind: "overhead",
+      frequencyHz: "50",
+      rOhmPerKm: "0.3",
+      xOhmPerKm: "0.35",
+      bMicroSiemensPerKm: "",
+      ampacityA: "300",
+    });
+    expect(saved.body).toMatchObject({ ok: true, message: 'Saved "Fell 100".' });
+    expect((await list()).types).toContainEqual(expect.objectContaining({ kind: "conductor", name: "Fell 100", data: expect.objectContaining({ kind: "overhead", ampacityA: 300 }) }));
   });
 
   it("says which field is wrong", async () => {
