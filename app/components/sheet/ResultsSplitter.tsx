@@ -3,7 +3,7 @@
 import { useRef, type KeyboardEvent, type PointerEvent } from "react";
 
 /** Results take this share of the centre's height at first: the drawing keeps most of it. */
-export const DEFAULT_RESULTS_SHARE = 26;
+export const DEFAULT_RESULTS_SHARE = 20;
 const MIN_SHARE = 10;
 const MAX_SHARE = 70;
 const KEY_STEP = 5;
