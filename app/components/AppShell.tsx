@@ -43,7 +43,7 @@ export function AppShell({ user, children }: { user: ShellUser | null; children:
         >
           <Link to="/" className="flex items-center gap-2.5 text-ink no-underline hover:text-ink">
             <BrandMark className={fullWindow ? "h-6 w-6" : "h-8 w-8"} />
-            <span className={fullWindow ? "hidden text-lg font-semibold tracking-wide sm:inline" : "text-xl font-semibold tracking-wide"}>
+            <span className={fullWindow ? "sr-only text-lg font-semibold tracking-wide sm:not-sr-only" : "text-xl font-semibold tracking-wide"}>
               Kilostep
             </span>
           </Link>

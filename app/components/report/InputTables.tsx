@@ -6,6 +6,7 @@ import { DataTable, type DataTableProps } from "#app/components/DataTable.tsx";
 import { voltageClassOf } from "#app/components/sheet/voltageClasses.ts";
 import { formatNumber } from "#app/lib/format.ts";
 import type { Bus, Line, Load, Network, Shunt, Source, Transformer } from "#solver/schema.ts";
+import { TableScroll } from "./TableScroll.tsx";
 
 const REPORT_TABLE = "data-table ks-report-table";
 
@@ -67,7 +68,11 @@ function powerFactorText(load: Load): string {
 
 function InputTable<Row extends { id: string }>({ caption, columns, rows }: { caption: string; columns: DataTableProps<Row>["columns"]; rows: readonly Row[] }) {
   if (rows.length === 0) return null;
-  return <DataTable className={REPORT_TABLE} caption={caption} columns={columns} rows={rows} rowKey={(row) => row.id} />;
+  return (
+    <TableScroll label={caption}>
+      <DataTable className={REPORT_TABLE} caption={caption} columns={columns} rows={rows} rowKey={(row) => row.id} />
+    </TableScroll>
+  );
 }
 
 export function InputTables({ network }: { network: Network }) {

@@ -28,17 +28,10 @@ import {
 } from "#solver/resultTables.ts";
 import type { SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
+import { TableScroll } from "./TableScroll.tsx";
 
 const REPORT_TABLE = "data-table ks-report-table";
 
-/** A wide table scrolls sideways in its own box on screen, its first column (the names) kept in view. */
-function Scroll({ label, children }: { label: string; children: React.ReactNode }) {
-  return (
-    <div className="ks-table-scroll ks-report-scroll" tabIndex={0} role="region" aria-label={label}>
-      {children}
-    </div>
-  );
-}
 
 /** A shared results column as a report column; `cell` overrides how its value is written. */
 function shared<T>(column: ResultColumn<T>, cell?: (row: T) => React.ReactNode): Column<T> {
@@ -54,7 +47,7 @@ function shared<T>(column: ResultColumn<T>, cell?: (row: T) => React.ReactNode):
 export function BusTable({ network, result }: { network: Network; result: SolveResult }) {
   const c = busColumns;
   return (
-    <Scroll label="Bus voltages">
+    <TableScroll label="Bus voltages">
       <DataTable<BusRow>
         className={REPORT_TABLE}
         caption="Bus voltages"
@@ -70,7 +63,7 @@ export function BusTable({ network, result }: { network: Network; result: SolveR
         rows={busRows(network, result)}
         rowKey={(r) => r.id}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
@@ -78,7 +71,7 @@ export function BranchTable({ network, result }: { network: Network; result: Sol
   const c = branchColumns;
   const totals = result.loadFlow.totals;
   return (
-    <Scroll label="Branch flows and losses">
+    <TableScroll label="Branch flows and losses">
       <DataTable<BranchRow>
         className={REPORT_TABLE}
         caption="Branch flows and losses (each branch in the direction its active power flows; a transformer's current per winding)"
@@ -109,7 +102,7 @@ export function BranchTable({ network, result }: { network: Network; result: Sol
           </tr>
         }
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
@@ -117,7 +110,7 @@ export function FaultTable({ network, result }: { network: Network; result: Solv
   const c = faultColumns;
   const againstBreaking = (kA: number | null, r: FaultRow) => (kA === null ? "unearthed" : readingAgainstLimit(kA, [r.breakingKA], "kA"));
   return (
-    <Scroll label="Short-circuit currents">
+    <TableScroll label="Short-circuit currents">
       <DataTable<FaultRow>
         className={REPORT_TABLE}
         caption={
@@ -151,7 +144,7 @@ export function FaultTable({ network, result }: { network: Network; result: Solv
         rows={faultRows(network, result)}
         rowKey={(r) => r.id}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 

@@ -12,7 +12,7 @@ export default function ApiDocs() {
         title="HTTP API"
         lead="Everything a script needs to read, change and solve networks. JSON in and out; the same role checks as the pages."
       />
-      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+      <div className="grid grid-cols-[minmax(0,1fr)] items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="space-y-6">
           {API_ENDPOINTS.map((endpoint) => (
             <section
@@ -20,7 +20,7 @@ export default function ApiDocs() {
               aria-labelledby={`${endpoint.method}-${endpoint.route}`}
               className="panel p-5"
             >
-              <h2 id={`${endpoint.method}-${endpoint.route}`} className="font-mono text-base">
+              <h2 id={`${endpoint.method}-${endpoint.route}`} className="font-mono text-base break-words">
                 <span className="role-badge mr-2">{endpoint.method}</span>
                 {endpoint.route}
               </h2>
