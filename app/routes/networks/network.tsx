@@ -48,7 +48,11 @@ export default function NetworkPage({ loaderData }: Route.ComponentProps) {
       </Link>
       <h1 className="ks-head-title">{name}</h1>
       <p className="ks-head-meta">
-        <Link to={`/teams/${team.id}`}>{team.name}</Link> · your role <span className="role-badge">{role}</span>
+        <Link to={`/teams/${team.id}`}>{team.name}</Link>
+        <span className="ks-head-role">
+          {" "}
+          · your role <span className="role-badge">{role}</span>
+        </span>
       </p>
       <nav className="ks-head-links" aria-label="This network">
         <Link to={`/networks/${id}/ladder`}>Voltage ladder</Link>
