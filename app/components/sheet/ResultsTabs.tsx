@@ -361,11 +361,14 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
             </button>
           ))}
         </div>
+        {/* A line beside the tabs, so the caution never takes the rows' place; opened, it says it all. */}
+        <details className="ks-caution">
+          <summary>
+            <span aria-hidden="true">⚠ </span>For screening only
+          </summary>
+          {RESULTS_CAUTION}
+        </details>
       </div>
-      <p className="ks-caution">
-        <span aria-hidden="true">⚠ </span>
-        {RESULTS_CAUTION}
-      </p>
       <div role="tabpanel" id="ks-results-panel" aria-labelledby={`ks-tab-${active}`} className="ks-results-panel" tabIndex={0}>
         {panel}
       </div>
