@@ -1,5 +1,6 @@
 // Network writes shared by the pages and the API: every document is validated by the network
-// file's schema before anything is stored, and every change is a new numbered revision.
+// file's schema before anything is stored (a draft with its problems), and every change is a
+// numbered revision (an editing session's autosaves fold into one).
 import type { Db } from "#db/database.ts";
 import { insertNetwork, writeRevision, markNetworkDeleted, readRevision, readRevisionText, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";

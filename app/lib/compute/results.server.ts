@@ -1,7 +1,7 @@
 // The server's computed answers, each run on the compute pool (pool.server.ts) and paid from the
 // caller's budget (budget.server.ts). Answers about a stored revision are kept per revision and
-// last save (an autosave may fold into the revision), so a download, a shared report and a page that ask for the same one
-// share a single calculation, and only the first pays for it.
+// its last save (an autosave may fold into the revision), so a download, a shared report and a
+// page that ask for the same one share a single calculation, and only the first pays for it.
 import { data } from "react-router";
 import type { NetworkRow } from "#db/schema.ts";
 import type { LadderOutcome } from "#solver/ladder.ts";

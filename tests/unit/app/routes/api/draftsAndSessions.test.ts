@@ -77,6 +77,21 @@ describe("editing sessions", () => {
     expect(revisions.map((r) => r.number)).toEqual([3, 2, 1]);
   });
 
+  it("solves the folded document, not an answer kept from the revision's first save", async () => {
+    const id = await newNetwork();
+    const solve = async () => {
+      const solved = await call(solveSaved, jsonRequest("POST", `/api/networks/${id}/solve`, { cookie: editor, body: {} }), { networkId: String(id) });
+      expect(solved.status).toBe(200);
+      return solved.body.loadFlow.totals.loadMW as number;
+    };
+    await put(id, editor, { revision: 1, foldedSaves: 0, document: withLoad(1) });
+    const before = await solve();
+    const folded = await put(id, editor, { revision: 2, foldedSaves: 0, document: withLoad(3) });
+    expect(folded.body).toMatchObject({ revision: 2, foldedSaves: 1 });
+    // The folded save adds 2 MW of load at the same revision number.
+    expect((await solve()) - before).toBeCloseTo(2, 6);
+  });
+
   it("marks a save that only moves busbars as layout", async () => {
     const id = await newNetwork();
     const moved = structuredClone(tarnHead);
