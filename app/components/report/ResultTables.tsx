@@ -152,7 +152,7 @@ export function FaultTable({ network, result }: { network: Network; result: Solv
 export function MinimumFaultTable({ network, result }: { network: Network; result: SolveResult }) {
   const c = faultColumns;
   return (
-    <Scroll label="Minimum short-circuit currents">
+    <TableScroll label="Minimum short-circuit currents">
       <DataTable<FaultRow>
         className={REPORT_TABLE}
         caption={
@@ -181,7 +181,7 @@ export function MinimumFaultTable({ network, result }: { network: Network; resul
         rows={faultRows(network, result)}
         rowKey={(r) => r.id}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
@@ -194,7 +194,7 @@ export function EquipmentTables({ network, result }: { network: Network; result:
   return (
     <>
       {converters.length > 0 ? (
-        <Scroll label="Converter plants">
+        <TableScroll label="Converter plants">
           <DataTable<SourceRow>
             className={REPORT_TABLE}
             caption={`Converter plants: output, and the short-circuit ratio S″k3 min / rated MVA at the plant's bus (below ${WEAK_GRID_SCR} counts as weak)`}
@@ -211,10 +211,10 @@ export function EquipmentTables({ network, result }: { network: Network; result:
             rows={converters}
             rowKey={(r) => r.id}
           />
-        </Scroll>
+        </TableScroll>
       ) : null}
       {taps.length > 0 ? (
-        <Scroll label="Regulating transformers">
+        <TableScroll label="Regulating transformers">
           <DataTable<BranchRow>
             className={REPORT_TABLE}
             caption="Regulating transformers: the tap the on-load tap changer settled on"
@@ -227,7 +227,7 @@ export function EquipmentTables({ network, result }: { network: Network; result:
             rows={taps}
             rowKey={(r) => r.id}
           />
-        </Scroll>
+        </TableScroll>
       ) : null}
     </>
   );
