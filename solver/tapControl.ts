@@ -39,57 +39,97 @@ interface Regulator {
   distance: number;
 }
 
-/** Buses reached from `start` without crossing the transformer `skip`. */
-function reachable(network: Network, start: string, skip: string): Set<string> {
-  const neighbours = new Map<string, string[]>();
-  const link = (a: string, b: string) => {
-    neighbours.set(a, [...(neighbours.get(a) ?? []), b]);
-    neighbours.set(b, [...(neighbours.get(b) ?? []), a]);
-  };
-  for (const l of network.lines) link(l.fromBus, l.toBus);
-  for (const t of network.transformers) if (t.id !== skip) link(t.hvBus, t.lvBus);
-  const seen = new Set([start]);
-  const queue = [start];
-  while (queue.length > 0) for (const next of neighbours.get(queue.pop()!) ?? []) if (!seen.has(next)) (seen.add(next), queue.push(next));
-  return seen;
+interface Edge {
+  bus: string;
+  /** Series impedance magnitude, per unit on the network's base (so that levels compare). */
+  z: number;
+  /** The transformer this edge is, if it is one. */
+  transformer?: string;
 }
 
-/**
- * Electrical distance from a winding's bus to the controlled bus: the smallest sum of series
- * impedance magnitudes (ohms referred to per unit of each element's own voltage, so that levels
- * compare) along a path. Dijkstra on a small graph; regulators are few.
- */
-function electricalDistance(network: Network, from: string, to: string): number {
-  const edges = new Map<string, { bus: string; z: number }[]>();
-  const link = (a: string, b: string, z: number) => {
-    edges.set(a, [...(edges.get(a) ?? []), { bus: b, z }]);
-    edges.set(b, [...(edges.get(b) ?? []), { bus: a, z }]);
+/** The bus graph with each branch's series impedance, built once for every regulator. */
+function busGraph(network: Network): Map<string, Edge[]> {
+  const edges = new Map<string, Edge[]>();
+  const link = (a: string, b: string, z: number, transformer?: string) => {
+    let fromA = edges.get(a);
+    if (!fromA) edges.set(a, (fromA = []));
+    fromA.push({ bus: b, z, transformer });
+    let fromB = edges.get(b);
+    if (!fromB) edges.set(b, (fromB = []));
+    fromB.push({ bus: a, z, transformer });
   };
   const kvOf = new Map(network.buses.map((b) => [b.id, b.nominalKV]));
   for (const l of network.lines) {
     const kv = kvOf.get(l.fromBus) ?? 1;
     link(l.fromBus, l.toBus, (Math.hypot(l.rOhmPerKm, l.xOhmPerKm) * l.lengthKm * network.baseMVA) / (kv * kv));
   }
-  for (const t of network.transformers) link(t.hvBus, t.lvBus, (t.impedancePct / 100) * (network.baseMVA / t.ratedMVA));
+  for (const t of network.transformers) link(t.hvBus, t.lvBus, (t.impedancePct / 100) * (network.baseMVA / t.ratedMVA), t.id);
+  return edges;
+}
+
+/**
+ * Electrical distance from `from` to `to` (the smallest sum of series impedances along a path),
+ * optionally without crossing the transformer `skip`; Infinity when no such path exists. Dijkstra
+ * with a binary heap that stops at `to`: n log n at worst, and a regulator's controlled bus is
+ * usually its own winding's bus or next to it.
+ */
+function electricalDistance(graph: Map<string, Edge[]>, from: string, to: string, skip?: string): number {
   const best = new Map([[from, 0]]);
-  const open = new Set([from]);
-  while (open.size > 0) {
-    let bus = "";
-    let d = Infinity;
-    for (const b of open) if (best.get(b)! < d) (bus = b), (d = best.get(b)!);
-    open.delete(bus);
+  const heap: [number, string][] = [[0, from]];
+  const push = (item: [number, string]) => {
+    heap.push(item);
+    for (let i = heap.length - 1; i > 0; ) {
+      const parent = (i - 1) >> 1;
+      if (heap[parent][0] <= heap[i][0]) break;
+      [heap[parent], heap[i]] = [heap[i], heap[parent]];
+      i = parent;
+    }
+  };
+  const pop = (): [number, string] => {
+    const top = heap[0];
+    const last = heap.pop()!;
+    if (heap.length > 0) {
+      heap[0] = last;
+      for (let i = 0; ; ) {
+        const l = 2 * i + 1;
+        const r = l + 1;
+        let m = i;
+        if (l < heap.length && heap[l][0] < heap[m][0]) m = l;
+        if (r < heap.length && heap[r][0] < heap[m][0]) m = r;
+        if (m === i) break;
+        [heap[m], heap[i]] = [heap[i], heap[m]];
+        i = m;
+      }
+    }
+    return top;
+  };
+  while (heap.length > 0) {
+    const [d, bus] = pop();
+    if (d > (best.get(bus) ?? Infinity)) continue;
     if (bus === to) return d;
-    for (const e of edges.get(bus) ?? [])
-      if (d + e.z < (best.get(e.bus) ?? Infinity)) (best.set(e.bus, d + e.z), open.add(e.bus));
+    for (const e of graph.get(bus) ?? []) {
+      if (e.transformer !== undefined && e.transformer === skip) continue;
+      const next = d + e.z;
+      if (next < (best.get(e.bus) ?? Infinity)) {
+        best.set(e.bus, next);
+        push([next, e.bus]);
+      }
+    }
   }
   return Infinity;
 }
 
 function regulators(network: Network): Regulator[] {
+  if (!network.transformers.some((t) => t.tapControl)) return [];
+  const graph = busGraph(network);
   return network.transformers.flatMap((t, index) => {
     if (!t.tapControl) return [];
     const step = t.tapStepPct ?? DEFAULT_TAP_STEP_PCT;
-    const onLvSide = reachable(network, t.lvBus, t.id).has(t.tapControl.bus);
+    // The controlled bus lies on the LV side when it is reached from the LV winding without
+    // crossing this transformer, and nearer there than from the HV winding the same way.
+    const fromLv = electricalDistance(graph, t.lvBus, t.tapControl.bus, t.id);
+    const fromHv = electricalDistance(graph, t.hvBus, t.tapControl.bus, t.id);
+    const onLvSide = fromLv <= fromHv;
     const winding = onLvSide ? t.lvBus : t.hvBus;
     return [
       {
@@ -101,7 +141,7 @@ function regulators(network: Network): Regulator[] {
         step,
         // A positive HV tap adds HV turns: the LV side's voltage falls, the HV side's rises.
         voltagePerTapSign: onLvSide ? -1 : 1,
-        distance: electricalDistance(network, winding, t.tapControl.bus),
+        distance: Math.min(fromLv, fromHv),
       },
     ];
   });
