@@ -21,8 +21,9 @@ async function expectNoSeriousAccessibilityProblems(page: Page) {
 async function openStudy(page: Page) {
   await page.getByRole("link", { name: TARN_HEAD }).click();
   await page.waitForURL(/\/networks\/\d+$/);
-  await page.goto(`${new URL(page.url()).pathname}/study`);
   await hydrated(page);
+  await page.getByRole("link", { name: "Study", exact: true }).click();
+  await page.waitForURL(/\/study$/);
   await expect(page.getByRole("heading", { name: "Study", level: 1 })).toBeVisible();
 }
 

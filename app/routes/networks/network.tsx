@@ -55,6 +55,8 @@ export default function NetworkPage({ loaderData }: Route.ComponentProps) {
         </span>
       </p>
       <nav className="ks-head-links" aria-label="This network">
+        <Link to={`/networks/${id}/study`}>Study</Link>
+        <Link to={`/networks/${id}/cases`}>Operating cases</Link>
         <Link to={`/networks/${id}/ladder`}>Voltage ladder</Link>
         <Link to={`/networks/${id}/report`}>Study report</Link>
         {role !== "viewer" ? <Link to={`/networks/${id}/loads-import`}>Import loads</Link> : null}

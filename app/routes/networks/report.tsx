@@ -118,6 +118,9 @@ export default function ReportPage({ loaderData }: Route.ComponentProps) {
       <div className="ks-report-tools">
         <Link to={home}>← {name}</Link>
         <span className="flex-1" />
+        <Link to={`${home}/study`} className="btn btn-small">
+          Study
+        </Link>
         {viaLink ? null : (
           <Link to={`/networks/${id}/ladder`} className="btn btn-small">
             Voltage ladder
