@@ -78,49 +78,51 @@ const costList = (table: readonly CostPoint[], currency: string) =>
 export function MoneySummary({ money }: { money: MoneyInput }) {
   const llf = lossLoadFactor(money.loadFactor, money.lossLoadFactorK);
   return (
-    <table className="data-table ks-money-summary">
-      <tbody>
-        <tr>
-          <th scope="row">Load factor</th>
-          <td className="num">{fixed(money.loadFactor, 3)}</td>
-        </tr>
-        <tr>
-          <th scope="row">k of the loss load factor</th>
-          <td className="num">{fixed(money.lossLoadFactorK, 3)}</td>
-        </tr>
-        <tr>
-          <th scope="row">Loss load factor, k·LF + (1 − k)·LF²</th>
-          <td className="num">{fixed(llf, 4)}</td>
-        </tr>
-        <tr>
-          <th scope="row">
-            Energy price <span className="unit">{money.currency}/MWh</span>
-          </th>
-          <td className="num">{fixed(money.energyPricePerMWh, 2)}</td>
-        </tr>
-        <tr>
-          <th scope="row">
-            Discount rate <span className="unit">% a year</span>
-          </th>
-          <td className="num">{fixed(money.discountRatePct, 2)}</td>
-        </tr>
-        <tr>
-          <th scope="row">
-            Study period <span className="unit">years</span>
-          </th>
-          <td className="num">{money.studyYears}</td>
-        </tr>
-        <tr>
-          <th scope="row">Present-worth factor, (1 − (1 + i)^−n) / i</th>
-          <td className="num">{fixed(presentWorthFactor(money.discountRatePct / 100, money.studyYears), 4)}</td>
-        </tr>
-        <tr>
-          <th scope="row">
-            Load growth <span className="unit">% a year</span>
-          </th>
-          <td className="num">{fixed(money.loadGrowthPct, 2)}</td>
-        </tr>
-      </tbody>
-    </table>
+    <div className="ks-table-scroll" tabIndex={0} role="region" aria-label="Money inputs">
+      <table className="data-table ks-money-summary">
+        <tbody>
+          <tr>
+            <th scope="row">Load factor</th>
+            <td className="num">{fixed(money.loadFactor, 3)}</td>
+          </tr>
+          <tr>
+            <th scope="row">k of the loss load factor</th>
+            <td className="num">{fixed(money.lossLoadFactorK, 3)}</td>
+          </tr>
+          <tr>
+            <th scope="row">Loss load factor, k·LF + (1 − k)·LF²</th>
+            <td className="num">{fixed(llf, 4)}</td>
+          </tr>
+          <tr>
+            <th scope="row">
+              Energy price <span className="unit">{money.currency}/MWh</span>
+            </th>
+            <td className="num">{fixed(money.energyPricePerMWh, 2)}</td>
+          </tr>
+          <tr>
+            <th scope="row">
+              Discount rate <span className="unit">% a year</span>
+            </th>
+            <td className="num">{fixed(money.discountRatePct, 2)}</td>
+          </tr>
+          <tr>
+            <th scope="row">
+              Study period <span className="unit">years</span>
+            </th>
+            <td className="num">{money.studyYears}</td>
+          </tr>
+          <tr>
+            <th scope="row">Present-worth factor, (1 − (1 + i)^−n) / i</th>
+            <td className="num">{fixed(presentWorthFactor(money.discountRatePct / 100, money.studyYears), 4)}</td>
+          </tr>
+          <tr>
+            <th scope="row">
+              Load growth <span className="unit">% a year</span>
+            </th>
+            <td className="num">{fixed(money.loadGrowthPct, 2)}</td>
+          </tr>
+        </tbody>
+      </table>
+    </div>
   );
 }
