@@ -72,7 +72,7 @@ export function ApiTokensPanel({ tokens }: { tokens: ApiTokenRow[] }) {
         </button>
       </create.Form>
       {tokens.length > 0 ? (
-        <div className="mt-4 overflow-x-auto">
+        <div className="relative mt-4 overflow-x-auto">
           <table className="data-table">
             <thead>
               <tr>

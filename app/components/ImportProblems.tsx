@@ -36,7 +36,7 @@ export function PathProblems({ issues, total }: { issues: ValidationIssue[]; tot
 export function RowProblems({ errors, total }: { errors: RowError[]; total: number }) {
   if (errors.length === 0) return null;
   return (
-    <div className="mt-3 overflow-x-auto">
+    <div className="relative mt-3 overflow-x-auto">
       <table className="data-table">
         <caption className="text-left">
           {total} row error{total === 1 ? "" : "s"}

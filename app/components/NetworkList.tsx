@@ -125,7 +125,7 @@ export function RecentlyDeleted({ networks }: { networks: DeletedNetworkRow[] })
         Recently deleted
       </h2>
       <p className="mt-1 text-ink-soft">Deleted networks stay restorable for 30 days, then they are gone for good.</p>
-      <div className="panel mt-4 overflow-x-auto" role="region" aria-label="Recently deleted networks" tabIndex={0}>
+      <div className="relative panel mt-4 overflow-x-auto" role="region" aria-label="Recently deleted networks" tabIndex={0}>
         <table className="data-table">
           <thead>
             <tr>

@@ -24,7 +24,7 @@ export function TeamMembers({
   ownerCount: number;
 }) {
   return (
-    <section aria-labelledby="members-title" className="panel overflow-x-auto" tabIndex={0}>
+    <section aria-labelledby="members-title" className="relative panel overflow-x-auto" tabIndex={0}>
       <h2 id="members-title" className="px-4 pt-4 text-lg">
         Members
       </h2>

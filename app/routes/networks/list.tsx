@@ -107,7 +107,7 @@ export default function Networks({ loaderData, actionData }: Route.ComponentProp
         </div>
       ) : null}
       <div className={createTeams.length > 0 ? "grid grid-cols-1 items-start gap-6 lg:grid-cols-[minmax(0,1fr)_20rem]" : ""}>
-        <section aria-labelledby="network-list-title" className="panel overflow-x-auto" tabIndex={0}>
+        <section aria-labelledby="network-list-title" className="relative panel overflow-x-auto" tabIndex={0}>
           <h2 id="network-list-title" className="sr-only">
             Your networks
           </h2>

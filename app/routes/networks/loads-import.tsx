@@ -114,7 +114,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 function ChangeTable({ changes, added, updated }: { changes: LoadChange[]; added: number; updated: number }) {
   const total = added + updated;
   return (
-    <div className="mt-3 overflow-x-auto">
+    <div className="relative mt-3 overflow-x-auto">
       <table className="data-table">
         <caption className="text-left">
           {formatNumber(added)} new, {formatNumber(updated)} updated

@@ -82,7 +82,7 @@ export default function RevisionsPage({ loaderData, actionData }: Route.Componen
         </div>
       ) : null}
       <div className="grid grid-cols-1 items-start gap-6 xl:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
-        <section aria-labelledby="revision-list-title" className="panel overflow-x-auto p-5" tabIndex={0}>
+        <section aria-labelledby="revision-list-title" className="relative panel overflow-x-auto p-5" tabIndex={0}>
           <h2 id="revision-list-title" className="text-lg">
             History
           </h2>

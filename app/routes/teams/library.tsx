@@ -355,7 +355,7 @@ export default function TeamLibrary({ loaderData, actionData }: Route.ComponentP
         </div>
       ) : null}
       {(["transformer", "conductor"] as const).map((kind) => (
-        <section key={kind} aria-labelledby={`library-${kind}`} className="panel mb-6 overflow-x-auto" tabIndex={0}>
+        <section key={kind} aria-labelledby={`library-${kind}`} className="relative panel mb-6 overflow-x-auto" tabIndex={0}>
           <h2 id={`library-${kind}`} className="p-4 pb-0 text-lg">
             {kind === "transformer" ? "Transformers" : "Conductors"}
           </h2>

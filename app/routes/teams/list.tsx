@@ -24,7 +24,7 @@ export default function Teams({ loaderData }: Route.ComponentProps) {
           </Link>
         }
       />
-      <section aria-labelledby="teams-title" className="panel overflow-x-auto" tabIndex={0}>
+      <section aria-labelledby="teams-title" className="relative panel overflow-x-auto" tabIndex={0}>
         <h2 id="teams-title" className="sr-only">
           Your teams
         </h2>
