@@ -1,12 +1,13 @@
 // On-load tap changers around the load flow: after Newton–Raphson converges, the regulating
 // transformer whose controlled bus lies outside its band and is electrically nearest to it moves
-// one step toward the band; the network is solved again. The loop stops when every regulated bus
-// is inside its band or its tap is at a limit. A transformer that would step back to a position
-// it has just left is held there instead, so two regulators can never chase each other.
+// toward the band by as many steps as its voltage error calls for (from dV/dtap); the network is
+// solved again. The loop stops when every regulated bus is inside its band or its tap is at a
+// limit. A regulator never returns to a position it has tried (it stays between the positions
+// found too low and too high), so two regulators can never chase each other.
 import type { LoadFlowResult } from "#solver/results.ts";
 import type { Network, Transformer } from "#solver/schema.ts";
 
-/** A step count well beyond any real tap range, so a bug cannot loop for ever. */
+/** A move count well beyond any real tap range, so a bug cannot loop for ever. */
 const MAX_TAP_MOVES = 500;
 /** Default range and step of an on-load tap changer when the transformer does not say (common practice). */
 export const DEFAULT_TAP_RANGE_PCT = 10;
@@ -149,41 +150,91 @@ function regulators(network: Network): Regulator[] {
 
 const EPSILON = 1e-9;
 
+/** What one regulator has learnt so far: the tap positions known to be too low or too high, and dV/dtap. */
+interface Search {
+  /** Highest tap known to need a higher tap, and lowest known to need a lower one: the band lies between. */
+  needsUp: number;
+  needsDown: number;
+  /** Voltage of the controlled bus per % of tap, from the last two solves (the ratio law until then). */
+  perPct: number | null;
+  /** Set after a multi-step move failed to solve: from then on one step at a time. */
+  singleSteps: boolean;
+}
+
+/**
+ * How far to move: the number of steps that brings the controlled bus to the near edge of its
+ * band, at least one, toward the band. The first move follows the ideal transformer's ratio law
+ * (the LV side's voltage goes as 1/(1 + tap/100), the HV side's as 1 + tap/100); later moves use
+ * dV/dtap measured between this regulator's last two solves, which includes the load's response.
+ */
+function stepsToBand(r: Regulator, search: Search, tapPct: number, v: number, lowEdge: number, highEdge: number): number {
+  if (search.singleSteps) return 1;
+  const edge = v < lowEdge ? lowEdge : highEdge;
+  const ratio = 1 + tapPct / 100;
+  const neededPct =
+    search.perPct !== null ? (edge - v) / search.perPct : r.voltagePerTapSign < 0 ? 100 * ((v * ratio) / edge - ratio) : 100 * ((edge * ratio) / v - ratio);
+  const steps = Math.ceil(Math.abs(neededPct) / r.step - 1e-6);
+  return Number.isFinite(steps) ? Math.max(1, steps) : 1;
+}
+
+/**
+ * Regulate the taps around `solve`. After each converged solve the out-of-band regulator nearest
+ * its bus moves by the number of steps its voltage error calls for (stepsToBand), clamped to its
+ * range and kept strictly between the positions already found too low and too high, so that it
+ * never returns to a position it has tried: the loop ends, without oscillating, when every bus is
+ * in its band, a range has run out, or no untried position lies between a too-low and a too-high
+ * one (the band is narrower than a step there; the regulator is held).
+ */
 export function regulateTaps(network: Network, solve: (network: Network) => LoadFlowResult): RegulatedLoadFlow {
   const regs = regulators(network).sort((a, b) => a.distance - b.distance);
   let current = network;
   let result = solve(current);
   let solves = 1;
   const taps = new Map(regs.map((r) => [r.transformer.id, r.transformer.tapPct]));
+  const searches = new Map<string, Search>(regs.map((r) => [r.transformer.id, { needsUp: -Infinity, needsDown: Infinity, perPct: null, singleSteps: false }]));
   const limited = new Set<string>();
-  const lastMove = new Map<string, number>();
   const held = new Set<string>();
+  let lastMove: { id: string; fromPct: number; fromVPu: number } | null = null;
 
   for (let moves = 0; moves < MAX_TAP_MOVES && result.converged; moves++) {
     const voltage = new Map(result.buses.map((b) => [b.id, b.vPu]));
+    if (lastMove) {
+      // The measured sensitivity of the regulator that just moved, when it has the expected sign.
+      const r = regs.find((x) => x.transformer.id === lastMove!.id)!;
+      const search = searches.get(lastMove.id)!;
+      const perPct = (voltage.get(r.control.bus)! - lastMove.fromVPu) / (taps.get(lastMove.id)! - lastMove.fromPct);
+      if (Number.isFinite(perPct) && perPct * r.voltagePerTapSign > 1e-6) search.perPct = perPct;
+    }
     let moved = false;
     limited.clear();
     for (const r of regs) {
-      if (held.has(r.transformer.id)) continue;
+      const id = r.transformer.id;
+      if (held.has(id)) continue;
       const v = voltage.get(r.control.bus);
       if (v === undefined) continue;
       const half = r.control.bandPu / 2;
-      const error = v < r.control.targetPu - half - EPSILON ? 1 : v > r.control.targetPu + half + EPSILON ? -1 : 0;
+      const lowEdge = r.control.targetPu - half;
+      const highEdge = r.control.targetPu + half;
+      const error = v < lowEdge - EPSILON ? 1 : v > highEdge + EPSILON ? -1 : 0;
       if (error === 0) continue;
       const direction = error * r.voltagePerTapSign;
-      const tap = taps.get(r.transformer.id)!;
-      const next = Math.min(r.max, Math.max(r.min, tap + direction * r.step));
-      if (Math.abs(next - tap) < EPSILON) {
-        limited.add(r.transformer.id);
+      const tap = taps.get(id)!;
+      const search = searches.get(id)!;
+      if (direction > 0) search.needsUp = Math.max(search.needsUp, tap);
+      else search.needsDown = Math.min(search.needsDown, tap);
+      const wanted = tap + direction * stepsToBand(r, search, tap, v, lowEdge, highEdge) * r.step;
+      let next = Math.min(r.max, Math.max(r.min, wanted));
+      // Never onto or past a position already found on the other side of the band.
+      if (direction > 0 && next >= search.needsDown - EPSILON) next = tap + Math.floor((search.needsDown - tap) / r.step - 1e-6) * r.step;
+      if (direction < 0 && next <= search.needsUp + EPSILON) next = tap - Math.floor((tap - search.needsUp) / r.step - 1e-6) * r.step;
+      if (Math.abs(next - tap) < EPSILON || (next - tap) * direction < 0) {
+        if (Math.abs(tap - (direction > 0 ? r.max : r.min)) < EPSILON) limited.add(id);
+        // Otherwise a too-low and a too-high position are one step apart: the band is narrower than a step.
+        else held.add(id);
         continue;
       }
-      if (lastMove.get(r.transformer.id) === -direction) {
-        // Stepping back would undo the last step: the band is narrower than one step here.
-        held.add(r.transformer.id);
-        continue;
-      }
-      taps.set(r.transformer.id, Number(next.toFixed(9)));
-      lastMove.set(r.transformer.id, direction);
+      lastMove = { id, fromPct: tap, fromVPu: v };
+      taps.set(id, Number(next.toFixed(9)));
       moved = true;
       break;
     }
@@ -195,8 +246,18 @@ export function regulateTaps(network: Network, solve: (network: Network) => Load
     const nextResult = solve(next);
     solves++;
     if (!nextResult.converged) {
-      // The step took the network past what it can carry: keep the last position that solved.
-      for (const t of current.transformers) if (taps.has(t.id)) taps.set(t.id, t.tapPct);
+      // The move took the network past what it can carry: back to the last position that solved.
+      const { id, fromPct } = lastMove!;
+      const search = searches.get(id)!;
+      const movedSteps = Math.abs(taps.get(id)! - fromPct) / regs.find((r) => r.transformer.id === id)!.step;
+      taps.set(id, fromPct);
+      lastMove = null;
+      // A multi-step move may have gone too far at once: try again one step at a time; a single
+      // step that fails ends the regulation where it last solved.
+      if (movedSteps > 1 + EPSILON && !search.singleSteps) {
+        search.singleSteps = true;
+        continue;
+      }
       for (const r of regs) held.add(r.transformer.id);
       break;
     }

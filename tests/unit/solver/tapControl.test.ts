@@ -7,16 +7,19 @@
 // 0 % → 0.9667, −1.25 % → 0.9798, −2.5 % → 0.9933 (inside the band), so the tap settles at −2.5 %.
 import { describe, expect, it } from "vitest";
 import { solveNetwork } from "#solver/index.ts";
+import { runLoadFlow } from "#solver/loadFlow/index.ts";
+import { validateNetwork } from "#solver/schema.ts";
+import { regulateTaps } from "#solver/tapControl.ts";
 
 const P = 0.08;
 const Q = 0.03;
 const R = 0.08;
 const X = Math.sqrt(0.8 * 0.8 - R * R);
 
-function closedFormLvPu(tapPct: number): number {
-  const vs = 1 / (1 + tapPct / 100);
-  const b = 2 * (P * R + Q * X) - vs * vs;
-  const c = (P * P + Q * Q) * (R * R + X * X);
+function closedFormLvPu(tapPct: number, sourcePu = 1, p = P, q = Q): number {
+  const vs = sourcePu / (1 + tapPct / 100);
+  const b = 2 * (p * R + q * X) - vs * vs;
+  const c = (p * p + q * q) * (R * R + X * X);
   return Math.sqrt((-b + Math.sqrt(b * b - 4 * c)) / 2);
 }
 
@@ -95,5 +98,41 @@ describe("on-load tap changer holding a bus (hand-worked two-bus case)", () => {
     const lf = solved({ ...doc, transformers });
     expect(lf.branches.find((b) => b.id === "t")!.tapPct).toBe(1.25);
     expect(lf.branches.find((b) => b.id === "t")!.tapLimited).toBeUndefined();
+  });
+
+  it("moves by the steps the voltage error calls for: 8 steps of 1.25 % in at most 3 solves, to the same tap as one step at a time", () => {
+    // Source at 0.90 pu, 2 MW + 0.5 Mvar: the LV bus sits near 0.89 pu and needs about −10 % of tap.
+    const doc = twoBus({ tapMinPct: -15, tapMaxPct: 15 });
+    doc.sources[0].voltagePu = 0.9;
+    doc.loads[0].pMW = 2;
+    doc.loads[0].qMvar = 0.5;
+    const validated = validateNetwork(doc);
+    if (!validated.ok) throw new Error(JSON.stringify(validated.issues));
+    // One step at a time by the closed form: the first position whose LV voltage reaches 0.99 pu.
+    let handTap = 0;
+    while (closedFormLvPu(handTap, 0.9, 0.02, 0.005) < 0.99) handTap -= 1.25;
+    expect(handTap).toBe(-10);
+    const regulated = regulateTaps(validated.network, runLoadFlow);
+    expect(regulated.taps[0].tapPct).toBe(handTap);
+    expect(regulated.taps[0].tapLimited).toBe(false);
+    expect(regulated.solves).toBeLessThanOrEqual(3);
+    expect(regulated.result.buses.find((b) => b.id === "lv")!.vPu).toBeCloseTo(closedFormLvPu(handTap, 0.9, 0.02, 0.005), 6);
+  });
+
+  it("a long way outside a narrow band still ends within one step of the target in a few solves, never returning to a tap it tried", () => {
+    const doc = twoBus({ tapMinPct: -20, tapMaxPct: 20 }, 0.002);
+    doc.sources[0].voltagePu = 0.88;
+    const validated = validateNetwork(doc);
+    if (!validated.ok) throw new Error(JSON.stringify(validated.issues));
+    const tried: number[] = [];
+    const regulated = regulateTaps(validated.network, (net) => {
+      tried.push(net.transformers[0].tapPct);
+      return runLoadFlow(net);
+    });
+    expect(new Set(tried).size).toBe(tried.length);
+    expect(regulated.solves).toBeLessThanOrEqual(6);
+    const tap = regulated.taps[0].tapPct;
+    const v = regulated.result.buses.find((b) => b.id === "lv")!.vPu;
+    expect(Math.abs(v - 1)).toBeLessThan(Math.abs(closedFormLvPu(tap, 0.88) - closedFormLvPu(tap + 1.25, 0.88)));
   });
 });
