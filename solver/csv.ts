@@ -64,7 +64,7 @@ export function branchesCsv(network: Network, result: SolveResult): string {
 
 export function sourcesCsv(network: Network, result: SolveResult): string {
   const c = sourceColumns;
-  return columnsCsv([c.id, c.name, c.busId, c.kind, c.control, c.pMW, c.qMvar, c.ratedMVA, c.scr], sourceRows(network, result));
+  return columnsCsv([c.id, c.name, c.busId, c.kind, c.control, c.pMW, c.qMvar, c.ratedMVA, c.scr, c.scrAsked], sourceRows(network, result));
 }
 
 /** The tables the results CSV offers. */

@@ -1,6 +1,14 @@
 // Cross-element rules for the version 2 equipment fields: converter plants, regulating taps and
 // minimum fault levels. Each issue names the element and its path.
-import type { Network } from "#solver/schema.ts";
+import type { Network, Source } from "#solver/schema.ts";
+
+/** Below this short-circuit ratio a converter plant's connection counts as weak unless the plant says otherwise (common practice). */
+export const DEFAULT_MIN_SHORT_CIRCUIT_RATIO = 3;
+
+/** The lowest short-circuit ratio asked at a converter plant's bus: its own minShortCircuitRatio, else 3. */
+export function minShortCircuitRatio(source: Pick<Source, "minShortCircuitRatio">): number {
+  return source.minShortCircuitRatio ?? DEFAULT_MIN_SHORT_CIRCUIT_RATIO;
+}
 
 type Add = (path: (string | number)[], message: string) => void;
 
@@ -30,6 +38,8 @@ export function equipmentRules(net: Network, add: Add): void {
       if (s.faultCurrentPct === undefined)
         add(["sources", i, "faultCurrentPct"], `${who}: a converter plant needs its maximum short-circuit current faultCurrentPct (% of rated current)`);
     } else if (s.faultCurrentPct !== undefined) add(["sources", i, "faultCurrentPct"], `${who}: only a converter plant has faultCurrentPct`);
+    if (s.minShortCircuitRatio !== undefined && s.kind !== "converter")
+      add(["sources", i, "minShortCircuitRatio"], `${who}: only a converter plant has a minimum short-circuit ratio`);
     if (s.control === "pf") {
       needsVersion2(["sources", i, "control"], "power-factor control");
       if (s.kind !== "converter") add(["sources", i, "control"], `${who}: only a converter plant runs at a set power factor`);
@@ -56,7 +66,7 @@ export function equipmentRules(net: Network, add: Add): void {
 export function usesVersion2Equipment(net: Pick<Network, "buses" | "sources" | "transformers">): boolean {
   return (
     (net.buses ?? []).some((b) => b.minFaultMVA !== undefined) ||
-    (net.sources ?? []).some((s) => s.kind === "converter" || s.control === "pf" || s.shortCircuitMinMVA !== undefined || s.faultCurrentPct !== undefined || s.powerFactor !== undefined) ||
+    (net.sources ?? []).some((s) => s.kind === "converter" || s.control === "pf" || s.shortCircuitMinMVA !== undefined || s.faultCurrentPct !== undefined || s.powerFactor !== undefined || s.minShortCircuitRatio !== undefined) ||
     (net.transformers ?? []).some((t) => t.tapControl !== undefined)
   );
 }

@@ -5,6 +5,7 @@ import { UNEARTHED_NOTE } from "#solver/faults/index.ts";
 import type { Quantity } from "#solver/quantities.ts";
 import type { SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
+import { minShortCircuitRatio } from "#solver/equipmentRules.ts";
 
 export interface BusRow {
   id: string;
@@ -94,6 +95,8 @@ export interface SourceRow {
   /** Converter plants: rated MVA and the short-circuit ratio at the plant's bus (S″k3min / rated MVA). */
   ratedMVA: number | undefined;
   scr: number | undefined;
+  /** The lowest SCR asked of a converter plant (its minShortCircuitRatio, else 3). */
+  scrAsked: number | undefined;
 }
 
 export interface ResultColumn<Row> {
@@ -211,6 +214,7 @@ export function sourceRows(network: Network, result: SolveResult): SourceRow[] {
       qMvar: r.qMvar,
       ratedMVA: converter ? s.ratedMVA : undefined,
       scr: converter ? scr.get(s.id) : undefined,
+      scrAsked: converter ? minShortCircuitRatio(s) : undefined,
     }];
   });
 }
@@ -278,6 +282,7 @@ export const sourceColumns = {
   qMvar: { key: "qMvar", header: "Q", quantity: "Mvar", value: (r) => r.qMvar, csv: "q_Mvar" },
   ratedMVA: { key: "ratedMVA", header: "Rated", quantity: "MVA", value: (r) => r.ratedMVA, csv: "rated_MVA" },
   scr: { key: "scr", header: "SCR", quantity: "ratio", value: (r) => r.scr, csv: "scr" },
+  scrAsked: { key: "scrAsked", header: "SCR asked", quantity: "ratio", value: (r) => r.scrAsked, csv: "scr_asked" },
 } satisfies Record<string, ResultColumn<SourceRow>>;
 
 /** A transformer's tap changer in words: "regulating", "range ran out", or nothing when the tap is fixed. */

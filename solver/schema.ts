@@ -76,6 +76,8 @@ export const sourceSchema = z.strictObject({
   powerFactor: within(-1, 1, "").optional(),
   /** Version 2, converter: maximum short-circuit current I_skPF as a percentage of rated current. */
   faultCurrentPct: within(0, 1000, "%").optional(),
+  /** Version 2, converter: the lowest short-circuit ratio the planner accepts at its bus (3 when not given). */
+  minShortCircuitRatio: within(0.1, 100, "").optional(),
 });
 
 export const transformerSchema = z.strictObject({

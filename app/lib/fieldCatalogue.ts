@@ -33,6 +33,7 @@ export const FIELD_CATALOGUE = {
   shortCircuitMinMVA: { label: "Weakest short-circuit power S″kQ min", quantity: "MVA" },
   powerFactor: { label: "Power factor (+ supplies Q, − absorbs)", quantity: "ratio" },
   faultCurrentPct: { label: "Maximum short-circuit current (of rated)", quantity: "pct" },
+  minShortCircuitRatio: { label: "Lowest short-circuit ratio asked", quantity: "ratio" },
   xOverR: { label: "X/R", quantity: "ratio" },
   z0OverZ1: { label: "Z0/Z1", quantity: "ratio" },
   ratedMVA: { label: "Rated power", quantity: "MVA" },

@@ -3,6 +3,7 @@
 // current. I"k is at least the symmetrical breaking current I_b, so the comparison errs safe.
 import type { Check, FaultResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
+import { minShortCircuitRatio } from "#solver/equipmentRules.ts";
 
 const kA = (value: number) => `${value.toFixed(2)} kA`;
 
@@ -30,9 +31,6 @@ export function faultChecks(network: Network, faults: FaultResult): Check[] {
   return checks;
 }
 
-/** Below this short-circuit ratio a converter plant's connection counts as weak (common practice). */
-export const WEAK_GRID_SCR = 3;
-
 /** The minimum fault level against what the planner asks of a bus, and each converter's SCR. */
 function minimumFaultChecks(network: Network, faults: FaultResult): Check[] {
   const readings = new Map(faults.buses.map((r) => [r.id, r]));
@@ -51,14 +49,15 @@ function minimumFaultChecks(network: Network, faults: FaultResult): Check[] {
     });
   }
   for (const converter of faults.converters) {
-    if (converter.scr >= WEAK_GRID_SCR) continue;
     const source = network.sources.find((s) => s.id === converter.id)!;
+    const asked = minShortCircuitRatio(source);
+    if (converter.scr >= asked) continue;
     checks.push({
       element: converter.id,
       kind: "weak-grid",
       value: converter.scr,
-      limit: WEAK_GRID_SCR,
-      message: `Converter plant "${source.name}" (${source.id}): short-circuit ratio ${converter.scr.toFixed(2)} at its bus is below ${WEAK_GRID_SCR}, a weak connection (S"k3min / rated MVA, common practice)`,
+      limit: asked,
+      message: `Converter plant "${source.name}" (${source.id}): short-circuit ratio ${converter.scr.toFixed(2)} at its bus is below ${asked}${source.minShortCircuitRatio === undefined ? "" : " asked of it"}, a weak connection (S"k3min / rated MVA${source.minShortCircuitRatio === undefined ? ", common practice" : ""})`,
     });
   }
   return checks;

@@ -76,6 +76,7 @@ const source = object({
   ratedPowerFactor: optional(number(0, 1, "", { minExclusive: true })),
   powerFactor: optional(number(-1, 1, "")),
   faultCurrentPct: optional(number(0, 1000, "%")),
+  minShortCircuitRatio: optional(number(0.1, 100, "")),
 });
 
 const tapControl = object({

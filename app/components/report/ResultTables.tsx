@@ -6,7 +6,6 @@ import { DataTable, type Column } from "#app/components/DataTable.tsx";
 import { checkLine } from "#app/lib/checkText.ts";
 import { fixed, readingAgainstLimit, readingNumber, readingText } from "#app/lib/format.ts";
 import { lowerLimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
-import { WEAK_GRID_SCR } from "#solver/faults/breakingChecks.ts";
 import { QUANTITY_UNIT } from "#solver/quantities.ts";
 import {
   BRANCH_KIND_WORDS,
@@ -197,7 +196,7 @@ export function EquipmentTables({ network, result }: { network: Network; result:
         <TableScroll label="Converter plants">
           <DataTable<SourceRow>
             className={REPORT_TABLE}
-            caption={`Converter plants: output, and the short-circuit ratio S″k3 min / rated MVA at the plant's bus (below ${WEAK_GRID_SCR} counts as weak)`}
+            caption={`Converter plants: output, and the short-circuit ratio S″k3 min / rated MVA at the plant's bus (below the SCR asked, 3 unless the plant says, counts as weak)`}
             columns={[
               shared(s.name),
               shared(s.busName),
@@ -205,8 +204,9 @@ export function EquipmentTables({ network, result }: { network: Network; result:
               shared(s.pMW),
               shared(s.qMvar),
               shared(s.ratedMVA),
-              shared(s.scr, (r) => readingAgainstLimit(r.scr ?? null, [WEAK_GRID_SCR], "ratio")),
-              { header: "Status", cell: (r) => <StatusText status={lowerLimitStatus(r.scr, WEAK_GRID_SCR, "ratio")} /> },
+              shared(s.scr, (r) => readingAgainstLimit(r.scr ?? null, [r.scrAsked], "ratio")),
+              shared(s.scrAsked),
+              { header: "Status", cell: (r) => <StatusText status={lowerLimitStatus(r.scr, r.scrAsked, "ratio")} /> },
             ]}
             rows={converters}
             rowKey={(r) => r.id}

@@ -175,7 +175,8 @@ const sourceTable: ColumnDef<SourceRow>[] = [
   shared(source.busName),
   shared(source.kind),
   shared(source.control),
-  shared(source.scr),
+  shared(source.scr, (r) => readingAgainstLimit(r.scr ?? null, [r.scrAsked], "ratio")),
+  shared(source.scrAsked),
   shared(source.ratedMVA),
 ];
 
@@ -299,7 +300,7 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
         <ResultsTable caption="Source outputs" data={rows.sources} columns={sourceTable} />
         <div className="ks-results-foot">
           <CsvLink table="sources" csvBase={csvFrom} revision={savedRevision} />
-          <p className="ks-muted">SCR: a converter plant's short-circuit ratio, S″k3 min at its bus over its rated MVA (below 3 counts as weak).</p>
+          <p className="ks-muted">SCR: a converter plant's short-circuit ratio, S″k3 min at its bus over its rated MVA below the SCR asked counts as weak: the plant's own lowest SCR in Details, 3 when it gives none.</p>
         </div>
       </>
     );

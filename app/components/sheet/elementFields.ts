@@ -162,7 +162,14 @@ function sourceFields(source: Source): FieldDef[] {
       quantity("z0OverZ1", { optional: true }),
     );
   else if (source.kind === "converter")
-    fields.push(quantity("ratedMVA"), quantity("faultCurrentPct", { hint: "the maker's stated maximum (IEC 60909-0:2016 full-converter unit)" }));
+    fields.push(
+      quantity("ratedMVA"),
+      quantity("faultCurrentPct", { hint: "the maker's stated maximum (IEC 60909-0:2016 full-converter unit)" }),
+      quantity("minShortCircuitRatio", {
+        optional: true,
+        hint: "S″k3 min / rated MVA the connection must keep; 3 when empty (common practice), or what the grid code or the maker asks",
+      }),
+    );
   else
     fields.push(
       quantity("ratedMVA"),

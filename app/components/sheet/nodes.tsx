@@ -8,7 +8,7 @@ import { flowArrow } from "./readingFormat.ts";
 import { readingAgainstLimit, readingNumber } from "#app/lib/format.ts";
 import { UNEARTHED_NOTE } from "#solver/faults/index.ts";
 import { type LimitStatus, lowerLimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
-import { WEAK_GRID_SCR } from "#solver/faults/breakingChecks.ts";
+import { minShortCircuitRatio } from "#solver/equipmentRules.ts";
 import { useSheet } from "./sheetStore.ts";
 import {
   CapacitorSymbol,
@@ -251,8 +251,8 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
             {readingNumber(reading.pMW, "MW")} MW · {readingNumber(reading.qMvar, "Mvar")} Mvar
           </div>
           {scr !== undefined ? (
-            <div className={scr < WEAK_GRID_SCR ? statusCue.beyond.className : undefined}>
-              SCR {readingAgainstLimit(scr, [WEAK_GRID_SCR], "ratio")} <StatusMark status={scr < WEAK_GRID_SCR ? "beyond" : undefined} />
+            <div className={scr < minShortCircuitRatio(source) ? statusCue.beyond.className : undefined}>
+              SCR {readingAgainstLimit(scr, [minShortCircuitRatio(source)], "ratio")} <StatusMark status={scr < minShortCircuitRatio(source) ? "beyond" : undefined} />
             </div>
           ) : null}
         </ReadingBlock>

@@ -136,7 +136,9 @@ describe("version 2 readings in the CSV: minimum fault levels, regulating taps a
     const bus = table(busesCsv(solar.network, solar.result)).find((r) => r.bus_id === plant.bus)!;
     expect(Number(plant.scr)).toBeCloseTo(Number(bus.sk3min_MVA) / drawn.ratedMVA!, 2);
     expect(Number(plant.p_MW)).toBeCloseTo(solar.result.loadFlow.sources.find((s) => s.id === drawn.id)!.pMW, 4);
+    expect(Number(plant.scr_asked)).toBe(drawn.minShortCircuitRatio ?? 3);
     expect(sources.find((r) => r.kind === "grid infeed")!.scr).toBe("");
+    expect(sources.find((r) => r.kind === "grid infeed")!.scr_asked).toBe("");
   });
 
   it("gives the regulating tap's position and says it regulates; a fixed tap reads as drawn with no word", () => {

@@ -4,11 +4,10 @@ import { describe, expect, it } from "vitest";
 import { solveNetwork } from "#solver/index.ts";
 import { faultRows, sourceRows } from "#solver/resultTables.ts";
 import type { NetworkInput } from "#solver/schema.ts";
-import { WEAK_GRID_SCR } from "#solver/faults/breakingChecks.ts";
-import { withNeededVersion } from "#solver/equipmentRules.ts";
+import { DEFAULT_MIN_SHORT_CIRCUIT_RATIO, withNeededVersion } from "#solver/equipmentRules.ts";
 
 /** One 132 kV busbar fed by a grid infeed: 2,000 MVA at most, 1,500 MVA at weakest, and a converter plant. */
-function busbar(minFaultMVA: number | undefined, plantMVA: number): NetworkInput {
+function busbar(minFaultMVA: number | undefined, plantMVA: number, minShortCircuitRatio?: number): NetworkInput {
   return {
     format: "kilostep.network",
     version: 2,
@@ -17,7 +16,7 @@ function busbar(minFaultMVA: number | undefined, plantMVA: number): NetworkInput
     buses: [{ id: "b", name: "Busbar", nominalKV: 132, ...(minFaultMVA === undefined ? {} : { minFaultMVA }) }],
     sources: [
       { id: "g", name: "Grid", bus: "b", kind: "grid", control: "slack", shortCircuitMVA: 2000, shortCircuitMinMVA: 1500, xOverR: 10 },
-      { id: "pv", name: "Solar park", bus: "b", kind: "converter", control: "pq", pMW: 10, ratedMVA: plantMVA, faultCurrentPct: 120 },
+      { id: "pv", name: "Solar park", bus: "b", kind: "converter", control: "pq", pMW: 10, ratedMVA: plantMVA, faultCurrentPct: 120, ...(minShortCircuitRatio === undefined ? {} : { minShortCircuitRatio }) },
     ],
   };
 }
@@ -53,7 +52,27 @@ describe("minimum fault level and short-circuit ratio checks", () => {
     expect(plant.scr).toBeCloseTo(1500 / 44, 6);
     const weak = solved(busbar(undefined, 600));
     expect(weak.result.faults!.converters[0].scr).toBeCloseTo(2.5, 6);
-    expect(weak.result.checks).toContainEqual(expect.objectContaining({ kind: "weak-grid", element: "pv", limit: WEAK_GRID_SCR }));
+    expect(weak.result.checks).toContainEqual(expect.objectContaining({ kind: "weak-grid", element: "pv", limit: DEFAULT_MIN_SHORT_CIRCUIT_RATIO }));
+  });
+
+  it("checks the SCR against the plant's own minShortCircuitRatio where the planner sets one (S″k3min / rated MVA = 1500 / 300 = 5, hand arithmetic)", () => {
+    const plain = solved(busbar(undefined, 300));
+    expect(plain.result.faults!.converters[0].scr).toBeCloseTo(5, 6);
+    expect(plain.result.checks.filter((c) => c.kind === "weak-grid")).toEqual([]);
+    const asking = solved(busbar(undefined, 300, 6));
+    const check = asking.result.checks.find((c) => c.kind === "weak-grid")!;
+    expect(check).toMatchObject({ element: "pv", limit: 6 });
+    expect(check.message).toContain("below 6 asked of it");
+    const lenient = solved(busbar(undefined, 600, 2));
+    expect(lenient.result.checks.filter((c) => c.kind === "weak-grid")).toEqual([]);
+  });
+
+  it("refuses a minimum short-circuit ratio on a source that is not a converter plant, naming it", () => {
+    const doc = busbar(undefined, 44);
+    (doc.sources![0] as Record<string, unknown>).minShortCircuitRatio = 3;
+    const outcome = solveNetwork(doc);
+    expect(outcome.ok).toBe(false);
+    if (!outcome.ok) expect(outcome.issues).toContainEqual({ path: "sources[0].minShortCircuitRatio", message: 'Source "Grid" (g): only a converter plant has a minimum short-circuit ratio' });
   });
 
   it("a version 1 drawing that gains a minimum fault level becomes version 2, and one without stays as it was", () => {
