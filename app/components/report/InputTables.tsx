@@ -6,9 +6,8 @@ import { DataTable, type DataTableProps } from "#app/components/DataTable.tsx";
 import { voltageClassOf } from "#app/components/sheet/voltageClasses.ts";
 import { formatNumber } from "#app/lib/format.ts";
 import type { Bus, Line, Load, Network, Shunt, Source, Transformer } from "#solver/schema.ts";
-import { TableScroll } from "./TableScroll.tsx";
+import { REPORT_TABLE, TableScroll } from "./TableScroll.tsx";
 
-const REPORT_TABLE = "data-table ks-report-table";
 
 /** The voltage class as the drawings show it: a stroke of its weight and hue, and its range in words. */
 function VoltageClassTag({ nominalKV }: { nominalKV: number }) {

@@ -2,11 +2,10 @@
 // from the same rows and columns as the sheet's results and the CSV, every quantity with its unit
 // and every status with an icon and words.
 import { StatusText } from "#app/components/StatusText.tsx";
-import { DataTable, type Column } from "#app/components/DataTable.tsx";
+import { DataTable } from "#app/components/DataTable.tsx";
 import { checkLine } from "#app/lib/checkText.ts";
 import { fixed, readingAgainstLimit, readingNumber, readingText } from "#app/lib/format.ts";
 import { lowerLimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
-import { QUANTITY_UNIT } from "#solver/quantities.ts";
 import {
   BRANCH_KIND_WORDS,
   branchColumns,
@@ -22,26 +21,11 @@ import {
   type BranchRow,
   type BusRow,
   type FaultRow,
-  type ResultColumn,
   type SourceRow,
 } from "#solver/resultTables.ts";
 import type { SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
-import { TableScroll } from "./TableScroll.tsx";
-
-const REPORT_TABLE = "data-table ks-report-table";
-
-
-/** A shared results column as a report column; `cell` overrides how its value is written. */
-function shared<T>(column: ResultColumn<T>, cell?: (row: T) => React.ReactNode): Column<T> {
-  const quantity = column.quantity;
-  return {
-    header: column.header,
-    unit: quantity ? QUANTITY_UNIT[quantity] || undefined : undefined,
-    numeric: quantity !== undefined,
-    cell: cell ?? ((row) => (quantity ? readingNumber(column.value(row) as number | null, quantity) : String(column.value(row) ?? ""))),
-  };
-}
+import { REPORT_TABLE, reportColumn as shared, TableScroll } from "./TableScroll.tsx";
 
 export function BusTable({ network, result }: { network: Network; result: SolveResult }) {
   const c = busColumns;

@@ -3,7 +3,7 @@
 import { fixed, kvText, moneyText } from "#app/lib/format.ts";
 import type { AlternativeOverrides, Ladder } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
-import { TableScroll } from "./TableScroll.tsx";
+import { REPORT_TABLE, TableScroll } from "./TableScroll.tsx";
 
 export function StudyInputs({
   ladder,
@@ -18,7 +18,7 @@ export function StudyInputs({
   const tName = (id: string) => network.transformers.find((t) => t.id === id)?.name ?? id;
   return (
     <TableScroll label="Inputs of each alternative">
-      <table className="data-table ks-report-table">
+      <table className={REPORT_TABLE}>
         <caption>Inputs of each alternative</caption>
         <thead>
           <tr>

@@ -9,7 +9,6 @@ import { fixed, formatNumber, readingAgainstLimit, readingNumber } from "#app/li
 import { upperLimitStatus, voltageStatus, worstStatus } from "#app/lib/limitStatus.ts";
 import type { StudyView } from "#app/lib/studyView.ts";
 import { QUANTITY_UNIT } from "#solver/quantities.ts";
-import type { ResultColumn } from "#solver/resultTables.ts";
 import type { StudyCsvTable } from "#solver/study/csv.ts";
 import {
   branchEnvelopeColumns,
@@ -26,27 +25,8 @@ import {
   type YearRow,
 } from "#solver/study/tables.ts";
 import type { ShownOutage } from "#app/lib/studyView.ts";
+import { REPORT_TABLE, reportColumn as shared, TableScroll } from "#app/components/report/TableScroll.tsx";
 
-const TABLE = "data-table ks-report-table";
-
-function Scroll({ label, children }: { label: string; children: ReactNode }) {
-  return (
-    <div className="ks-table-scroll ks-report-scroll" tabIndex={0} role="region" aria-label={label}>
-      {children}
-    </div>
-  );
-}
-
-/** A study column as a table column; `cell` overrides how its value is written. */
-function shared<T>(column: ResultColumn<T>, cell?: (row: T) => ReactNode): Column<T> {
-  const quantity = column.quantity;
-  return {
-    header: column.header,
-    unit: quantity ? QUANTITY_UNIT[quantity] || undefined : undefined,
-    numeric: quantity !== undefined,
-    cell: cell ?? ((row) => (quantity ? readingNumber(column.value(row) as number | null, quantity) : String(column.value(row) ?? ""))),
-  };
-}
 
 function Cut({ shown, total, what }: { shown: number; total: number; what: string }) {
   if (shown >= total) return null;
@@ -201,9 +181,9 @@ export function StudyTables({ view, csvHref, level = 2 }: StudyTablesProps) {
 function CaseTable({ view }: { view: StudyView }) {
   const energy = new Map(view.energy.byCase.map((e) => [e.case, e]));
   return (
-    <Scroll label="Operating cases">
+    <TableScroll label="Operating cases">
       <DataTable
-        className={TABLE}
+        className={REPORT_TABLE}
         columns={[
           { header: "Case", cell: (c) => c.name },
           { header: "Hours a year", unit: "h", numeric: true, cell: (c) => (c.hoursPerYear === null ? "–" : formatNumber(c.hoursPerYear, 0)) },
@@ -217,16 +197,16 @@ function CaseTable({ view }: { view: StudyView }) {
         rows={view.cases}
         rowKey={(c) => c.id}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
 function BusEnvelopeTable({ rows }: { rows: BusEnvelopeRow[] }) {
   const c = busEnvelopeColumns;
   return (
-    <Scroll label="Bus voltage envelope">
+    <TableScroll label="Bus voltage envelope">
       <DataTable<BusEnvelopeRow>
-        className={TABLE}
+        className={REPORT_TABLE}
         caption="Bus voltages"
         columns={[
           shared(c.name),
@@ -244,16 +224,16 @@ function BusEnvelopeTable({ rows }: { rows: BusEnvelopeRow[] }) {
         rows={rows}
         rowKey={(r) => r.id}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
 function BranchEnvelopeTable({ rows }: { rows: BranchEnvelopeRow[] }) {
   const c = branchEnvelopeColumns;
   return (
-    <Scroll label="Branch loading envelope">
+    <TableScroll label="Branch loading envelope">
       <DataTable<BranchEnvelopeRow>
-        className={TABLE}
+        className={REPORT_TABLE}
         caption="Branch loadings"
         columns={[
           shared(c.name),
@@ -265,7 +245,7 @@ function BranchEnvelopeTable({ rows }: { rows: BranchEnvelopeRow[] }) {
         rows={rows}
         rowKey={(r) => r.id}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
@@ -290,24 +270,24 @@ function CaseElementTable({ view }: { view: StudyView }) {
     ...view.cases.map((c, i): Column<CaseElementRow> => ({ header: c.name, numeric: true, cell: (r) => value(r, r.values[i]) })),
   ];
   return (
-    <Scroll label="Case by element">
+    <TableScroll label="Case by element">
       <DataTable<CaseElementRow>
-        className={TABLE}
+        className={REPORT_TABLE}
         caption="Each bus's voltage and each rated branch's loading in each case (– where the element has no supply or the case did not converge)"
         columns={columns}
         rows={view.caseElements.rows}
         rowKey={(r) => `${r.kind}-${r.id}`}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
 function OutageTable({ rows }: { rows: ShownOutage[] }) {
   const c = outageColumns;
   return (
-    <Scroll label="Outages">
+    <TableScroll label="Outages">
       <DataTable<ShownOutage>
-        className={TABLE}
+        className={REPORT_TABLE}
         caption="Each line and transformer out in turn, in each case studied"
         columns={[
           shared(c.elementName),
@@ -335,16 +315,16 @@ function OutageTable({ rows }: { rows: ShownOutage[] }) {
         rows={rows}
         rowKey={(r) => r.key}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
 function FirmTable({ rows }: { rows: FirmCapacityRow[] }) {
   const c = firmCapacityColumns;
   return (
-    <Scroll label="Firm capacity">
+    <TableScroll label="Firm capacity">
       <DataTable<FirmCapacityRow>
-        className={TABLE}
+        className={REPORT_TABLE}
         caption="Substations with transformers in parallel: what they hold with the largest unit out"
         columns={[
           shared(c.substation),
@@ -358,7 +338,7 @@ function FirmTable({ rows }: { rows: FirmCapacityRow[] }) {
         rows={rows}
         rowKey={(r) => r.key}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
 
@@ -369,9 +349,9 @@ function YearTable({ rows }: { rows: YearRow[] }) {
     return r.kind === "not-converged" ? `${readingNumber(v, quantity)} % of load` : `${readingAgainstLimit(v, [r.limit], quantity)} ${QUANTITY_UNIT[quantity]}`;
   };
   return (
-    <Scroll label="First year each limit breaks">
+    <TableScroll label="First year each limit breaks">
       <DataTable<YearRow>
-        className={TABLE}
+        className={REPORT_TABLE}
         caption="The first year each limit breaks (year 0 is the load as drawn)"
         columns={[
           shared(c.elementName),
@@ -384,6 +364,6 @@ function YearTable({ rows }: { rows: YearRow[] }) {
         rows={rows}
         rowKey={(r) => r.key}
       />
-    </Scroll>
+    </TableScroll>
   );
 }
