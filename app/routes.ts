@@ -62,6 +62,8 @@ export default [
     route("networks/:networkId/export", "routes/api/network-export.ts"),
     route("networks/:networkId/ladder", "routes/api/ladder.ts"),
     route("networks/:networkId/study", "routes/api/network-study.ts"),
+    route("networks/:networkId/study/jobs", "routes/api/network-study-jobs.ts"),
+    route("networks/:networkId/study/jobs/:jobId", "routes/api/network-study-job.ts"),
     route("networks/:networkId/shares", "routes/api/network-shares.ts"),
     route("shares/:shareId", "routes/api/share.ts"),
     route("networks/:networkId/revisions", "routes/api/revisions.ts"),

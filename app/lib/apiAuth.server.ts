@@ -1,6 +1,7 @@
 // Who calls the API: a personal token in `Authorization: Bearer …`, or else the session cookie.
 // A token acts with its owner's roles, capped by its scope: a read token may only read (GET, and
-// the POSTs that compute without saving: solving, the voltage ladder and studies). The cap is by request,
+// the POSTs that compute without saving: solving, the voltage ladder and studies, and the DELETE
+// that cancels such a computation's job). The cap is by request,
 // so a new write route is closed to read tokens without anyone remembering to close it.
 import type { User } from "#db/schema.ts";
 import { useApiToken } from "#db/apiTokens.ts";
@@ -9,12 +10,15 @@ import { getDb } from "./db.server.ts";
 
 const READ_METHODS = new Set(["GET", "HEAD"]);
 /** POSTs that compute an answer and store nothing. */
-const READ_ONLY_POSTS = [/^\/api\/solve\/?$/, /^\/api\/networks\/[^/]+\/(solve|ladder|study)\/?$/];
+const READ_ONLY_POSTS = [/^\/api\/solve\/?$/, /^\/api\/networks\/[^/]+\/(solve|ladder|study|study\/jobs)\/?$/];
+/** Cancelling a study job a read token started stores nothing either. */
+const READ_ONLY_DELETES = [/^\/api\/networks\/[^/]+\/study\/jobs\/[^/]+\/?$/];
 
 export function readScopeAllows(request: Request): boolean {
   const method = request.method.toUpperCase();
   if (READ_METHODS.has(method)) return true;
   const path = new URL(request.url).pathname;
+  if (method === "DELETE") return READ_ONLY_DELETES.some((pattern) => pattern.test(path));
   return method === "POST" && READ_ONLY_POSTS.some((pattern) => pattern.test(path));
 }
 

@@ -106,9 +106,30 @@ export const API_ENDPOINTS: ApiEndpoint[] = [
   {
     method: "POST",
     route: "/api/networks/:networkId/study",
-    what: "A study of the saved revision: every operating case, the envelope across them and the energy lost in a year; { outages: true } adds each line and transformer out in turn (or a list of case ids), { years: true } the years of load growth.",
+    what: "A study of the saved revision, waited for: every operating case, the envelope across them and the energy lost in a year; { outages: true } adds each line and transformer out in turn (or a list of case ids), { years: true } the years of load growth. The answer comes when the study is done, and a study still running after 60 s is stopped (503), so use this form for small networks and a job (below) for large ones or N-1.",
     who: "viewer (a read token may run it)",
     example: { path: "/api/networks/$NETWORK_ID/study", body: '{"outages": true}' },
+  },
+  {
+    method: "POST",
+    route: "/api/networks/:networkId/study/jobs",
+    what: "The same study as a job: the same body, answered 202 at once with { id, state, progress, url } (and Location: url). The job runs on the server for up to 5 minutes; ask its url for progress and the result. At most two of your jobs run at once (429 beyond); the budget is spent when it starts.",
+    who: "viewer (a read token may run it)",
+    example: { path: "/api/networks/$NETWORK_ID/study/jobs", body: '{"outages": true}', captures: { STUDY_JOB_ID: "id" } },
+  },
+  {
+    method: "GET",
+    route: "/api/networks/:networkId/study/jobs/:jobId",
+    what: 'A study job: state ("running", "done", "failed", "cancelled" or "stopped"), progress { done, total, stage } in load flows, and once done { revision, study } with the study exactly as POST …/study answers it; a failed job carries status, error and issues. Kept 15 minutes after it ends; only whoever started it sees it.',
+    who: "whoever started the job",
+    example: { path: "/api/networks/$NETWORK_ID/study/jobs/$STUDY_JOB_ID", note: "$STUDY_JOB_ID is the id the POST answered; poll every second or two until state is no longer running" },
+  },
+  {
+    method: "DELETE",
+    route: "/api/networks/:networkId/study/jobs/:jobId",
+    what: "Cancel a running study job (its computation stops at once); answers the job, now cancelled, or as it ended if it had finished.",
+    who: "whoever started the job (a read token may cancel)",
+    example: { path: "/api/networks/$NETWORK_ID/study/jobs/$STUDY_JOB_ID" },
   },
   {
     method: "GET",

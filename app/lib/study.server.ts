@@ -10,9 +10,13 @@
 //   page then asks GET /networks/:networkId/jobs/:jobId (JSON JobView, `result` once done) and
 //   cancels with POST there, body intent=cancel. Refusals before it starts (a spent budget, too
 //   many jobs) are thrown: pass them to computeRefusal(failure, "page").
+// - studyRequestRefusal(body) → the 400 a malformed request gets before any job starts.
+// - studyJobAnswer(view) → the API's JSON of a study job (POST /api/networks/:id/study/jobs and
+//   GET /api/networks/:id/study/jobs/:jobId): state and progress, then the contract's `study` object.
 import type { Db } from "#db/database.ts";
 import type { NetworkRow } from "#db/schema.ts";
-import type { Study } from "#solver/study/index.ts";
+import { studyRequestSchema, type Study } from "#solver/study/index.ts";
+import { inputMessage, zodIssues } from "#solver/alternative.ts";
 import type { Network, ValidationIssue } from "#solver/schema.ts";
 import { currentDocument } from "./networks.server.ts";
 import { refusedRequestSentence } from "./api.server.ts";
@@ -77,4 +81,27 @@ export async function startStudyJob(db: Db, network: NetworkRow, request: unknow
     const run = answerOf(network, await compute({ kind: "study", document, request }, { signal, onProgress, timeLimitMs: 2 * JOB_TIME_LIMIT_MS }));
     return run.ok ? { ok: true, result: { study: run.study, revision: run.revision } } : run;
   });
+}
+
+/**
+ * The refusal a study request gets for its shape alone (unknown fields, wrong types), in the words
+ * the study itself would use, so that the API answers 400 at once instead of starting a job that
+ * can only fail. What needs the network (a case id, a growth the network lacks) fails in the job.
+ */
+export function studyRequestRefusal(body: unknown): Extract<StudyRun, { ok: false }> | null {
+  const parsed = studyRequestSchema.safeParse(body ?? {}, { error: inputMessage });
+  if (parsed.success) return null;
+  const issues = zodIssues(parsed.error);
+  return { ok: false, status: 400, error: refusedRequestSentence("study", issues), issues };
+}
+
+/** A study job as the API shows it: where to ask, how far it got, and once done the revision and the study. */
+export function studyJobAnswer(view: JobView<StudyJobResult>) {
+  const { result, networkId, ...rest } = view;
+  return {
+    ...rest,
+    networkId,
+    url: `/api/networks/${networkId}/study/jobs/${view.id}`,
+    ...(result ? { revision: result.revision, study: result.study } : {}),
+  };
 }

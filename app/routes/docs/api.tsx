@@ -73,8 +73,9 @@ export default function ApiDocs() {
           <div>
             <h3 className="font-medium">Limits</h3>
             <p>
-              Bodies up to 5 MB. Solving (the solve and ladder endpoints) is limited per account per minute; a 429 answer says how
-              long to wait in its <code>Retry-After</code> header.
+              Bodies up to 5 MB. Computing (solve, ladder, study and study jobs) spends a budget per account, by the network's size;
+              a 429 answer says how long to wait in its <code>Retry-After</code> header. A request that computes is stopped after 60 s
+              (503); a study job after 5 minutes.
             </p>
           </div>
         </aside>

@@ -269,6 +269,10 @@ const CASES: Case[] = [
     expect: view(401, 400),
   },
   { route: "api/networks/:networkId/study", method: "POST", path: "/api/networks/{network}/study", body: { json: {} }, expect: view(401) },
+  { route: "api/networks/:networkId/study/jobs", method: "POST", path: "/api/networks/{network}/study/jobs", body: { json: {} }, expect: view(401, 202) },
+  // A study job is seen and cancelled only by whoever started it (api/study.test.ts); here nobody started this one.
+  { route: "api/networks/:networkId/study/jobs/:jobId", method: "GET", path: "/api/networks/{network}/study/jobs/no-such-job", expect: view(401, 404) },
+  { route: "api/networks/:networkId/study/jobs/:jobId", method: "DELETE", path: "/api/networks/{network}/study/jobs/no-such-job", expect: view(401, 404) },
   { route: "api/networks/:networkId/shares", method: "GET", path: "/api/networks/{network}/shares", expect: onNetwork({ viewer: 403, editor: 403, owner: 200 }, 401) },
   {
     route: "api/networks/:networkId/shares",

@@ -10,6 +10,9 @@ import { hashApiToken } from "#app/lib/apiTokenText.server.ts";
 import { loader as getNetwork, action as changeNetwork } from "#app/routes/api/network.ts";
 import { loader as listNetworks } from "#app/routes/api/networks.ts";
 import { action as solvePosted } from "#app/routes/api/solve.ts";
+import { action as startStudyJob } from "#app/routes/api/network-study-jobs.ts";
+import { action as studyJobAction, loader as studyJob } from "#app/routes/api/network-study-job.ts";
+import { jobSettled } from "#app/lib/compute/jobs.server.ts";
 import { action as tokenAction } from "#app/routes/auth/api-tokens.ts";
 import { loader as accountPage } from "#app/routes/auth/account.tsx";
 import { listApiTokens } from "#db/apiTokens.ts";
@@ -77,6 +80,22 @@ describe("API tokens", () => {
     expect(refused.body.error).toMatch(/scope is read; PUT \/api\/networks\/\d+ changes data/);
     const solved = await call(solvePosted, withToken("POST", "/api/solve", token, JSON.parse(fixtureText("hollin-moor-solar.json"))));
     expect(solved.status).toBe(200);
+  });
+
+  it("let a read token start, follow and cancel a study job, and no other DELETE", async () => {
+    const token = await createToken("viewer", "read", "study jobs");
+    const params = { networkId: String(networkId) };
+    const started = await call(startStudyJob, withToken("POST", `/api/networks/${networkId}/study/jobs`, token, {}), params);
+    expect(started.status).toBe(202);
+    const jobId: string = started.body.id;
+    await jobSettled(jobId);
+    const done = await call(studyJob, withToken("GET", started.body.url, token), { ...params, jobId });
+    expect(done.body.state).toBe("done");
+    const cancelled = await call(studyJobAction, withToken("DELETE", started.body.url, token), { ...params, jobId });
+    expect([cancelled.status, cancelled.body.state]).toEqual([200, "done"]);
+    const deleteNetwork = await call(changeNetwork, withToken("DELETE", `/api/networks/${networkId}`, token), params);
+    expect(deleteNetwork.status).toBe(403);
+    expect(deleteNetwork.body.error).toMatch(/scope is read; DELETE/);
   });
 
   it("never exceed the role: a viewer's write token still cannot save (403), an editor's can", async () => {
