@@ -22,7 +22,7 @@ import { currentDocument } from "./networks.server.ts";
 import { refusedRequestSentence } from "./api.server.ts";
 import { JOB_TIME_LIMIT_MS, startJob, type JobView } from "./compute/jobs.server.ts";
 import { compute, COMPUTE_TIME_LIMIT_MS } from "./compute/pool.server.ts";
-import { payFor, studyCost } from "./compute/results.server.ts";
+import { keptForRevision, payFor, studyCost } from "./compute/results.server.ts";
 import type { JobProgress } from "./compute/tasks.ts";
 import type { StudyOutcome } from "#solver/study/index.ts";
 import type { Actor } from "./permissions.server.ts";
@@ -71,6 +71,15 @@ export async function runStudyOnNetwork(db: Db, network: NetworkRow, request: un
     { signal: control.signal, onProgress: control.onProgress, timeLimitMs: control.timeLimitMs ?? COMPUTE_TIME_LIMIT_MS },
   );
   return answerOf(network, outcome);
+}
+
+/**
+ * The same, kept per revision and request (the study report's own study): a second report, or the
+ * shared report, of the same revision runs nothing. Not cancelled with one asker's request, since
+ * others may share it; its time limit still stops it.
+ */
+export function keptStudyOnNetwork(db: Db, network: NetworkRow, request: unknown, actor: Actor): Promise<StudyRun> {
+  return keptForRevision(network, "study", JSON.stringify(request), () => runStudyOnNetwork(db, network, request, { actor }));
 }
 
 /** The study of the current revision as a job of `actor`'s (see the head of this file). */

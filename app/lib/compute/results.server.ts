@@ -1,7 +1,9 @@
 // The server's computed answers, each run on the compute pool (pool.server.ts) and paid from the
-// caller's budget (budget.server.ts). Answers about a stored revision are kept per revision and
-// its last save (an autosave may fold into the revision), so a download, a shared report and a
-// page that ask for the same one share a single calculation, and only the first pays for it.
+// caller's budget (budget.server.ts). A stored revision (known by its number and its last save, as
+// an autosave may fold into the revision) is solved once: the solve is kept (as bytes, see
+// KeptSolve), and the API's JSON, every results CSV, the report and the shared report are made from
+// it in a worker without solving again. Only work done is paid for: the solve by whoever asked
+// first, a ladder by its voltages; a file made from a kept solve, and any answer already kept, is free.
 import { data } from "react-router";
 import type { NetworkRow } from "#db/schema.ts";
 import type { LadderOutcome } from "#solver/ladder.ts";
@@ -12,7 +14,7 @@ import { trustRevision } from "./trustedRevisions.server.ts";
 import type { Actor } from "../permissions.server.ts";
 import { solveCost, spend, type BudgetRefusal } from "./budget.server.ts";
 import { compute, ComputeStopped, type ComputeOptions } from "./pool.server.ts";
-import type { CsvOutcome, JsonOutcome, ReportData } from "./tasks.ts";
+import type { CsvOutcome, FromKept, JsonOutcome, KeptProduct, KeptSolve, ReportData } from "./tasks.ts";
 
 /** The caller's budget was spent; `refusal` says how long to wait. */
 export class BudgetExceeded extends Error {
@@ -32,8 +34,61 @@ function busCountOf(document: unknown): number {
   return Array.isArray(buses) ? buses.length : 0;
 }
 
-const CACHE_ENTRIES = 48;
-const cache = new Map<string, Promise<unknown>>();
+/**
+ * Kept answers, least recently used first, bounded in count and in size: a 10,000-bus solve keeps a
+ * few megabytes, so the weight is the bytes of what is kept, counted once it is known.
+ */
+const CACHE_ENTRIES = 64;
+const CACHE_BYTES = 256 * 1024 * 1024;
+const cache = new Map<string, { answer: Promise<unknown>; bytes: number }>();
+let cachedBytes = 0;
+
+function forget(key: string) {
+  const entry = cache.get(key);
+  if (!entry) return;
+  cache.delete(key);
+  cachedBytes -= entry.bytes;
+}
+
+function bytesOf(value: unknown): number {
+  if (value instanceof Uint8Array) return value.byteLength;
+  if (value && typeof value === "object") {
+    const v = value as { kept?: Uint8Array; json?: string; csv?: string };
+    if (v.kept) return v.kept.byteLength;
+    if (typeof v.json === "string") return v.json.length;
+    if (typeof v.csv === "string") return v.csv.length;
+  }
+  // A report is cut to a few hundred rows in the worker; a guess at its size is enough here.
+  return 1024 * 1024;
+}
+
+function keep<T>(key: string, answer: Promise<T>) {
+  const entry = { answer: answer as Promise<unknown>, bytes: 0 };
+  cache.set(key, entry);
+  answer.then(
+    (value) => {
+      if (cache.get(key) !== entry) return;
+      entry.bytes = bytesOf(value);
+      cachedBytes += entry.bytes;
+      trim();
+    },
+    () => {
+      if (cache.get(key) === entry) forget(key);
+    },
+  );
+  trim();
+}
+
+function trim() {
+  while (cache.size > CACHE_ENTRIES || (cachedBytes > CACHE_BYTES && cache.size > 1)) forget(cache.keys().next().value!);
+}
+
+let solvesStarted = 0;
+
+/** How many solves of stored revisions this process has started: the seam a test counts repeats through. */
+export function storedSolveCount(): number {
+  return solvesStarted;
+}
 
 function pay(payer: string, cost: number) {
   const refusal = spend(payer, cost);
@@ -67,25 +122,28 @@ export function studyCost(document: unknown, request: unknown): number {
   return solveCost(busCountOf(document)) * (cases + outageCases * branches + years * cases);
 }
 
+/** A kept answer, made most recently used; nothing is read or paid. */
+function keptAnswer<T>(key: string): Promise<T> | undefined {
+  const hit = cache.get(key);
+  if (!hit) return undefined;
+  cache.delete(key);
+  cache.set(key, hit);
+  return hit.answer as Promise<T>;
+}
+
 /**
  * One calculation per key: later askers (even while it runs) get the same promise, free, without
  * even reading the revision; the first reads it (as stored, see currentDocumentText), pays and runs.
  */
 async function once<T>(key: string, payer: string, make: (stored: StoredRevision) => { cost: number; run: () => Promise<T> }, stored: () => Promise<StoredRevision>): Promise<T> {
-  const hit = cache.get(key) as Promise<T> | undefined;
-  if (hit) {
-    cache.delete(key);
-    cache.set(key, hit);
-    return hit;
-  }
+  const hit = keptAnswer<T>(key);
+  if (hit) return hit;
   const { cost, run } = make(await stored());
-  const again = cache.get(key) as Promise<T> | undefined;
+  const again = keptAnswer<T>(key);
   if (again) return again;
   pay(payer, cost);
   const made = run();
-  cache.set(key, made);
-  made.catch(() => cache.delete(key));
-  while (cache.size > CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
+  keep(key, made);
   return made;
 }
 
@@ -113,37 +171,74 @@ function revisionKey(kind: string, network: NetworkRow, extra = ""): string {
   return `${kind}:${network.id}:${network.current_revision}:${network.updated_at}:${extra}`;
 }
 
-/** Load flow, fault levels and checks of the network's current revision, as the API's JSON. */
-export function solvedRevisionJson(db: Db, network: NetworkRow, actor: Actor): Promise<JsonOutcome> {
+/** The revision's one solve, kept: run and paid for by the first asker, shared by every later one. */
+function keptSolve(db: Db, network: NetworkRow, actor: Actor): Promise<KeptSolve> {
   return once(
-    revisionKey("solve", network),
+    revisionKey("solved", network),
     payerOf(actor),
-    (revision) => ({ cost: solveCost(revision.buses), run: () => trustWhenSolved(revision, compute({ kind: "solve-json", ...storedInput(revision) })) }),
+    (revision) => ({
+      cost: solveCost(revision.buses),
+      run: () => {
+        solvesStarted++;
+        return trustWhenSolved(revision, compute({ kind: "solve-kept", ...storedInput(revision) }));
+      },
+    }),
     storedRevision(db, network),
   );
+}
+
+/**
+ * Something made from the revision's kept solve, itself kept: `extraCost` pays for work beyond
+ * reading the solve (the report's ladder), charged only when it is made.
+ */
+async function fromKeptSolve<T extends FromKept>(
+  db: Db,
+  network: NetworkRow,
+  actor: Actor,
+  key: string,
+  want: KeptProduct,
+  extraCost: (buses: number) => number = () => 0,
+): Promise<T | Extract<KeptSolve, { ok: false }>> {
+  const hit = keptAnswer<T>(key);
+  if (hit) return hit;
+  const solved = await keptSolve(db, network, actor);
+  if (!solved.ok) return solved;
+  const again = keptAnswer<T>(key);
+  if (again) return again;
+  pay(payerOf(actor), extraCost(solved.buses));
+  const made = compute({ kind: "from-kept", kept: solved.kept, ...want }) as Promise<T>;
+  keep(key, made);
+  return made;
+}
+
+/**
+ * Any other answer about the current revision, kept like the solve: `make` runs (and pays) only for
+ * the first asker; later ones share its promise. A failure (a spent budget, a stop) is not kept.
+ */
+export function keptForRevision<T>(network: NetworkRow, kind: string, extra: string, make: () => Promise<T>): Promise<T> {
+  const key = revisionKey(kind, network, extra);
+  const hit = keptAnswer<T>(key);
+  if (hit) return hit;
+  const made = make();
+  keep(key, made);
+  return made;
+}
+
+/** Load flow, fault levels and checks of the network's current revision, as the API's JSON. */
+export async function solvedRevisionJson(db: Db, network: NetworkRow, actor: Actor): Promise<JsonOutcome> {
+  return fromKeptSolve<JsonOutcome>(db, network, actor, revisionKey("json", network), { product: "json" });
 }
 
 /** The current revision's bus or branch results as CSV, or { ok: false } when it does not solve. */
-export function revisionCsv(db: Db, network: NetworkRow, table: CsvTable, actor: Actor): Promise<CsvOutcome> {
-  return once(
-    revisionKey("csv", network, table),
-    payerOf(actor),
-    (revision) => ({ cost: solveCost(revision.buses), run: () => trustWhenSolved(revision, compute({ kind: "csv", table, ...storedInput(revision) })) }),
-    storedRevision(db, network),
-  );
+export async function revisionCsv(db: Db, network: NetworkRow, table: CsvTable, actor: Actor): Promise<CsvOutcome> {
+  const made = await fromKeptSolve<CsvOutcome>(db, network, actor, revisionKey("csv", network, table), { product: "csv", table });
+  return made.ok ? made : { ok: false };
 }
 
-/** The study report's numbers for the current revision and the saved study (kept per both). */
+/** The study report's numbers for the current revision and the saved study (kept per both), cut to what the report lists. */
 export function revisionReport(db: Db, network: NetworkRow, study: { request: unknown; updatedAt: string } | null, actor: Actor): Promise<ReportData> {
-  const voltages = (study?.request as { voltagesKV?: unknown[] } | undefined)?.voltagesKV?.length ?? 0;
-  return once(
-    revisionKey("report", network, study?.updatedAt ?? ""),
-    payerOf(actor),
-    (revision) => ({
-      cost: solveCost(revision.buses) * (1 + voltages),
-      run: () => trustWhenSolved(revision, compute({ kind: "report", study: study?.request ?? null, ...storedInput(revision) })),
-    }),
-    storedRevision(db, network),
+  return fromKeptSolve<ReportData>(db, network, actor, revisionKey("report", network, study?.updatedAt ?? ""), { product: "report", study: study?.request ?? null }, (buses) =>
+    study ? ladderBusCost(buses, study.request) : 0,
   );
 }
 

@@ -1,9 +1,12 @@
 // The heavy work the server does, as plain functions of plain data: they run in a worker thread
 // (worker.ts) so the thread that answers requests only reads, writes and sends. Each takes the
 // stored document and answers something a structured clone carries back (no functions, no classes).
+import { deserialize, serialize } from "node:v8";
 import { DRAWING_MAX_BUSES, layoutSingleLine, type SingleLineLayout } from "#app/components/report/singleLineLayout.ts";
+import { reportPart, type ReportExtent } from "#app/lib/reportExtent.ts";
 import { resultsCsv, type CsvTable } from "#solver/csv.ts";
 import { solveNetwork, solveValidated, type SolveOutcome } from "#solver/index.ts";
+import type { SolveResult } from "#solver/results.ts";
 import type { MessagePort } from "node:worker_threads";
 import type { JobProgress } from "./jobView.ts";
 import { runLadder, type LadderOutcome, type LadderProgress } from "#solver/ladder.ts";
@@ -24,16 +27,27 @@ export interface StoredDocument {
 /** What a task works on: a document from a request (validated in the worker), or a stored revision. */
 export type TaskInput = { document: unknown; stored?: undefined } | { stored: StoredDocument; document?: undefined };
 
-export type ComputeTask = TaskInput &
-  (
-    | { kind: "solve" }
-    | { kind: "solve-json" }
-    | { kind: "ladder-json"; request: unknown }
-    | { kind: "csv"; table: CsvTable }
-    | { kind: "ladder"; request: unknown }
-    | { kind: "report"; study: unknown | null }
-    | { kind: "study"; request: unknown }
-  );
+/**
+ * A stored revision's solve, kept: the worker's answer serialized (v8) into bytes that the request
+ * thread holds without ever reading them, and hands back to a worker for each file or page made
+ * from it (results.server.ts). Bytes cross between threads as one copy, not an object graph.
+ */
+export type KeptSolve = { ok: true; kept: Uint8Array; buses: number } | { ok: false; issues: ValidationIssue[] };
+
+/** What is made from a kept solve: the API's JSON, a results CSV, or the report's numbers (with the saved ladder study, if any). */
+export type KeptProduct = { product: "json" } | { product: "csv"; table: CsvTable } | { product: "report"; study: unknown | null };
+
+export type ComputeTask =
+  | (TaskInput &
+      (
+        | { kind: "solve" }
+        | { kind: "solve-kept" }
+        | { kind: "solve-json" }
+        | { kind: "ladder-json"; request: unknown }
+        | { kind: "ladder"; request: unknown }
+        | { kind: "study"; request: unknown }
+      ))
+  | ({ kind: "from-kept"; kept: Uint8Array; stored?: undefined; document?: undefined } & KeptProduct);
 
 export type { JobProgress } from "./jobView.ts";
 
@@ -76,19 +90,30 @@ export type CsvOutcome = { ok: true; csv: string } | { ok: false };
  */
 export type JsonOutcome = { ok: true; json: string } | { ok: false; issues: ValidationIssue[] };
 
-export interface ReportData {
-  solved: SolveOutcome;
-  ladder: LadderOutcome | null;
-  drawing: SingleLineLayout | null;
+/** What the study report's own study asks of the whole network (its load flows are counted from these). */
+export interface ReportStudyShape {
+  cases: number;
+  branches: number;
+  growthYears: number | null;
 }
+
+/**
+ * The study report's numbers, already cut to what it lists (reportExtent.ts) in the worker, so a
+ * large network's report never carries the whole network back to the request thread.
+ */
+export type ReportData =
+  | { ok: true; network: Network; result: SolveResult; extent: ReportExtent; shape: ReportStudyShape; ladder: LadderOutcome | null; drawing: SingleLineLayout | null }
+  | { ok: false; issues: ValidationIssue[] };
+
+export type FromKept = JsonOutcome | CsvOutcome | ReportData;
 
 export interface ComputeAnswers {
   solve: SolveOutcome;
+  "solve-kept": KeptSolve;
   "solve-json": JsonOutcome;
   "ladder-json": JsonOutcome;
-  csv: CsvOutcome;
+  "from-kept": FromKept;
   ladder: LadderOutcome;
-  report: ReportData;
   study: StudyOutcome;
 }
 
@@ -97,23 +122,42 @@ export function solveTask(document: unknown, trusted = false): SolveOutcome {
   return trusted ? solveValidated(document as Network) : solveNetwork(document);
 }
 
-export function csvTask(document: unknown, table: CsvTable, trusted = false): CsvOutcome {
+/** Solve and keep: the answer as bytes for results.server.ts to hold (see KeptSolve). */
+export function keptSolveTask(document: unknown, trusted = false): KeptSolve {
   const solved = solveTask(document, trusted);
-  if (!solved.ok) return { ok: false };
-  return { ok: true, csv: resultsCsv(table, solved.network, solved.result) };
+  if (!solved.ok) return solved;
+  return { ok: true, kept: serialize(solved), buses: solved.network.buses.length };
+}
+
+/** A file or page's numbers from a kept solve: no solving here, only reading and writing. */
+export function fromKeptTask(kept: Uint8Array, want: KeptProduct): FromKept {
+  const solved = deserialize(kept) as Extract<SolveOutcome, { ok: true }>;
+  switch (want.product) {
+    case "json":
+      return { ok: true, json: JSON.stringify(solved.result) };
+    case "csv":
+      return { ok: true, csv: resultsCsv(want.table, solved.network, solved.result) };
+    case "report":
+      return reportTask(solved, want.study);
+  }
 }
 
 export function ladderTask(document: unknown, request: unknown, onProgress?: (step: LadderProgress) => void): LadderOutcome {
   return runLadder(document, request, onProgress);
 }
 
-/** The study report's numbers: the solve, the saved ladder study (if any) and the drawing's layout. */
-export function reportTask(document: unknown, study: unknown | null, trusted = false): ReportData {
-  const solved = solveTask(document, trusted);
-  if (!solved.ok) return { solved, ladder: null, drawing: null };
-  const ladder = study === null ? null : runLadder(solved.network, study);
-  const drawing = solved.network.buses.length <= DRAWING_MAX_BUSES ? layoutSingleLine(solved.network) : null;
-  return { solved, ladder, drawing };
+/**
+ * The study report's numbers from a solve: the saved ladder study (if any), the drawing's layout
+ * (small networks only) and the part of the network and its results the report lists.
+ */
+export function reportTask(solved: Extract<SolveOutcome, { ok: true }>, study: unknown | null): ReportData {
+  const { network, result } = solved;
+  const ladder = study === null ? null : runLadder(network, study);
+  const drawing = network.buses.length <= DRAWING_MAX_BUSES ? layoutSingleLine(network) : null;
+  const section = ladder?.ok ? ladder.ladder.section : null;
+  const part = reportPart(network, result, { alsoBuses: section ? [...section.busIds, ...section.endBusIds] : [] });
+  const shape = { cases: network.cases?.length ?? 0, branches: network.lines.length + network.transformers.length, growthYears: network.growth?.years ?? null };
+  return { ok: true, network: part.network, result: part.result, extent: part.extent, shape, ladder, drawing };
 }
 
 /** A study; the network's own issues come back under "network" (as the ladder's do), the request's as they are. */
@@ -126,6 +170,7 @@ export function studyTask(document: unknown, request: unknown, onStep?: (step: S
 }
 
 export function runTask(task: ComputeTask & { progress?: MessagePort }): ComputeAnswers[ComputeTask["kind"]] {
+  if (task.kind === "from-kept") return fromKeptTask(task.kept, task);
   const document: unknown = task.stored ? JSON.parse(task.stored.text) : task.document;
   const trusted = task.stored?.trusted === true;
   switch (task.kind) {
@@ -141,12 +186,10 @@ export function runTask(task: ComputeTask & { progress?: MessagePort }): Compute
       const { sectionBus, section, money, alternatives, cheapest, sensitivity, inverseSquareReference } = run.ladder;
       return { ok: true, json: JSON.stringify({ sectionBus, section, money, alternatives, cheapest, sensitivity, inverseSquareReference }) };
     }
-    case "csv":
-      return csvTask(document, task.table, trusted);
+    case "solve-kept":
+      return keptSolveTask(document, trusted);
     case "ladder":
       return ladderTask(document, task.request, reporter(task.progress, ladderProgressOf));
-    case "report":
-      return reportTask(document, task.study, trusted);
     case "study":
       return studyTask(document, task.request, reporter(task.progress, studyProgressOf), trusted);
   }

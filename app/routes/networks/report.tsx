@@ -16,11 +16,12 @@ import { getDb } from "#app/lib/db.server.ts";
 import { formatDate, formatDateTime } from "#app/lib/format.ts";
 import { savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { networkReader } from "#app/lib/networkReader.server.ts";
-import { reportPart, REPORT_ROWS_MAX, type ReportExtent } from "#app/lib/reportExtent.ts";
+import { REPORT_ROWS_MAX, type ReportExtent } from "#app/lib/reportExtent.ts";
+import type { ReportStudyShape } from "#app/lib/compute/tasks.ts";
 import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
 import { computeRefusal, computeRefusalOf, revisionReport } from "#app/lib/compute/results.server.ts";
 import { DRAWING_MAX_BUSES } from "#app/components/report/singleLineLayout.ts";
-import { runStudyOnNetwork } from "#app/lib/study.server.ts";
+import { keptStudyOnNetwork } from "#app/lib/study.server.ts";
 import { studyView } from "#app/lib/studyView.ts";
 import { LOAD_FLOW_METHOD, MAX_ITERATIONS, MISMATCH_TOLERANCE_PU } from "#solver/index.ts";
 import { ladderRequestSchema, type AlternativeOverrides } from "#solver/ladder.ts";
@@ -39,12 +40,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { network, user, actor, home, viaLink } = await networkReader(db, request, params);
   const [revision, team, saved] = await Promise.all([currentDocument(db, network), teamNameOf(db, network), savedLadderStudy(db, network.id)]);
   const report = await revisionReport(db, network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"));
-  const { solved, ladder: ladderRun, drawing } = report;
-  const reportStudy = solved.ok ? await studyOfReport(db, network, solved.network, actor, request.signal) : { view: null, error: null, withYears: false, skipped: null };
+  // A large network's report lists the first part of each table (cut in the worker): the page stays a few hundred kilobytes.
+  const ladderRun = report.ok ? report.ladder : null;
+  const reportStudy = report.ok ? await studyOfReport(db, network, report.shape, actor) : { view: null, error: null, withYears: false, skipped: null };
   const overrides = saved.study ? (ladderRequestSchema.parse(saved.study.request).overrides as (AlternativeOverrides | null)[] | undefined) : undefined;
-  const section = ladderRun?.ok ? ladderRun.ladder.section : null;
-  // A large network's report lists the first part of each table: the page stays a few hundred kilobytes.
-  const part = solved.ok ? reportPart(solved.network, solved.result, { alsoBuses: section ? [...section.busIds, ...section.endBusIds] : [] }) : null;
   return {
     id: network.id,
     name: network.name,
@@ -54,16 +53,16 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     viaLink,
     preparedAt: new Date().toISOString(),
     revision: { number: network.current_revision, savedAt: revision.createdAt, by: revision.authorName, message: revision.message },
-    solved: part ? { network: part.network, result: part.result } : null,
-    extent: part?.extent ?? null,
+    solved: report.ok ? { network: report.network, result: report.result } : null,
+    extent: report.ok ? report.extent : null,
     // Where this reader downloads every row: the API for the team, the link's own address for a view link.
     csvBase: viaLink ? home : `/api/networks/${network.id}`,
-    documentIssues: solved.ok ? [] : solved.issues,
+    documentIssues: report.ok ? [] : report.issues,
     study: saved.study ? { ...saved.study, overrides } : null,
     studyUnreadable: saved.unreadable,
     ladder: ladderRun?.ok ? ladderRun.ladder : null,
     ladderIssues: ladderRun && !ladderRun.ok ? ladderRun.issues : [],
-    drawing,
+    drawing: report.ok ? report.drawing : null,
     reportStudy,
   };
 }
@@ -74,20 +73,19 @@ const REPORT_STUDY_LOAD_FLOWS_MAX = 1_500;
 /** The operating cases with N-1, and the years when the network gives a growth; a refusal becomes the section's sentence. */
 async function studyOfReport(
   db: Awaited<ReturnType<typeof getDb>>,
-  network: Parameters<typeof runStudyOnNetwork>[1],
-  document: { growth?: { years: number }; cases?: unknown[]; lines: unknown[]; transformers: unknown[] },
+  network: Parameters<typeof keptStudyOnNetwork>[1],
+  shape: ReportStudyShape,
   actor: Parameters<typeof revisionReport>[3],
-  signal: AbortSignal,
 ): Promise<ReportStudy> {
-  const cases = Math.max(1, document.cases?.length ?? 0);
-  const outageFlows = cases * (document.lines.length + document.transformers.length);
-  const yearFlows = cases * (document.growth?.years ?? 0);
+  const cases = Math.max(1, shape.cases);
+  const outageFlows = cases * shape.branches;
+  const yearFlows = cases * (shape.growthYears ?? 0);
   const outages = cases + outageFlows <= REPORT_STUDY_LOAD_FLOWS_MAX;
-  const withYears = document.growth !== undefined && cases + (outages ? outageFlows : 0) + yearFlows <= REPORT_STUDY_LOAD_FLOWS_MAX;
-  const left = [outages ? "" : `N-1 (${outageFlows.toLocaleString("en-GB")} load flows)`, document.growth && !withYears ? `the years (${yearFlows.toLocaleString("en-GB")} load flows)` : ""].filter(Boolean);
+  const withYears = shape.growthYears !== null && cases + (outages ? outageFlows : 0) + yearFlows <= REPORT_STUDY_LOAD_FLOWS_MAX;
+  const left = [outages ? "" : `N-1 (${outageFlows.toLocaleString("en-GB")} load flows)`, shape.growthYears !== null && !withYears ? `the years (${yearFlows.toLocaleString("en-GB")} load flows)` : ""].filter(Boolean);
   const skipped = left.length > 0 ? `${left.join(" and ")} ${left.length > 1 ? "are" : "is"} too large for a report of this network; run ${left.length > 1 ? "them" : "it"} on the study page.` : null;
   try {
-    const run = await runStudyOnNetwork(db, network, { outages, years: withYears }, { signal, actor });
+    const run = await keptStudyOnNetwork(db, network, { outages, years: withYears }, actor);
     if (!run.ok) return { view: null, error: run.error, withYears, skipped };
     return { view: studyView(run.document, run.study), error: null, withYears, skipped };
   } catch (failure) {

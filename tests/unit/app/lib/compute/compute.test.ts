@@ -9,11 +9,17 @@ vi.hoisted(() => {
 
 import { solveCost, spend } from "#app/lib/compute/budget.server.ts";
 import { closeComputePool, compute, ComputeStopped } from "#app/lib/compute/pool.server.ts";
-import { BudgetExceeded, revisionCsv } from "#app/lib/compute/results.server.ts";
+import { revisionCsv, solvedRevisionJson, storedSolveCount } from "#app/lib/compute/results.server.ts";
+import { createShareLink } from "#app/lib/shareLinks.server.ts";
+import { REPORT_ROWS_MAX } from "#app/lib/reportExtent.ts";
+import { loader as resultsCsvApi } from "#app/routes/api/results-csv.ts";
+import { loader as reportPage } from "#app/routes/networks/report.tsx";
+import { loader as sharedResultsCsv } from "#app/routes/share/shared-results-csv.ts";
 import { getDb } from "#app/lib/db.server.ts";
 import { createNetwork } from "#app/lib/networks.server.ts";
 import { solveNetwork } from "#solver/index.ts";
 import { syntheticFeeder } from "../../../../bench/syntheticFeeder.ts";
+import { call, getRequest } from "../../routes/harness.ts";
 import { fixtureText, makeTeam } from "../../routes/teamFixtures.ts";
 
 afterAll(() => closeComputePool());
@@ -68,13 +74,47 @@ describe("results kept per revision", () => {
     const created = await createNetwork(db, { teamId: team.teamId, document: syntheticFeeder(2_900), authorId: team.userIds.owner });
     if (!created.ok) throw new Error("feeder does not validate");
     const actor = { kind: "user" as const, userId: team.userIds.viewer };
-    // 29 units of 30: a second paid download would be refused, a cached one is not.
+    const solves = storedSolveCount();
     const first = await revisionCsv(db, created.network, "buses", actor);
     const again = await Promise.all([revisionCsv(db, created.network, "buses", actor), revisionCsv(db, created.network, "buses", actor)]);
     expect(first.ok).toBe(true);
     expect(again).toEqual([first, first]);
-    const other = await revisionCsv(db, created.network, "branches", actor).catch((e: unknown) => e);
-    expect(other).toBeInstanceOf(BudgetExceeded);
+    expect(storedSolveCount() - solves).toBe(1);
+  }, 120_000);
+
+  it("solves a revision once for the report, both CSVs, the API and the shared report: none solves again or answers 429", async () => {
+    const team = await makeTeam("One solve");
+    const db = await getDb();
+    const created = await createNetwork(db, { teamId: team.teamId, document: syntheticFeeder(2_900), authorId: team.userIds.owner });
+    if (!created.ok) throw new Error("feeder does not validate");
+    const networkId = String(created.network.id);
+    const owner = (await db.selectFrom("users").selectAll().where("id", "=", team.userIds.owner).executeTakeFirst())!;
+    const { url } = await createShareLink(db, { network: created.network, request: { role: "viewer" }, by: owner });
+    const token = new URL(url).pathname.split("/").pop()!;
+    const solves = storedSolveCount();
+
+    // The report page pays for the solve: 29 of the viewer's 30 units, so any further paid solve would be refused.
+    const report = await call(reportPage, getRequest(`/networks/${networkId}/report`, team.cookies.viewer), { networkId });
+    expect(report.status).toBe(200);
+    expect(report.body.solved.result.loadFlow.converged).toBe(true);
+    expect(report.body.extent).toMatchObject({ trimmed: true, buses: { total: 2_900 } });
+    // Cut in the worker: the first REPORT_ROWS_MAX buses and those the listed limits name.
+    expect(report.body.solved.network.buses.length).toBe(report.body.extent.buses.listed);
+    expect(report.body.solved.result.checks.length).toBeLessThanOrEqual(REPORT_ROWS_MAX);
+    expect(report.body.extent.buses.listed).toBeLessThan(2_900);
+
+    const buses = await call(resultsCsvApi, getRequest(`/api/networks/${networkId}/results.csv?table=buses`, team.cookies.viewer), { networkId });
+    const branches = await call(resultsCsvApi, getRequest(`/api/networks/${networkId}/results.csv?table=branches`, team.cookies.viewer), { networkId });
+    const shared = await call(sharedResultsCsv, getRequest(`/s/${token}/results.csv?table=buses`), { token });
+    const again = await call(reportPage, getRequest(`/networks/${networkId}/report`, team.cookies.viewer), { networkId });
+    const sharedReport = await call(reportPage, getRequest(`/s/${token}/report`), { token });
+    const api = await solvedRevisionJson(db, created.network, { kind: "user", userId: team.userIds.viewer });
+    expect([buses.status, branches.status, shared.status, again.status, sharedReport.status]).toEqual([200, 200, 200, 200, 200]);
+    expect(buses.body.trim().split("\n")).toHaveLength(2_901);
+    expect(shared.body).toBe(buses.body);
+    expect(sharedReport.body.solved).toEqual(report.body.solved);
+    expect(api.ok).toBe(true);
+    expect(storedSolveCount() - solves).toBe(1);
   }, 120_000);
 });
 
@@ -82,7 +122,6 @@ describe("stored revisions, validated once", () => {
   it("are trusted once saved here, counted by their buses as stored, and an untrusted one is validated on first use", async () => {
     const { currentDocumentText } = await import("#app/lib/networks.server.ts");
     const { writeRevision, findNetwork } = await import("#db/networks.ts");
-    const { solvedRevisionJson } = await import("#app/lib/compute/results.server.ts");
     const team = await makeTeam("Trusted revisions");
     const db = await getDb();
     const created = await createNetwork(db, { teamId: team.teamId, document: syntheticFeeder(250), authorId: team.userIds.owner });

@@ -188,10 +188,22 @@ describe("the report's study part", () => {
   it("says why the study is missing when the reader's budget is spent, and still gives the report", async () => {
     const reader = await newViewer();
     expect((await run("?outages=on&years=on", reader)).status).toBe(200);
-    const report = await call(reportLoader, getRequest(`/networks/${world.networkId}/report`, reader), params());
+    // A network no one has reported on yet: a kept report study would be free.
+    const made = await createNetwork(await getDb(), { teamId: people.team.id, document: demoDocument("Study page, budget spent"), authorId: people.owner.id });
+    if (!made.ok) throw new Error("fixture must validate");
+    const report = await call(reportLoader, getRequest(`/networks/${made.network.id}/report`, reader), { networkId: String(made.network.id) });
     expect(report.status).toBe(200);
     expect(report.body.reportStudy.view).toBeNull();
     expect(report.body.reportStudy.error).toMatch(/\w/);
+  });
+
+  it("keeps the report's study per revision: a second reader, whose budget is spent, is given it free", async () => {
+    const first = await call(reportLoader, getRequest(`/networks/${world.networkId}/report`, await newViewer()), params());
+    expect(first.body.reportStudy.view).not.toBeNull();
+    const reader = await newViewer();
+    expect((await run("?outages=on&years=on", reader)).status).toBe(200);
+    const report = await call(reportLoader, getRequest(`/networks/${world.networkId}/report`, reader), params());
+    expect(report.body.reportStudy).toEqual(first.body.reportStudy);
   });
 
   it("leaves an N-1 too large for a report to the study page, and says so", async () => {
