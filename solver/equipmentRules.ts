@@ -1,5 +1,6 @@
 // Cross-element rules for the version 2 equipment fields: converter plants, regulating taps and
 // minimum fault levels. Each issue names the element and its path.
+import { busIndexOf } from "#solver/idIndex.ts";
 import type { Network, Source } from "#solver/schema.ts";
 
 /** Below this short-circuit ratio a converter plant's connection counts as weak unless the plant says otherwise (common practice). */
@@ -48,12 +49,12 @@ export function equipmentRules(net: Network, add: Add): void {
     } else if (s.powerFactor !== undefined) add(["sources", i, "powerFactor"], `${who}: powerFactor is used only with control "pf"`);
   });
 
-  const busIds = new Set(net.buses.map((b) => b.id));
+  const busIndex = busIndexOf(net);
   net.transformers.forEach((t, i) => {
     if (!t.tapControl) return;
     const who = label("Transformer", t);
     needsVersion2(["transformers", i, "tapControl"], "a regulating tap changer");
-    if (!busIds.has(t.tapControl.bus))
+    if (busIndex.get(t.tapControl.bus) === undefined)
       add(["transformers", i, "tapControl", "bus"], `${who} regulates bus "${t.tapControl.bus}", which does not exist`);
     const min = t.tapMinPct ?? -Infinity;
     const max = t.tapMaxPct ?? Infinity;

@@ -6,6 +6,8 @@ import type { Network } from "#solver/schema.ts";
 export class IdIndex {
   private readonly table: Int32Array;
   private readonly mask: number;
+  /** Each position whose id appeared earlier, with that first position: [position, first] pairs, in order. */
+  readonly repeats: number[] = [];
 
   constructor(private readonly ids: readonly string[]) {
     let size = 16;
@@ -20,7 +22,10 @@ export class IdIndex {
           this.table[slot] = i;
           break;
         }
-        if (ids[taken] === ids[i]) break;
+        if (ids[taken] === ids[i]) {
+          this.repeats.push(i, taken);
+          break;
+        }
         slot = (slot + 1) & this.mask;
       }
     }

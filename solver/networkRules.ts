@@ -5,9 +5,13 @@
 import { equipmentRules } from "#solver/equipmentRules.ts";
 import type { Network } from "#solver/schema.ts";
 import { ELEMENT_COLLECTIONS } from "#solver/elements.ts";
+import { busIndexOf, IdIndex } from "#solver/idIndex.ts";
 
 /** IEC 60076-1 vector group: HV letters, LV letters, clock number 0–11 (e.g. YNd11, Dyn11, YNyn0). */
 export const vectorGroupPattern = /^(YN|Y|D|ZN|Z)(yn|y|d|zn|z)(\d{1,2})$/;
+
+/** The most active or reactive power (either sign) one element may have, in MW or Mvar. */
+export const POWER_LIMIT = 1e5;
 
 /** Transformer winding voltages may differ from the bus nominal by this much (an off-nominal ratio). */
 export const WINDING_TOLERANCE = 0.15;
@@ -25,24 +29,28 @@ const COLLECTIONS = ELEMENT_COLLECTIONS;
  * in the size of the network, and a label or path is written only for an issue found.
  */
 export function networkRules(net: Network, add: AddIssue): void {
-  // Where each id was first used, as collection × 2²⁶ + position.
-  const seen = new Map<string, number>();
-  for (let c = 0; c < COLLECTIONS.length; c++) {
-    const key = COLLECTIONS[c];
-    const elements = net[key];
-    for (let i = 0; i < elements.length; i++) {
-      const elementId = elements[i].id;
-      const first = seen.get(elementId);
-      if (first === undefined) seen.set(elementId, c * 2 ** 26 + i);
-      else add([key, i, "id"], `id "${elementId}" is already used by ${COLLECTIONS[Math.floor(first / 2 ** 26)]}[${first % 2 ** 26}]`);
-    }
+  // Every id of every collection in one index; a repeat is reported at its place, naming the first use.
+  const allIds: string[] = [];
+  const collectionStart: number[] = [];
+  for (const key of COLLECTIONS) {
+    collectionStart.push(allIds.length);
+    for (const element of net[key]) allIds.push(element.id);
+  }
+  const placeOf = (at: number): [(typeof COLLECTIONS)[number], number] => {
+    let c = COLLECTIONS.length - 1;
+    while (collectionStart[c] > at) c--;
+    return [COLLECTIONS[c], at - collectionStart[c]];
+  };
+  const repeats = new IdIndex(allIds).repeats;
+  for (let r = 0; r < repeats.length; r += 2) {
+    const [key, i] = placeOf(repeats[r]);
+    const [firstKey, firstAt] = placeOf(repeats[r + 1]);
+    add([key, i, "id"], `id "${allIds[repeats[r]]}" is already used by ${firstKey}[${firstAt}]`);
   }
 
-  // A repeated bus id means its last bus, as a lookup table built in order would give.
-  const busAt = new Map<string, number>();
-  for (let i = 0; i < net.buses.length; i++) busAt.set(net.buses[i].id, i);
+  const busAt = busPositions(net);
   const busRef = (key: (typeof COLLECTIONS)[number], i: number, field: string, busId: string, kind: string) => {
-    const at = busAt.get(busId);
+    const at = busAt(busId);
     // An empty reference passes only a draft's shape (schema.ts draftShape): a terminal not connected yet.
     if (at === undefined)
       add([key, i, field], busId === "" ? `${label(kind, net[key][i])} is not connected to a bus yet` : `${label(kind, net[key][i])} refers to bus "${busId}", which does not exist`);
@@ -128,11 +136,24 @@ export function networkRules(net: Network, add: AddIssue): void {
 }
 
 /**
+ * Each bus id's position. A repeated bus id means its last bus, as a lookup table built in order
+ * would give; without repeats (every valid network) the shared bus index answers, built here once
+ * for the validator's output and used again by the load flow, the faults and the checks.
+ */
+function busPositions(net: Network): (busId: string) => number | undefined {
+  const index = busIndexOf(net);
+  if (index.repeats.length === 0) return (busId) => index.get(busId);
+  const last = new Map<string, number>();
+  for (let i = 0; i < net.buses.length; i++) last.set(net.buses[i].id, i);
+  return (busId) => last.get(busId);
+}
+
+/**
  * One slack per connected group: union-find over the buses (a repeated id is one node) joined by
  * branches whose ends both exist, with path compression and union by size, so a 100,000-bus chain
  * stays linear. Each group is reported at its first bus.
  */
-function slackRules(net: Network, busAt: Map<string, number>, add: AddIssue): void {
+function slackRules(net: Network, busAt: (busId: string) => number | undefined, add: AddIssue): void {
   const n = net.buses.length;
   const parent = new Int32Array(n);
   const size = new Int32Array(n).fill(1);
@@ -148,8 +169,8 @@ function slackRules(net: Network, busAt: Map<string, number>, add: AddIssue): vo
     return root;
   };
   const join = (a: string, b: string) => {
-    const na = busAt.get(a);
-    const nb = busAt.get(b);
+    const na = busAt(a);
+    const nb = busAt(b);
     if (na === undefined || nb === undefined) return;
     let ra = find(na);
     let rb = find(nb);
@@ -162,7 +183,7 @@ function slackRules(net: Network, busAt: Map<string, number>, add: AddIssue): vo
   for (const t of net.transformers) join(t.hvBus, t.lvBus);
   const slacks = new Map<number, number[]>();
   net.sources.forEach((s, i) => {
-    const at = busAt.get(s.bus);
+    const at = busAt(s.bus);
     if (s.control !== "slack" || at === undefined) return;
     const root = find(at);
     const list = slacks.get(root);
@@ -172,7 +193,7 @@ function slackRules(net: Network, busAt: Map<string, number>, add: AddIssue): vo
   const reported = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
     const b = net.buses[i];
-    const root = find(busAt.get(b.id)!);
+    const root = find(busAt(b.id)!);
     if (reported[root]) continue;
     reported[root] = 1;
     const found = slacks.get(root) ?? [];

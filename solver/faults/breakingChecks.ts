@@ -27,17 +27,18 @@ export function faultChecks(network: Network, faults: FaultResult): Check[] {
         `rated breaking current ${kA(bus.breakingKA)} (IEC 60909-0 initial symmetrical current against rated breaking current)`,
     });
   }
-  checks.push(...minimumFaultChecks(network, faults));
+  for (const check of minimumFaultChecks(network, faults)) checks.push(check);
   return checks;
 }
 
 /** The minimum fault level against what the planner asks of a bus, and each converter's SCR. */
 function minimumFaultChecks(network: Network, faults: FaultResult): Check[] {
-  const readings = new Map(faults.buses.map((r) => [r.id, r]));
+  // Readings come in the network's bus order.
   const checks: Check[] = [];
-  for (const bus of network.buses) {
-    const reading = readings.get(bus.id);
-    if (bus.minFaultMVA === undefined || !reading) continue;
+  for (let i = 0; i < network.buses.length && i < faults.buses.length; i++) {
+    const bus = network.buses[i];
+    if (bus.minFaultMVA === undefined) continue;
+    const reading = faults.buses[i];
     const minimumMVA = Math.sqrt(3) * bus.nominalKV * reading.ik3MinKA;
     if (minimumMVA >= bus.minFaultMVA) continue;
     checks.push({

@@ -7,6 +7,8 @@
 // calls for (peakMethods.ts). Converter plants add their current-source share in the maximum
 // case (converterSources.ts); the minimum case (c_min, weakest infeeds, hot conductors) gives
 // ik3MinKA and ik1MinKA, and each converter's short-circuit ratio.
+import { busIndexOf } from "#solver/idIndex.ts";
+import { SymbolicCache } from "#solver/sparse/ordering.ts";
 import { currentBaseA } from "#solver/perUnit.ts";
 import type { ConverterFaultReading, FaultBusReading, FaultResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
@@ -35,7 +37,7 @@ export const NO_SOURCE_NOTE = "no source feeds this bus";
  * Z_ii into Z_ii − Z_ij²/(Z_jj + z_s), so |Z_ij|² = |Z_ii − Z'_ii|·|Z_jj + z_s|. Only the
  * magnitude is needed (the standard adds the converters' currents as magnitudes).
  */
-function transferMagnitudes(network: NodalNetwork, z: DrivingPointImpedances, j: number): Float64Array {
+function transferMagnitudes(network: NodalNetwork, z: DrivingPointImpedances, j: number, analyses: SymbolicCache): Float64Array {
   const scale = 1e-6 * Math.hypot(z.zRe[j], z.zIm[j]);
   const shorted: NodalNetwork = {
     ...network,
@@ -44,7 +46,7 @@ function transferMagnitudes(network: NodalNetwork, z: DrivingPointImpedances, j:
     shuntZRe: Float64Array.from([...network.shuntZRe.subarray(0, network.shuntCount), 0]),
     shuntZIm: Float64Array.from([...network.shuntZIm.subarray(0, network.shuntCount), scale]),
   };
-  const after = drivingPointImpedances(shorted);
+  const after = drivingPointImpedances(shorted, analyses);
   const out = new Float64Array(network.nodeCount);
   const jj = Math.hypot(z.zRe[j], z.zIm[j] + scale);
   for (let i = 0; i < network.nodeCount; i++) {
@@ -57,16 +59,17 @@ function transferMagnitudes(network: NodalNetwork, z: DrivingPointImpedances, j:
 export function computeFaultLevels(network: Network): FaultResult {
   const model = buildSequenceNetworks(network);
   const minimum = buildSequenceNetworks(network, "minimum");
-  const z1 = drivingPointImpedances(model.positive);
-  const z0 = drivingPointImpedances(model.zero);
-  const z1Min = drivingPointImpedances(minimum.positive);
-  const z0Min = drivingPointImpedances(minimum.zero);
+  const analyses = new SymbolicCache();
+  const z1 = drivingPointImpedances(model.positive, analyses);
+  const z0 = drivingPointImpedances(model.zero, analyses);
+  const z1Min = drivingPointImpedances(minimum.positive, analyses);
+  const z0Min = drivingPointImpedances(minimum.zero, analyses);
   const baseMVA = network.baseMVA;
   const paths = classifyPeakPaths(model.positive);
   const fcRatio = equivalentFrequencyRatio(network.frequencyHz);
-  const atFc = paths.method.includes("equivalent-frequency") ? drivingPointImpedances(atFrequencyRatio(model.positive, fcRatio)) : null;
+  const atFc = paths.method.includes("equivalent-frequency") ? drivingPointImpedances(atFrequencyRatio(model.positive, fcRatio), analyses) : null;
 
-  const busIndex = new Map(model.buses.map((b, k) => [b.id, k]));
+  const busIndex = busIndexOf(network);
   const converters = network.sources
     .filter((s) => s.kind === "converter" && s.ratedMVA !== undefined && s.faultCurrentPct !== undefined)
     .map((s) => {
@@ -75,41 +78,43 @@ export function computeFaultLevels(network: Network): FaultResult {
         source: s,
         j,
         currentPu: converterFaultCurrentPu(s.ratedMVA!, s.faultCurrentPct!, baseMVA),
-        transfer: z1.reachesReference[j] ? transferMagnitudes(model.positive, z1, j) : null,
+        transfer: z1.reachesReference[j] ? transferMagnitudes(model.positive, z1, j, analyses) : null,
       };
     });
+  const feeding = converters.filter((cv) => cv.transfer !== null);
 
-  const buses = model.buses.map((bus, k): FaultBusReading => {
-    if (!z1.reachesReference[k])
-      return { id: bus.id, ik3kA: 0, ik3MVA: 0, ip3kA: 0, ik1kA: 0, rOverX: 0, ik3MinKA: 0, ik1MinKA: 0, ipMethod: paths.method[k], note: NO_SOURCE_NOTE };
+  // One reading per bus and nothing else allocated in the loop: the hot path of a large network.
+  const buses: FaultBusReading[] = new Array(model.buses.length);
+  for (let k = 0; k < buses.length; k++) {
+    const bus = model.buses[k];
+    const method = paths.method[k];
+    if (!z1.reachesReference[k]) {
+      buses[k] = { id: bus.id, ik3kA: 0, ik3MVA: 0, ip3kA: 0, ik1kA: 0, rOverX: 0, ik3MinKA: 0, ik1MinKA: 0, ipMethod: method, note: NO_SOURCE_NOTE };
+      continue;
+    }
     const c = model.c[k];
     const baseKA = currentBaseA(bus.nominalKV, baseMVA) / 1000;
     const r1 = z1.zRe[k];
     const x1 = z1.zIm[k];
     const ik3NetworkPu = c / Math.hypot(r1, x1);
-    const method = paths.method[k];
     const ipNetworkPu =
       method === "equivalent-frequency"
         ? kappaEquivalentFrequency(atFc!.zRe[k], atFc!.zIm[k], fcRatio) * Math.SQRT2 * ik3NetworkPu
         : Math.SQRT2 * c * paths.branchPeakPu[k];
 
-    const transfers: ConverterTransfer[] = converters.flatMap((cv) =>
-      cv.transfer ? [{ zTransfer: { re: cv.transfer[k], im: 0 }, currentPu: cv.currentPu }] : [],
-    );
-    const zkk = { re: r1, im: x1 };
-    const converterShare = transfers.length > 0 ? converterShareThreePhasePu(zkk, transfers) : 0;
+    const transfers: ConverterTransfer[] | null =
+      feeding.length > 0 ? feeding.map((cv) => ({ zTransfer: { re: cv.transfer![k], im: 0 }, currentPu: cv.currentPu })) : null;
+    const converterShare = transfers ? converterShareThreePhasePu({ re: r1, im: x1 }, transfers) : 0;
     const ik3kA = (ik3NetworkPu + converterShare) * baseKA;
 
-    const minimumKA = (z: DrivingPointImpedances, zZero: DrivingPointImpedances) => {
-      if (!z.reachesReference[k]) return { ik3: 0, ik1: 0 };
+    let ik3MinKA = 0;
+    let ik1MinKA = 0;
+    if (z1Min.reachesReference[k]) {
       const cMin = minimum.c[k];
-      const ik3 = (cMin / Math.hypot(z.zRe[k], z.zIm[k])) * baseKA;
-      const ik1 = zZero.reachesReference[k]
-        ? ((3 * cMin) / Math.hypot(2 * z.zRe[k] + zZero.zRe[k], 2 * z.zIm[k] + zZero.zIm[k])) * baseKA
-        : 0;
-      return { ik3, ik1 };
-    };
-    const min = minimumKA(z1Min, z0Min);
+      ik3MinKA = (cMin / Math.hypot(z1Min.zRe[k], z1Min.zIm[k])) * baseKA;
+      if (z0Min.reachesReference[k])
+        ik1MinKA = ((3 * cMin) / Math.hypot(2 * z1Min.zRe[k] + z0Min.zRe[k], 2 * z1Min.zIm[k] + z0Min.zIm[k])) * baseKA;
+    }
 
     const reading: FaultBusReading = {
       id: bus.id,
@@ -118,18 +123,17 @@ export function computeFaultLevels(network: Network): FaultResult {
       ip3kA: peakWithConverters(ipNetworkPu, converterShare) * baseKA,
       ik1kA: 0,
       rOverX: r1 / x1,
-      ik3MinKA: min.ik3,
-      ik1MinKA: min.ik1,
+      ik3MinKA,
+      ik1MinKA,
       ipMethod: method,
     };
     if (z0.reachesReference[k]) {
-      const z0kk = { re: z0.zRe[k], im: z0.zIm[k] };
-      const share = transfers.length > 0 ? converterShareLineToEarthPu(zkk, z0kk, transfers) : 0;
-      const loop = Math.hypot(2 * r1 + z0kk.re, 2 * x1 + z0kk.im);
+      const share = transfers ? converterShareLineToEarthPu({ re: r1, im: x1 }, { re: z0.zRe[k], im: z0.zIm[k] }, transfers) : 0;
+      const loop = Math.hypot(2 * r1 + z0.zRe[k], 2 * x1 + z0.zIm[k]);
       reading.ik1kA = ((3 * c) / loop + share) * baseKA;
     } else reading.note = UNEARTHED_NOTE;
-    return reading;
-  });
+    buses[k] = reading;
+  }
 
   const converterReadings: ConverterFaultReading[] = converters.map((cv) => {
     const bus = model.buses[cv.j];

@@ -46,77 +46,106 @@ export interface PeakPaths {
   branchPeakPu: Float64Array;
 }
 
-interface Admittance {
-  re: number;
-  im: number;
-}
-
-const ZERO: Admittance = { re: 0, im: 0 };
-const add = (a: Admittance, b: Admittance): Admittance => ({ re: a.re + b.re, im: a.im + b.im });
-const sub = (a: Admittance, b: Admittance): Admittance => ({ re: a.re - b.re, im: a.im - b.im });
-const mul = (a: Admittance, b: Admittance): Admittance => ({ re: a.re * b.re - a.im * b.im, im: a.re * b.im + a.im * b.re });
-const div = (a: Admittance, b: Admittance): Admittance => {
-  const d = b.re * b.re + b.im * b.im;
-  return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
-};
-const inverse = (z: Admittance): Admittance => div({ re: 1, im: 0 }, z);
-
 /** κ·|Y| of one branch: R/X of its impedance 1/Y is Re(Y)/(−Im(Y)). */
-function branchPeak(y: Admittance): number {
-  const size = Math.hypot(y.re, y.im);
+function branchPeak(yRe: number, yIm: number): number {
+  const size = Math.hypot(yRe, yIm);
   if (size === 0) return 0;
-  return kappa(y.re / -y.im) * size;
+  return kappa(yRe / -yIm) * size;
 }
 
 export function classifyPeakPaths(network: NodalNetwork): PeakPaths {
   const n = network.nodeCount;
-  const { branchCount, branchFrom, branchTo, branchZRe, branchZIm, branchRatio } = network;
+  const { branchCount, branchFrom, branchTo, branchZRe, branchZIm, branchRatio, shuntCount, shuntNode } = network;
 
-  // Sources at each node, as admittances, and how many.
-  const shuntAdmittances: Admittance[][] = Array.from({ length: n }, () => []);
-  for (let s = 0; s < network.shuntCount; s++)
-    shuntAdmittances[network.shuntNode[s]].push(inverse({ re: network.shuntZRe[s], im: network.shuntZIm[s] }));
-
-  const adjacency: number[][] = Array.from({ length: n }, () => []);
-  for (let b = 0; b < branchCount; b++) {
-    adjacency[branchFrom[b]].push(b);
-    adjacency[branchTo[b]].push(b);
+  // Sources at each node as admittances, grouped by node in their own order (counting sort).
+  const shuntStart = new Int32Array(n + 1);
+  for (let s = 0; s < shuntCount; s++) shuntStart[shuntNode[s] + 1]++;
+  for (let k = 0; k < n; k++) shuntStart[k + 1] += shuntStart[k];
+  const shuntYRe = new Float64Array(shuntCount);
+  const shuntYIm = new Float64Array(shuntCount);
+  const shuntFill = shuntStart.slice(0, n);
+  for (let s = 0; s < shuntCount; s++) {
+    const at = shuntFill[shuntNode[s]]++;
+    const zr = network.shuntZRe[s];
+    const zi = network.shuntZIm[s];
+    const d = zr * zr + zi * zi;
+    shuntYRe[at] = (1 * zr + 0 * zi) / d;
+    shuntYIm[at] = (0 * zr - 1 * zi) / d;
   }
 
-  /** The admittance seen at the near end of branch b looking through it at `far`, whose own side shows yFar. */
-  const across = (b: number, far: number, yFar: Admittance): Admittance => {
-    const z = { re: branchZRe[b], im: branchZIm[b] };
+  // Branches at each node, in branch order.
+  const adjacencyStart = new Int32Array(n + 1);
+  for (let b = 0; b < branchCount; b++) {
+    adjacencyStart[branchFrom[b] + 1]++;
+    adjacencyStart[branchTo[b] + 1]++;
+  }
+  for (let k = 0; k < n; k++) adjacencyStart[k + 1] += adjacencyStart[k];
+  const adjacency = new Int32Array(2 * branchCount);
+  const adjacencyFill = adjacencyStart.slice(0, n);
+  for (let b = 0; b < branchCount; b++) {
+    adjacency[adjacencyFill[branchFrom[b]]++] = b;
+    adjacency[adjacencyFill[branchTo[b]]++] = b;
+  }
+
+  // The admittance seen at the near end of branch b looking through it at `far`, whose own side
+  // shows (yRe, yIm); written into acrossRe/acrossIm. The operations are those of complex
+  // arithmetic term by term, so the figures do not depend on how they are stored.
+  let acrossRe = 0;
+  let acrossIm = 0;
+  const across = (b: number, far: number, yRe: number, yIm: number): void => {
+    const zr = branchZRe[b];
+    const zi = branchZIm[b];
     const a2 = branchRatio[b] * branchRatio[b];
-    if (far === branchTo[b]) {
-      const y = div(yFar, add({ re: 1, im: 0 }, mul(z, yFar)));
-      return { re: y.re / a2, im: y.im / a2 };
+    let sRe = yRe;
+    let sIm = yIm;
+    if (far !== branchTo[b]) {
+      sRe = yRe * a2;
+      sIm = yIm * a2;
     }
-    const seen = { re: yFar.re * a2, im: yFar.im * a2 };
-    return div(seen, add({ re: 1, im: 0 }, mul(z, seen)));
+    // (s) / (1 + z·s)
+    const dRe = 1 + (zr * sRe - zi * sIm);
+    const dIm = 0 + (zr * sIm + zi * sRe);
+    const d = dRe * dRe + dIm * dIm;
+    const qRe = (sRe * dRe + sIm * dIm) / d;
+    const qIm = (sIm * dRe - sRe * dIm) / d;
+    if (far === branchTo[b]) {
+      acrossRe = qRe / a2;
+      acrossIm = qIm / a2;
+    } else {
+      acrossRe = qRe;
+      acrossIm = qIm;
+    }
   };
 
   const method: PeakMethod[] = new Array(n).fill("equivalent-frequency");
   const branchPeakPu = new Float64Array(n).fill(Number.NaN);
 
-  // Walk each connected group as a tree; a branch back to a visited node means a loop.
+  // Walk each connected group as a tree; a branch back to a visited node means a loop. In a tree
+  // every branch of a node other than the one to its parent leads to a child.
   const visited = new Uint8Array(n);
   const parent = new Int32Array(n).fill(-1);
   const parentBranch = new Int32Array(n).fill(-1);
-  const children: number[][] = Array.from({ length: n }, () => []);
-  const yDown: Admittance[] = new Array(n).fill(ZERO);
-  const yUp: Admittance[] = new Array(n).fill(ZERO);
-  const yFromChild: Admittance[] = new Array(n).fill(ZERO);
+  const yDownRe = new Float64Array(n);
+  const yDownIm = new Float64Array(n);
+  const yUpRe = new Float64Array(n);
+  const yUpIm = new Float64Array(n);
+  const yFromChildRe = new Float64Array(n);
+  const yFromChildIm = new Float64Array(n);
   const sourcesDown = new Int32Array(n);
+  const order = new Int32Array(n);
+  const stack = new Int32Array(n);
   for (let root = 0; root < n; root++) {
     if (visited[root]) continue;
-    const order: number[] = [];
+    let count = 0;
     let meshed = false;
-    const stack = [root];
+    let top = 0;
+    stack[top++] = root;
     visited[root] = 1;
-    while (stack.length > 0) {
-      const k = stack.pop()!;
-      order.push(k);
-      for (const b of adjacency[k]) {
+    while (top > 0) {
+      const k = stack[--top];
+      order[count++] = k;
+      for (let a = adjacencyStart[k]; a < adjacencyStart[k + 1]; a++) {
+        const b = adjacency[a];
         if (b === parentBranch[k]) continue;
         const other = branchFrom[b] === k ? branchTo[b] : branchFrom[b];
         if (visited[other]) {
@@ -126,45 +155,81 @@ export function classifyPeakPaths(network: NodalNetwork): PeakPaths {
         visited[other] = 1;
         parent[other] = k;
         parentBranch[other] = b;
-        children[k].push(other);
-        stack.push(other);
+        stack[top++] = other;
       }
     }
     if (meshed) continue;
 
     // Down: what each node's subtree shows at the node, and how many sources it holds.
-    for (let i = order.length - 1; i >= 0; i--) {
+    for (let i = count - 1; i >= 0; i--) {
       const k = order[i];
-      let y = shuntAdmittances[k].reduce(add, ZERO);
-      let count = shuntAdmittances[k].length;
-      for (const child of children[k]) {
-        const seen = across(parentBranch[child], child, yDown[child]);
-        yFromChild[child] = seen;
-        y = add(y, seen);
-        count += sourcesDown[child];
+      let yRe = 0;
+      let yIm = 0;
+      for (let s = shuntStart[k]; s < shuntStart[k + 1]; s++) {
+        yRe = yRe + shuntYRe[s];
+        yIm = yIm + shuntYIm[s];
       }
-      yDown[k] = y;
-      sourcesDown[k] = count;
+      let sources = shuntStart[k + 1] - shuntStart[k];
+      for (let a = adjacencyStart[k]; a < adjacencyStart[k + 1]; a++) {
+        const b = adjacency[a];
+        if (b === parentBranch[k]) continue;
+        const child = branchFrom[b] === k ? branchTo[b] : branchFrom[b];
+        across(b, child, yDownRe[child], yDownIm[child]);
+        yFromChildRe[child] = acrossRe;
+        yFromChildIm[child] = acrossIm;
+        yRe = yRe + acrossRe;
+        yIm = yIm + acrossIm;
+        sources += sourcesDown[child];
+      }
+      yDownRe[k] = yRe;
+      yDownIm[k] = yIm;
+      sourcesDown[k] = sources;
     }
     const totalSources = sourcesDown[root];
 
     // Up: what the rest of the group shows at each node through its parent branch.
-    yUp[root] = ZERO;
-    for (const k of order) {
+    yUpRe[root] = 0;
+    yUpIm[root] = 0;
+    for (let i = 0; i < count; i++) {
+      const k = order[i];
       if (k === root) continue;
       const p = parent[k];
-      const parentSide = add(sub(yDown[p], yFromChild[k]), yUp[p]);
-      yUp[k] = across(parentBranch[k], p, parentSide);
+      across(parentBranch[k], p, yDownRe[p] - yFromChildRe[k] + yUpRe[p], yDownIm[p] - yFromChildIm[k] + yUpIm[p]);
+      yUpRe[k] = acrossRe;
+      yUpIm[k] = acrossIm;
     }
 
-    for (const k of order) {
-      const branches: { y: Admittance; sources: number }[] = shuntAdmittances[k].map((y) => ({ y, sources: 1 }));
-      for (const child of children[k]) branches.push({ y: yFromChild[child], sources: sourcesDown[child] });
-      if (k !== root) branches.push({ y: yUp[k], sources: totalSources - sourcesDown[k] });
-      const feeding = branches.filter((b) => b.sources > 0);
-      if (feeding.some((b) => b.sources > 1)) continue;
-      method[k] = feeding.length > 1 ? "branch-sum" : "radial";
-      branchPeakPu[k] = feeding.reduce((sum, b) => sum + branchPeak(b.y), 0);
+    // The branches feeding each node: its own sources, each child's subtree, the rest above it.
+    for (let i = 0; i < count; i++) {
+      const k = order[i];
+      let feeding = 0;
+      let shared = false;
+      let peak = 0;
+      for (let s = shuntStart[k]; s < shuntStart[k + 1]; s++) {
+        feeding++;
+        peak += branchPeak(shuntYRe[s], shuntYIm[s]);
+      }
+      for (let a = adjacencyStart[k]; a < adjacencyStart[k + 1] && !shared; a++) {
+        const b = adjacency[a];
+        if (b === parentBranch[k]) continue;
+        const child = branchFrom[b] === k ? branchTo[b] : branchFrom[b];
+        const sources = sourcesDown[child];
+        if (sources === 0) continue;
+        if (sources > 1) shared = true;
+        feeding++;
+        peak += branchPeak(yFromChildRe[child], yFromChildIm[child]);
+      }
+      if (k !== root) {
+        const sources = totalSources - sourcesDown[k];
+        if (sources > 1) shared = true;
+        if (sources > 0) {
+          feeding++;
+          peak += branchPeak(yUpRe[k], yUpIm[k]);
+        }
+      }
+      if (shared) continue;
+      method[k] = feeding > 1 ? "branch-sum" : "radial";
+      branchPeakPu[k] = peak;
     }
   }
   return { method, branchPeakPu };

@@ -5,7 +5,7 @@
 // to the reference (no source, no earth) has no finite Z_kk: it is left out of the elimination
 // (identity rows) and reported as not reaching the reference.
 import { sequenceAdmittance } from "#solver/admittance.ts";
-import { analyse } from "#solver/sparse/ordering.ts";
+import { SymbolicCache } from "#solver/sparse/ordering.ts";
 import { ComplexSymmetricFactor } from "#solver/sparse/selectedInverse.ts";
 import type { DrivingPointImpedances, NodalNetwork } from "./nodalNetwork.ts";
 
@@ -30,7 +30,8 @@ class DisjointSets {
   }
 }
 
-export function drivingPointImpedances(network: NodalNetwork): DrivingPointImpedances {
+/** `analyses` carries the orderings already made in this solve, so that a network of the same graph is not ordered again. */
+export function drivingPointImpedances(network: NodalNetwork, analyses: SymbolicCache = new SymbolicCache()): DrivingPointImpedances {
   const n = network.nodeCount;
   const { branchCount, branchFrom, branchTo, branchZRe, branchZIm, branchRatio } = network;
 
@@ -54,7 +55,7 @@ export function drivingPointImpedances(network: NodalNetwork): DrivingPointImped
   const active = new Uint8Array(n);
   for (let k = 0; k < n; k++) active[k] = node[k] === k && earthed[connected.find(k)] ? 1 : 0;
 
-  const factor = new ComplexSymmetricFactor(analyse(matrix));
+  const factor = new ComplexSymmetricFactor(analyses.analyse(matrix));
   const { diagonalRe, diagonalIm, offRe, offIm } = factor;
   for (let i = 0; i < n; i++) {
     if (!active[i]) {

@@ -34,6 +34,30 @@ export interface Symbolic {
   updateTargetIsUpper: Uint8Array;
 }
 
+/**
+ * The analyses of one solve, reused for every matrix of the same graph: the positive-sequence
+ * fault network in the maximum and minimum cases, at the equivalent frequency and with a
+ * converter's bus shorted all share one pattern, as do the two zero-sequence networks. A graph is
+ * compared entry by entry (linear), far cheaper than ordering it again.
+ */
+export class SymbolicCache {
+  private readonly known: { graph: Graph; symbolic: Symbolic }[] = [];
+
+  analyse(graph: Graph): Symbolic {
+    for (const entry of this.known) if (sameGraph(entry.graph, graph)) return entry.symbolic;
+    const symbolic = analyse(graph);
+    this.known.push({ graph: { nodeCount: graph.nodeCount, rowStart: graph.rowStart, neighbours: graph.neighbours }, symbolic });
+    return symbolic;
+  }
+}
+
+function sameGraph(a: Graph, b: Graph): boolean {
+  if (a.nodeCount !== b.nodeCount || a.neighbours.length !== b.neighbours.length) return false;
+  for (let i = 0; i <= a.nodeCount; i++) if (a.rowStart[i] !== b.rowStart[i]) return false;
+  for (let e = 0; e < a.neighbours.length; e++) if (a.neighbours[e] !== b.neighbours[e]) return false;
+  return true;
+}
+
 /** Orders the nodes (leaves first, then minimum degree) and records the factor pattern. */
 export function analyse(graph: Graph): Symbolic {
   const n = graph.nodeCount;

@@ -17,4 +17,20 @@ describe("id index", () => {
       { numRuns: 200 },
     );
   });
+
+  it("lists every repeat with its first position, in order, like a scan with a Map", () => {
+    fc.assert(
+      fc.property(fc.array(fc.constantFrom("a", "b", "c", "d", "é", "𝒳", ""), { maxLength: 60 }), (ids) => {
+        const first = new Map<string, number>();
+        const expected: number[] = [];
+        ids.forEach((id, i) => {
+          const at = first.get(id);
+          if (at === undefined) first.set(id, i);
+          else expected.push(i, at);
+        });
+        expect(new IdIndex(ids).repeats).toEqual(expected);
+      }),
+      { numRuns: 300 },
+    );
+  });
 });
