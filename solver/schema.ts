@@ -2,7 +2,7 @@
 // One zod schema validates shape (unknown fields rejected), then `networkRules` checks what a
 // shape cannot: references, unique ids, one slack per connected group, voltage levels.
 import { z } from "zod";
-import { networkRules, vectorGroupPattern } from "#solver/networkRules.ts";
+import { networkRules, POWER_LIMIT, vectorGroupPattern } from "#solver/networkRules.ts";
 import { formatPath, validateDocument } from "#solver/validation/document.ts";
 import { typeMessage } from "#solver/validation/read.ts";
 
@@ -28,8 +28,8 @@ function within(min: number, max: number, unit: string, options: { minExclusive?
 
 const kV = within(0.05, 1500, "kV");
 const MVA = within(1e-4, 1e5, "MVA");
-const signedMW = within(-1e5, 1e5, "MW");
-const signedMvar = within(-1e5, 1e5, "Mvar");
+const signedMW = within(-POWER_LIMIT, POWER_LIMIT, "MW");
+const signedMvar = within(-POWER_LIMIT, POWER_LIMIT, "Mvar");
 const voltagePu = within(0.5, 1.5, "pu");
 const ratio = within(1e-3, 1e3, "");
 // X/R may be very large: a textbook check models an ideal reactance that way.

@@ -1,8 +1,8 @@
 // An operating case applied to a network: the plain network the solver sees in that case. Loads
 // scaled, dispatch overridden, elements out of service removed, and whatever that leaves without
 // a path to a slack source removed too, its load counted as lost. No physics here: the result
-// goes through solveNetwork like any drawn network.
-import type { Network, NetworkInput, OperatingCase } from "#solver/schema.ts";
+// is solved like any drawn network.
+import type { Network, OperatingCase } from "#solver/schema.ts";
 
 /** A network without cases is studied as one case, the network as drawn. */
 export const AS_DRAWN: OperatingCase = { id: "as-drawn", name: "As drawn", loadScale: 1 };
@@ -19,8 +19,8 @@ export interface CaseAdjustment {
 }
 
 export interface AppliedCase {
-  /** A version 1 style document without cases or growth, ready for solveNetwork; null when no bus is energised. */
-  document: NetworkInput | null;
+  /** The network as in the case, without cases or growth, ready to solve; null when no bus is energised. */
+  document: Network | null;
   lostLoadMW: number;
   deenergisedBuses: string[];
 }

@@ -1,14 +1,15 @@
 // One study run: every operating case, the envelope across them, outages (N-1), years of load
 // growth and the energy lost in a year. Each load flow is a plain solve of the network with the
-// case applied (applyCase.ts) through solveNetwork, the entry point every caller shares: the
-// study adds bookkeeping, never physics.
+// case applied (applyCase.ts), validated once for the whole study and solved per case by
+// solveValidated, the same numerics every caller shares: the study adds bookkeeping, never physics.
 //
 // The work is a generator of steps, one load flow each, so that the same code runs to the end
 // at once (runStudySync, for the ladder and the command line) or a little at a time (runStudy:
 // progress, a yield to the event loop now and then, and cancellation by AbortSignal), which is
 // what a worker pool or a browser tab needs.
 import { z } from "zod";
-import { solveNetwork } from "#solver/index.ts";
+import { solveNetwork, solveValidated } from "#solver/index.ts";
+import { POWER_LIMIT } from "#solver/networkRules.ts";
 import { LOAD_FLOW_METHOD } from "#solver/loadFlow/index.ts";
 import { moneyInputSchema } from "#solver/economics.ts";
 import { inputMessage, zodIssues } from "#solver/alternative.ts";
@@ -91,12 +92,18 @@ interface SolvedCase {
   deenergisedBuses: string[];
 }
 
-/** One case, adjusted or not, through solveNetwork. */
+/**
+ * One case, adjusted or not. The network was validated once when the study began, and a case of
+ * it is valid too (elements only leave, loads and dispatch stay within the schema's bounds), so
+ * the case is solved without validating again: its cost is the numerics. A case that could fall
+ * outside what validation lets through (a load grown past the bound, a regulated bus cut off)
+ * goes through solveNetwork, whose validation then says why.
+ */
 export function solveCase(network: Network, operatingCase: OperatingCase, adjustment: CaseAdjustment = {}, faults = true): SolvedCase {
   const applied = applyCase(network, operatingCase, adjustment);
   const { lostLoadMW, deenergisedBuses } = applied;
   if (!applied.document) return { result: { loadFlow: emptyLoadFlow("No bus is connected to a slack source in this case: every load is lost."), checks: [] }, lostLoadMW, deenergisedBuses };
-  const outcome = solveNetwork(applied.document, { faults });
+  const outcome = staysValid(applied.document) ? solveValidated(applied.document, { faults }) : solveNetwork(applied.document, { faults });
   if (outcome.ok) return { result: outcome.result, lostLoadMW, deenergisedBuses };
   // A case of a valid network is a valid network; should the solver still refuse it, the case
   // reports why instead of stopping the study.
@@ -106,6 +113,20 @@ export function solveCase(network: Network, operatingCase: OperatingCase, adjust
     lostLoadMW,
     deenergisedBuses,
   };
+}
+
+/**
+ * Whether a case of a validated network is itself one without validating it: what applyCase
+ * changes beyond removing elements is each load's P and Q (scaled) and a source's dispatch (whose
+ * overrides the case's own schema bounds as the source's), and what removal can break is a
+ * regulating transformer's reference to a bus left de-energised.
+ */
+function staysValid(document: Network): boolean {
+  for (const load of document.loads) if (!(Math.abs(load.pMW) <= POWER_LIMIT && Math.abs(load.qMvar) <= POWER_LIMIT)) return false;
+  const regulated = document.transformers.filter((t) => t.tapControl);
+  if (regulated.length === 0) return true;
+  const live = new Set(document.buses.map((b) => b.id));
+  return regulated.every((t) => live.has(t.tapControl!.bus));
 }
 
 function emptyLoadFlow(message: string): LoadFlowResult {

@@ -5,7 +5,7 @@
 // for the published JSON Schema and the forms. A field added to the schema is added here too: the
 // agreement test (tests/unit/solver/validation) feeds both valid and broken documents to both.
 import type { Network, ValidationIssue, ValidationResult } from "#solver/schema.ts";
-import { networkRules, vectorGroupPattern } from "#solver/networkRules.ts";
+import { networkRules, POWER_LIMIT, vectorGroupPattern } from "#solver/networkRules.ts";
 import {
   boolean,
   list,
@@ -28,8 +28,8 @@ const name = text(200);
 const finite = number();
 const kV = number(0.05, 1500, "kV");
 const MVA = number(1e-4, 1e5, "MVA");
-const signedMW = number(-1e5, 1e5, "MW");
-const signedMvar = number(-1e5, 1e5, "Mvar");
+const signedMW = number(-POWER_LIMIT, POWER_LIMIT, "MW");
+const signedMvar = number(-POWER_LIMIT, POWER_LIMIT, "Mvar");
 const voltagePu = number(0.5, 1.5, "pu");
 const ratio = number(1e-3, 1e3, "");
 const xOverR = number(1e-3, 1e12, "");
