@@ -7,6 +7,7 @@ export interface StoredLadderStudy {
   voltagesKV: number[];
   overrides: unknown[] | null;
   money: unknown;
+  sizing: unknown | null;
   networkRevision: number;
   updatedAt: string;
   updatedByName: string | null;
@@ -16,7 +17,7 @@ export async function findLadderStudy(db: Db, networkId: number): Promise<Stored
   const row = await db
     .selectFrom("ladder_studies as s")
     .leftJoin("users as u", "u.id", "s.updated_by")
-    .select(["s.section_bus", "s.voltages_kv", "s.overrides", "s.money", "s.network_revision", "s.updated_at", "u.name as updatedByName"])
+    .select(["s.section_bus", "s.voltages_kv", "s.overrides", "s.money", "s.sizing", "s.network_revision", "s.updated_at", "u.name as updatedByName"])
     .where("s.network_id", "=", networkId)
     .executeTakeFirst();
   if (!row) return undefined;
@@ -25,6 +26,7 @@ export async function findLadderStudy(db: Db, networkId: number): Promise<Stored
     voltagesKV: JSON.parse(row.voltages_kv),
     overrides: JSON.parse(row.overrides),
     money: JSON.parse(row.money),
+    sizing: row.sizing === null ? null : JSON.parse(row.sizing),
     networkRevision: row.network_revision,
     updatedAt: row.updated_at,
     updatedByName: row.updatedByName,
@@ -39,6 +41,7 @@ export async function upsertLadderStudy(
     voltagesKV: number[];
     overrides: unknown[] | null;
     money: unknown;
+    sizing?: unknown | null;
     networkRevision: number;
     userId: number;
     now?: Date;
@@ -49,6 +52,7 @@ export async function upsertLadderStudy(
     voltages_kv: JSON.stringify(input.voltagesKV),
     overrides: JSON.stringify(input.overrides),
     money: JSON.stringify(input.money),
+    sizing: input.sizing === undefined || input.sizing === null ? null : JSON.stringify(input.sizing),
     network_revision: input.networkRevision,
     updated_by: input.userId,
     updated_at: (input.now ?? new Date()).toISOString(),

@@ -91,6 +91,8 @@ export interface LadderStudiesTable {
   overrides: string;
   /** JSON: the money inputs with their defaults filled in. */
   money: string;
+  /** JSON: the conductor sizing asked for ({ clearingTimeS }), null when the ladder keeps the drawn conductor. */
+  sizing: string | null;
   /** The network revision the study was saved against. */
   network_revision: number;
   updated_by: number | null;

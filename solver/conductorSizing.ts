@@ -1,9 +1,10 @@
-// Size a line or cable: put each candidate conductor in its place, solve, and say for each
-// whether it carries the worst loading, keeps every bus beyond it inside its band and withstands
-// the fault for the clearing time, with its lifetime cost (capital plus present value of losses)
-// beside it. The planner chooses; the cheapest that passes is marked.
+// Size a line or cable (or every line of a ladder's section at once): put each candidate
+// conductor in its place, solve, and say for each whether it carries the worst loading, keeps
+// every bus beyond it inside its band and withstands the fault for the clearing time, with its
+// lifetime cost (capital plus present value of losses) beside it. The planner chooses; the
+// cheapest that passes is marked. The voltage ladder takes that one for each alternative.
 import { minimumCrossSectionMm2, type ConductorMaterial } from "#solver/conductorWithstand.ts";
-import { costAtVoltage, lossMoney, moneyInputSchema, type MoneyInputDraft } from "#solver/economics.ts";
+import { costAtVoltage, lossMoney, moneyInputSchema, type MoneyInput, type MoneyInputDraft } from "#solver/economics.ts";
 import { solveNetwork } from "#solver/index.ts";
 import type { Network } from "#solver/schema.ts";
 
@@ -47,20 +48,34 @@ export interface SizingVerdict {
 }
 
 export type SizingOutcome =
-  | { ok: true; lineId: string; verdicts: SizingVerdict[]; cheapestPassing: string | null }
+  | { ok: true; lineId: string; lineIds: string[]; verdicts: SizingVerdict[]; cheapestPassing: string | null }
   | { ok: false; message: string };
 
 /** The reference cross-section the illustrative per-km cost is quoted for (a placeholder). */
 const REFERENCE_CROSS_SECTION_MM2 = 300;
 
-/** Buses that lose every source when the line is opened: the ones whose voltage depends on it. */
-function busesBeyond(network: Network, lineId: string): Set<string> {
+/**
+ * A candidate's capital per km at a nominal voltage: its own figure, else the money table's
+ * cost per km at that voltage (times the cable factor for a cable) scaled by √(S / 300 mm²), an
+ * illustrative placeholder for a team's own prices.
+ */
+export function conductorCostPerKm(candidate: Pick<SizingCandidate, "kind" | "crossSectionMm2" | "costPerKm">, nominalKV: number, money: MoneyInput): number {
+  if (candidate.costPerKm !== undefined) return candidate.costPerKm;
+  return (
+    costAtVoltage(money.lineCostPerKmByKV, nominalKV) *
+    (candidate.kind === "cable" ? money.cableCostFactor : 1) *
+    Math.sqrt(candidate.crossSectionMm2 / REFERENCE_CROSS_SECTION_MM2)
+  );
+}
+
+/** Buses that lose every source when the lines are opened: the ones whose voltage depends on them. */
+function busesBeyond(network: Network, lineIds: ReadonlySet<string>): Set<string> {
   const neighbours = new Map<string, string[]>();
   const link = (a: string, b: string) => {
     neighbours.set(a, [...(neighbours.get(a) ?? []), b]);
     neighbours.set(b, [...(neighbours.get(b) ?? []), a]);
   };
-  for (const l of network.lines) if (l.id !== lineId) link(l.fromBus, l.toBus);
+  for (const l of network.lines) if (!lineIds.has(l.id)) link(l.fromBus, l.toBus);
   for (const t of network.transformers) link(t.hvBus, t.lvBus);
   const fed = new Set(network.sources.filter((s) => s.control === "slack").map((s) => s.bus));
   const queue = [...fed];
@@ -72,21 +87,27 @@ function busesBeyond(network: Network, lineId: string): Set<string> {
 
 const round = (value: number, digits: number) => Number(value.toFixed(digits));
 
-export function sizeConductor(network: Network, lineId: string, candidates: readonly SizingCandidate[], options: SizingOptions): SizingOutcome {
-  const line = network.lines.find((l) => l.id === lineId);
-  if (!line) return { ok: false, message: `There is no line "${lineId}" in the network.` };
+/**
+ * Size one line, or several that take the same conductor (a ladder's section): every candidate
+ * on all of them, the worst loading among them, the buses beyond them, the fault at any of their
+ * ends and their summed losses and capital.
+ */
+export function sizeConductor(network: Network, lineIdOrIds: string | readonly string[], candidates: readonly SizingCandidate[], options: SizingOptions): SizingOutcome {
+  const lineIds = typeof lineIdOrIds === "string" ? [lineIdOrIds] : [...lineIdOrIds];
+  const missing = lineIds.find((id) => !network.lines.some((l) => l.id === id));
+  if (missing !== undefined || lineIds.length === 0) return { ok: false, message: `There is no line "${missing ?? ""}" in the network.` };
   if (!(options.clearingTimeS > 0)) return { ok: false, message: "The clearing time must be above 0 s." };
+  const sizedIds = new Set(lineIds);
+  const lines = network.lines.filter((l) => sizedIds.has(l.id));
   const money = moneyInputSchema.parse(options.money ?? {});
-  const nominalKV = network.buses.find((b) => b.id === line.fromBus)?.nominalKV ?? 0;
-  const beyond = busesBeyond(network, lineId);
+  const nominalKV = network.buses.find((b) => b.id === lines[0].fromBus)?.nominalKV ?? 0;
+  const lengthKm = lines.reduce((sum, l) => sum + l.lengthKm, 0);
+  const endBuses = new Set(lines.flatMap((l) => [l.fromBus, l.toBus]));
+  const beyond = busesBeyond(network, sizedIds);
 
   const verdicts = candidates.map((candidate): SizingVerdict => {
-    const tableCostPerKm =
-      costAtVoltage(money.lineCostPerKmByKV, nominalKV) *
-      (candidate.kind === "cable" ? money.cableCostFactor : 1) *
-      Math.sqrt(candidate.crossSectionMm2 / REFERENCE_CROSS_SECTION_MM2);
-    const capital = (candidate.costPerKm ?? tableCostPerKm) * line.lengthKm;
-    const sized = {
+    const capital = conductorCostPerKm(candidate, nominalKV, money) * lengthKm;
+    const sized = (line: Network["lines"][number]) => ({
       ...line,
       kind: candidate.kind,
       rOhmPerKm: candidate.rOhmPerKm,
@@ -95,8 +116,8 @@ export function sizeConductor(network: Network, lineId: string, candidates: read
       ampacityA: candidate.ampacityA,
       r0OhmPerKm: undefined,
       x0OhmPerKm: undefined,
-    };
-    const solved = solveNetwork({ ...network, lines: network.lines.map((l) => (l.id === lineId ? sized : l)) });
+    });
+    const solved = solveNetwork({ ...network, lines: network.lines.map((l) => (sizedIds.has(l.id) ? sized(l) : l)) });
     const failed = (reason: string): SizingVerdict => ({
       candidateId: candidate.id,
       label: candidate.label,
@@ -112,7 +133,8 @@ export function sizeConductor(network: Network, lineId: string, candidates: read
     const { loadFlow, faults } = solved.result;
     if (!loadFlow.converged) return failed(loadFlow.message ?? "the load flow found no solution with this conductor");
 
-    const branch = loadFlow.branches.find((b) => b.id === lineId)!;
+    const branches = loadFlow.branches.filter((b) => sizedIds.has(b.id));
+    const branch = branches.reduce((worst, b) => ((b.loadingPct ?? 0) > (worst.loadingPct ?? 0) ? b : worst));
     const loadingPct = branch.loadingPct ?? 0;
     const tests: SizingTest[] = [
       {
@@ -131,11 +153,11 @@ export function sizeConductor(network: Network, lineId: string, candidates: read
       passes: outOfBand.length === 0,
       reason:
         outOfBand.length === 0
-          ? `every bus beyond the line stays inside its band`
+          ? `every bus beyond the ${lines.length > 1 ? "lines" : "line"} stays inside its band`
           : outOfBand.map(({ bus, vPu }) => `${bus.name} at ${round(vPu, 3)} pu is outside ${bus.vMinPu}–${bus.vMaxPu} pu`).join("; "),
     });
 
-    const endFaults = (faults?.buses ?? []).filter((f) => f.id === line.fromBus || f.id === line.toBus);
+    const endFaults = (faults?.buses ?? []).filter((f) => endBuses.has(f.id));
     const faultKA = endFaults.length > 0 ? Math.max(...endFaults.map((f) => f.ik3kA)) : 0;
     const neededMm2 = minimumCrossSectionMm2(faultKA * 1000, options.clearingTimeS, candidate.material);
     tests.push({
@@ -144,7 +166,7 @@ export function sizeConductor(network: Network, lineId: string, candidates: read
       reason: `${round(faultKA, 2)} kA for ${options.clearingTimeS} s needs ${round(neededMm2, 0)} mm²; it has ${candidate.crossSectionMm2} mm²`,
     });
 
-    const losses = lossMoney(branch.lossKW / 1000, 0, money);
+    const losses = lossMoney(branches.reduce((sum, b) => sum + b.lossKW, 0) / 1000, 0, money);
     return {
       candidateId: candidate.id,
       label: candidate.label,
@@ -159,5 +181,5 @@ export function sizeConductor(network: Network, lineId: string, candidates: read
   });
 
   const passing = verdicts.filter((v) => v.passes && v.lifetimeCost !== null).sort((a, b) => a.lifetimeCost! - b.lifetimeCost!);
-  return { ok: true, lineId, verdicts, cheapestPassing: passing[0]?.candidateId ?? null };
+  return { ok: true, lineId: lineIds[0], lineIds, verdicts, cheapestPassing: passing[0]?.candidateId ?? null };
 }

@@ -152,7 +152,8 @@ export interface CapitalCost {
 
 export interface CapitalScope {
   voltageKV: number;
-  lines: readonly { id: string; kind: "overhead" | "cable"; lengthKm: number }[];
+  /** `costPerKm`: the line's conductor priced by size (conductor sizing), used unless the planner entered one. */
+  lines: readonly { id: string; kind: "overhead" | "cable"; lengthKm: number; costPerKm?: number }[];
   transformers: readonly { id: string; ratedMVA: number; hvKV: number }[];
 }
 
@@ -166,7 +167,7 @@ export function capitalCost(scope: CapitalScope, money: MoneyInput, override: Ca
     const entered = override.lineCostPerKm !== undefined;
     const costPerKm = entered
       ? override.lineCostPerKm!
-      : costAtVoltage(money.lineCostPerKmByKV, scope.voltageKV) * (line.kind === "cable" ? money.cableCostFactor : 1);
+      : (line.costPerKm ?? costAtVoltage(money.lineCostPerKmByKV, scope.voltageKV) * (line.kind === "cable" ? money.cableCostFactor : 1));
     return { id: line.id, lengthKm: line.lengthKm, costPerKm, cost: costPerKm * line.lengthKm, basis: entered ? "entered" : "table" } as const;
   });
   const transformers = scope.transformers.map((t) => {

@@ -21,6 +21,7 @@ import type { Check, CheckKind, FaultBusReading, SolveResult } from "#solver/res
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { findSection, type Section } from "#solver/section.ts";
 import { recommend } from "#solver/ladderRecommendation.ts";
+import { conductorCostPerKm, sizeConductor, type SizingCandidate, type SizingVerdict } from "#solver/conductorSizing.ts";
 import { runStudySync, type Energy, type Study, type StudyCheck } from "#solver/study/index.ts";
 
 export { findSection, type Section, type FacingWinding } from "#solver/section.ts";
@@ -47,11 +48,42 @@ export const ladderRequestSchema = z.strictObject({
   overrides: z.array(alternativeOverridesSchema.nullable()).optional(),
   /** Also take each line and transformer out in turn in every case: an alternative must hold N-1 too. */
   outages: z.boolean().optional(),
+  /**
+   * Size the section's conductor for every alternative: the library type (of the section's own
+   * construction) that carries the load, keeps the buses beyond in their band and withstands the
+   * fault for the clearing time, at least lifetime cost. An alternative given its own conductor keeps it.
+   */
+  sizing: z
+    .strictObject({
+      clearingTimeS: z
+        .number()
+        .finite("must be a finite time")
+        .positive("must be a time above 0 s")
+        .max(10, "is above 10 s; enter the protection's clearing time in seconds (0.5, not 500)"),
+    })
+    .optional(),
 });
 export type LadderRequest = z.input<typeof ladderRequestSchema>;
+type LadderRequestOutput = z.output<typeof ladderRequestSchema>;
+
+/** The conductor the ladder chose for an alternative's section, and why. */
+export interface AlternativeSizing {
+  clearingTimeS: number;
+  /** The library type put on every line of the section; null when none passes or the alternative has its own. */
+  chosen: (SizingVerdict & { costPerKm: number }) | null;
+  /** Every candidate at this voltage with its verdict, cheapest over its life first. */
+  verdicts: SizingVerdict[];
+  /** Why this one: a sentence for the planner. */
+  note: string;
+}
+
+/** The library's conductors for sizing at a nominal voltage (cables are made for one voltage), at the network's frequency. */
+export type ConductorLibrary = (nominalKV: number, frequencyHz: 50 | 60) => SizingCandidate[];
 
 export interface LadderAlternative {
   voltageKV: number;
+  /** The section's conductor chosen by sizing (when the request asks for it), with the reasons. */
+  sizing: AlternativeSizing | null;
   /** The candidate's IEC 60038 entry; null for a voltage entered freely that is not on the list. */
   standard: StandardVoltage | null;
   converged: boolean;
@@ -149,7 +181,12 @@ export interface LadderProgress {
  * Run the ladder on an untrusted network document and request; every problem comes back named, none thrown.
  * `onProgress`, when given, hears of every load flow of every alternative's study.
  */
-export function runLadder(document: unknown, requestInput: unknown, onProgress?: (progress: LadderProgress) => void): LadderOutcome {
+export function runLadder(
+  document: unknown,
+  requestInput: unknown,
+  onProgress?: (progress: LadderProgress) => void,
+  conductors?: ConductorLibrary,
+): LadderOutcome {
   const validated = validateNetwork(document);
   if (!validated.ok)
     return { ok: false, issues: validated.issues.map((i) => ({ path: i.path ? `network.${i.path}` : "network", message: i.message })) };
@@ -165,8 +202,20 @@ export function runLadder(document: unknown, requestInput: unknown, onProgress?:
   if (!section) issues.push({ path: "sectionBus", message: `there is no bus "${request.sectionBus}" in the network` });
   if (issues.length > 0 || !section) return { ok: false, issues };
 
+  if (request.sizing && !conductors) issues.push({ path: "sizing", message: "sizing the conductor needs the equipment library, which this caller did not give" });
+  if (request.sizing && section.lineIds.length === 0)
+    issues.push({ path: "sizing", message: "the section has no line or cable to size" });
+  if (issues.length > 0) return { ok: false, issues };
+
+  const sizings: (AlternativeSizing | null)[] = request.voltagesKV.map(() => null);
   const derived = request.voltagesKV.map((voltageKV, i) => {
-    const result = deriveAlternative(network, section, voltageKV, request.overrides?.[i] ?? {});
+    let overrides = request.overrides?.[i] ?? {};
+    if (request.sizing && conductors) {
+      const sized = sizeSection(network, section, voltageKV, overrides, request.sizing.clearingTimeS, request.money, conductors);
+      sizings[i] = sized.sizing;
+      overrides = sized.overrides;
+    }
+    const result = deriveAlternative(network, section, voltageKV, overrides);
     if (!result.ok)
       issues.push(
         ...result.issues.map((issue) =>
@@ -201,7 +250,7 @@ export function runLadder(document: unknown, requestInput: unknown, onProgress?:
   if (issues.length > 0) return { ok: false, issues };
 
   const alternatives = solved.map((outcome, i) =>
-    describeAlternative(request.voltagesKV[i], section, outcome!.network, outcome!.result, studies[i]!, request.money, request.overrides?.[i]?.capital),
+    describeAlternative(request.voltagesKV[i], section, outcome!.network, outcome!.result, studies[i]!, request.money, request.overrides?.[i]?.capital, sizings[i]),
   );
 
   const referenceIndex = alternatives.reduce<number | null>(
@@ -256,13 +305,14 @@ function describeAlternative(
   study: Study,
   money: MoneyInput,
   capitalOverride: CapitalOverride | undefined,
+  sizing: AlternativeSizing | null,
 ): LadderAlternative {
   const sectionLines = new Set(section.lineIds);
   const facing = new Set(section.facingWindings.map((w) => w.transformerId));
   const capital = capitalCost(
     {
       voltageKV,
-      lines: network.lines.filter((l) => sectionLines.has(l.id)),
+      lines: network.lines.filter((l) => sectionLines.has(l.id)).map((l) => (sizing?.chosen ? { ...l, costPerKm: sizing.chosen.costPerKm } : l)),
       transformers: network.transformers.filter((t) => facing.has(t.id)),
     },
     money,
@@ -286,6 +336,7 @@ function describeAlternative(
     };
   });
   const common = {
+    sizing,
     cases,
     studyChecks,
     energy: study.energy,
@@ -360,4 +411,65 @@ function casesSentence(study: Study, studyChecks: readonly StudyCheck[]): string
   const first = studyChecks[0];
   const name = study.cases.find((c) => c.id === first.case)?.name ?? first.case;
   return `${studyChecks.length} limit${studyChecks.length > 1 ? "s" : ""} broken across ${scope}, first in "${name}" (${first.element}, ${first.kind})`;
+}
+
+/**
+ * The section's conductor at one candidate voltage: the alternative derived as asked, every
+ * library type of the section's construction sized on it (conductorSizing.ts, the sheet's own
+ * sizing), and the cheapest over its life that passes put on every section line through the
+ * alternative's conductor override. A conductor the planner gave for this alternative is kept.
+ */
+function sizeSection(
+  network: Network,
+  section: Section,
+  voltageKV: number,
+  overrides: NonNullable<LadderRequestOutput["overrides"]>[number] & object,
+  clearingTimeS: number,
+  money: MoneyInput,
+  conductors: ConductorLibrary,
+): { sizing: AlternativeSizing; overrides: typeof overrides } {
+  const none = (note: string, verdicts: SizingVerdict[] = []) => ({ sizing: { clearingTimeS, chosen: null, verdicts, note }, overrides });
+  if (overrides.conductor) return none(`The conductor entered for this alternative${overrides.conductor.name ? ` (${overrides.conductor.name})` : ""} is kept; it was not sized.`);
+  const derived = deriveAlternative(network, section, voltageKV, overrides);
+  if (!derived.ok) return none("Not sized: the alternative itself does not validate (see its problems).");
+  const sectionLines = derived.network.lines.filter((l) => section.lineIds.includes(l.id));
+  const kinds = new Set(sectionLines.map((l) => l.kind));
+  const construction = kinds.size > 1 ? "conductor" : kinds.has("cable") ? "cable" : "overhead conductor";
+  const candidates = conductors(voltageKV, network.frequencyHz).filter((c) => kinds.has(c.kind));
+  if (candidates.length === 0) return none(`No library ${construction} for ${voltageKV} kV says its material and cross-section; the drawn conductor is kept.`);
+  const outcome = sizeConductor(derived.network, section.lineIds, candidates, { clearingTimeS, money });
+  if (!outcome.ok) return none(`Not sized: ${outcome.message}`);
+  const byLifetime = [...outcome.verdicts].sort((a, b) => (a.lifetimeCost ?? Infinity) - (b.lifetimeCost ?? Infinity));
+  const chosenVerdict = byLifetime.find((v) => v.candidateId === outcome.cheapestPassing);
+  if (!chosenVerdict) {
+    const reasons = byLifetime.slice(0, 3).map((v) => `${v.label} (${failedTests(v)})`).join("; ");
+    return none(`None of the ${candidates.length} library ${construction}s passes at ${voltageKV} kV, so the drawn conductor is kept; cheapest over their life: ${reasons}.`, byLifetime);
+  }
+  const candidate = candidates.find((c) => c.id === chosenVerdict.candidateId)!;
+  const cheaperFailing = byLifetime.filter((v) => v !== chosenVerdict && v.lifetimeCost !== null && v.lifetimeCost < chosenVerdict.lifetimeCost!);
+  const passesText = chosenVerdict.tests.map((t) => t.reason).join("; ");
+  const note =
+    `${chosenVerdict.label}: the cheapest over its life of the ${candidates.length} library ${construction}s that pass at ${voltageKV} kV (${passesText})` +
+    (cheaperFailing.length === 0 ? "." : `; cheaper over their life but failing: ${cheaperFailing.map((v) => `${v.label} (${failedTests(v)})`).join("; ")}.`);
+  return {
+    sizing: { clearingTimeS, chosen: { ...chosenVerdict, costPerKm: conductorCostPerKm(candidate, voltageKV, money) }, verdicts: byLifetime, note },
+    overrides: {
+      ...overrides,
+      conductor: {
+        name: candidate.label,
+        rOhmPerKm: candidate.rOhmPerKm,
+        xOhmPerKm: candidate.xOhmPerKm,
+        ...(candidate.bMicroSiemensPerKm === undefined ? {} : { bMicroSiemensPerKm: candidate.bMicroSiemensPerKm }),
+        ampacityA: candidate.ampacityA,
+      },
+    },
+  };
+}
+
+/** The tests a candidate failed, in a few words each. */
+function failedTests(verdict: SizingVerdict): string {
+  return verdict.tests
+    .filter((t) => !t.passes)
+    .map((t) => (t.test === "solve" ? "the network cannot carry its load with it" : `${t.test}: ${t.reason}`))
+    .join("; ");
 }

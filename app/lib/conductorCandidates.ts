@@ -2,8 +2,9 @@
 // and the cables made for the line's voltage, each at the network's frequency. Types that do not
 // say their material and cross-section cannot be checked for fault withstand and are left out.
 import type { SizingCandidate } from "#solver/conductorSizing.ts";
+import type { ConductorLibrary } from "#solver/ladder.ts";
 import type { Line } from "#solver/schema.ts";
-import { conductorAtFrequency, type ConductorType } from "./equipmentLibrary.ts";
+import { builtInConductorTypes, conductorAtFrequency, type ConductorType } from "./equipmentLibrary.ts";
 
 export function sizingCandidates(types: readonly ConductorType[], nominalKV: number, frequencyHz: 50 | 60): SizingCandidate[] {
   return types.flatMap((type) => {
@@ -30,3 +31,6 @@ export function sizingCandidates(types: readonly ConductorType[], nominalKV: num
 export function lineNominalKV(line: Line, buses: readonly { id: string; nominalKV: number }[]): number {
   return buses.find((b) => b.id === line.fromBus)?.nominalKV ?? buses.find((b) => b.id === line.toBus)?.nominalKV ?? 0;
 }
+
+/** The built-in library as the voltage ladder sizes each alternative's section from it. */
+export const builtInLadderConductors: ConductorLibrary = (nominalKV, frequencyHz) => sizingCandidates(builtInConductorTypes, nominalKV, frequencyHz);

@@ -64,6 +64,7 @@ export async function savedLadderStudy(db: Db, networkId: number): Promise<{ stu
     voltagesKV: stored.voltagesKV,
     money: stored.money,
     ...(stored.overrides ? { overrides: stored.overrides } : {}),
+    ...(stored.sizing ? { sizing: stored.sizing } : {}),
   };
   if (!ladderRequestSchema.safeParse(request).success) return { study: null, unreadable: true };
   return {
@@ -94,6 +95,7 @@ async function storeLadderStudy(
       voltagesKV: parsed.voltagesKV,
       overrides: parsed.overrides ?? null,
       money: parsed.money,
+      sizing: parsed.sizing ?? null,
       networkRevision: network.current_revision,
       userId,
     });

@@ -9,6 +9,7 @@ import * as sharingAndReview from "./2026-12-11-01-sharing-and-review.ts";
 import * as verifiedAddresses from "./2026-12-12-01-verified-addresses.ts";
 import * as guestReviewNotes from "./2026-12-13-01-guest-review-notes.ts";
 import * as draftsAndEditingSessions from "./2026-12-13-02-drafts-and-editing-sessions.ts";
+import * as ladderConductorSizing from "./2026-12-14-01-ladder-conductor-sizing.ts";
 
 export const migrations: Record<string, Migration> = {
   "2026-12-01-01-accounts-and-teams": accountsAndTeams,
@@ -19,6 +20,7 @@ export const migrations: Record<string, Migration> = {
   "2026-12-12-01-verified-addresses": verifiedAddresses,
   "2026-12-13-01-guest-review-notes": guestReviewNotes,
   "2026-12-13-02-drafts-and-editing-sessions": draftsAndEditingSessions,
+  "2026-12-14-01-ladder-conductor-sizing": ladderConductorSizing,
 };
 
 export const migrationProvider: MigrationProvider = {

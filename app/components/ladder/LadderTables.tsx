@@ -83,6 +83,7 @@ export function LadderComparison({ ladder, network, caption }: { ladder: Ladder;
         },
       ],
     },
+    ...sizingGroup(ladder),
     ...ladder.section.endBusIds.map((endId) => {
       const bus = network.buses.find((b) => b.id === endId);
       const at = (a: LadderAlternative) => a.faults.find((f) => f.id === endId);
@@ -176,7 +177,35 @@ export function LadderComparison({ ladder, network, caption }: { ladder: Ladder;
 
 function capitalBasis(a: LadderAlternative): string {
   const entered = [...a.money.capital.lines, ...a.money.capital.transformers].some((item) => item.basis === "entered");
-  return entered ? "partly entered" : "from unit costs";
+  if (entered) return "partly entered";
+  return a.sizing?.chosen && !a.money.capital.entered ? "from unit costs, line by its sized conductor" : "from unit costs";
+}
+
+/** The section's conductor as sizing chose it for each alternative, and why (only when the ladder sized it). */
+function sizingGroup(ladder: Ladder): Group[] {
+  const sized = ladder.alternatives.find((a) => a.sizing);
+  if (!sized?.sizing) return [];
+  return [
+    {
+      title: (
+        <>
+          Section conductor <span className="unit">(sized from the library for a fault cleared in {fixed(sized.sizing.clearingTimeS, 2)} s)</span>
+        </>
+      ),
+      rows: [
+        {
+          label: "Conductor",
+          text: true,
+          cell: (a) => (a.sizing?.chosen ? <strong>{a.sizing.chosen.label}</strong> : a.sizing ? "as drawn (none chosen)" : "–"),
+        },
+        {
+          label: "Library types that pass",
+          cell: (a) => (a.sizing && a.sizing.verdicts.length > 0 ? `${a.sizing.verdicts.filter((v) => v.passes).length} of ${a.sizing.verdicts.length}` : "–"),
+        },
+        { label: "Why this one", text: true, cell: (a) => <span className="ks-ladder-sentence">{a.sizing?.note ?? "–"}</span> },
+      ],
+    },
+  ];
 }
 
 export function SensitivityTable({ ladder }: { ladder: Ladder }) {

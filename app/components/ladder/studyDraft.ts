@@ -42,7 +42,16 @@ export interface StudyDraft {
   money: MoneyDraft;
   /** An alternative must also keep every limit with any one line or transformer out (N-1), in every case. */
   outages: boolean;
+  /** Size the section's conductor from the library for each alternative, for a fault cleared in this time. */
+  sizing: SizingDraft;
 }
+
+export interface SizingDraft {
+  on: boolean;
+  clearingTimeS: string;
+}
+
+export const DEFAULT_SIZING: SizingDraft = { on: false, clearingTimeS: "0.5" };
 
 export const SAVED_CONDUCTOR = "saved";
 
@@ -87,10 +96,10 @@ export function defaultVoltagesKV(presentKV: number, frequencyHz: 50 | 60): numb
   return offered.slice(Math.max(0, at - 1), at + 2);
 }
 
-export function draftForSection(network: Network, sectionBus: string, money: MoneyDraft = moneyDraftOf({}), outages = false): StudyDraft {
+export function draftForSection(network: Network, sectionBus: string, money: MoneyDraft = moneyDraftOf({}), outages = false, sizing: SizingDraft = DEFAULT_SIZING): StudyDraft {
   const section = findSection(network, sectionBus);
   const voltagesKV = section ? defaultVoltagesKV(section.nominalKV, network.frequencyHz) : [];
-  return { sectionBus, voltagesKV, alternatives: Object.fromEntries(voltagesKV.map((kv) => [voltageKey(kv), emptyAlternative()])), money, outages };
+  return { sectionBus, voltagesKV, alternatives: Object.fromEntries(voltagesKV.map((kv) => [voltageKey(kv), emptyAlternative()])), money, outages, sizing };
 }
 
 /**
@@ -142,6 +151,7 @@ export function draftFromRequest(network: Network, request: LadderRequest): Stud
     alternatives,
     money: moneyDraftOf(request.money),
     outages: request.outages === true,
+    sizing: request.sizing ? { on: true, clearingTimeS: String(request.sizing.clearingTimeS) } : DEFAULT_SIZING,
   };
 }
 
@@ -153,7 +163,7 @@ function sameConductor(a: Conductor, b: Conductor): boolean {
 export function moveToSection(draft: StudyDraft, network: Network, sectionBus: string): StudyDraft {
   const now = findSection(network, draft.sectionBus);
   if (now?.busIds.includes(sectionBus)) return { ...draft, sectionBus };
-  return draftForSection(network, sectionBus, draft.money, draft.outages);
+  return draftForSection(network, sectionBus, draft.money, draft.outages, draft.sizing);
 }
 
 export function toggleVoltage(draft: StudyDraft, voltageKV: number): StudyDraft {
@@ -238,12 +248,15 @@ export function requestFromDraft(draft: StudyDraft, network: Network): { request
     return Object.keys(o).length > 0 ? o : null;
   });
 
+  const clearingTimeS = draft.sizing.on ? number("sizing.clearingTimeS", draft.sizing.clearingTimeS) : undefined;
+  if (draft.sizing.on && draft.sizing.clearingTimeS.trim() === "") errors["sizing.clearingTimeS"] = "is required";
   const request: LadderRequest = {
     sectionBus: draft.sectionBus,
     voltagesKV: draft.voltagesKV,
     money: money as LadderRequest["money"],
     ...(overrides.some((o) => o !== null) ? { overrides } : {}),
     ...(draft.outages ? { outages: true } : {}),
+    ...(draft.sizing.on ? { sizing: { clearingTimeS: clearingTimeS ?? Number.NaN } } : {}),
   };
   const checked = ladderRequestSchema.safeParse(request, { error: inputMessage });
   if (!checked.success) for (const issue of zodIssues(checked.error)) errors[issue.path] ??= issue.message;

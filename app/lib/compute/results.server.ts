@@ -100,10 +100,15 @@ export function payFor(actor: Actor, cost: number): void {
   pay(payerOf(actor), cost);
 }
 
-/** A ladder's units: one solve per candidate voltage (at most MAX_ALTERNATIVES are accepted). */
+/**
+ * A ladder's units: one solve per candidate voltage (at most MAX_ALTERNATIVES are accepted), twice
+ * that when it sizes the section's conductor (a solve per library type of the section's
+ * construction, each a fraction of the alternative's own study).
+ */
 function ladderBusCost(buses: number, request: unknown): number {
   const voltages = (request as { voltagesKV?: unknown[] } | null)?.voltagesKV?.length ?? 1;
-  return solveCost(buses) * Math.max(1, Math.min(voltages, 12));
+  const sizing = (request as { sizing?: unknown } | null)?.sizing ? 2 : 1;
+  return solveCost(buses) * Math.max(1, Math.min(voltages, 12)) * sizing;
 }
 
 /**

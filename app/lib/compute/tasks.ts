@@ -12,6 +12,7 @@ import type { JobProgress } from "./jobView.ts";
 import { runLadder, type LadderOutcome, type LadderProgress } from "#solver/ladder.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { runStudySync, type StudyOutcome, type StudyProgress } from "#solver/study/index.ts";
+import { builtInLadderConductors } from "../conductorCandidates.ts";
 
 /**
  * A stored revision as it is stored: its JSON text, parsed in the worker (not on the request
@@ -143,7 +144,7 @@ export function fromKeptTask(kept: Uint8Array, want: KeptProduct): FromKept {
 }
 
 export function ladderTask(document: unknown, request: unknown, onProgress?: (step: LadderProgress) => void): LadderOutcome {
-  return runLadder(document, request, onProgress);
+  return runLadder(document, request, onProgress, builtInLadderConductors);
 }
 
 /**
@@ -152,7 +153,7 @@ export function ladderTask(document: unknown, request: unknown, onProgress?: (st
  */
 export function reportTask(solved: Extract<SolveOutcome, { ok: true }>, study: unknown | null): ReportData {
   const { network, result } = solved;
-  const ladder = study === null ? null : runLadder(network, study);
+  const ladder = study === null ? null : runLadder(network, study, undefined, builtInLadderConductors);
   const drawing = network.buses.length <= DRAWING_MAX_BUSES ? layoutSingleLine(network) : null;
   const section = ladder?.ok ? ladder.ladder.section : null;
   const part = reportPart(network, result, { alsoBuses: section ? [...section.busIds, ...section.endBusIds] : [] });

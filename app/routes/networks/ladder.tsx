@@ -27,6 +27,7 @@ import {
 import { VoltageChips } from "#app/components/ladder/VoltageChips.tsx";
 import { chainEnds } from "#solver/topology.ts";
 import { Notice } from "#app/components/Notice.tsx";
+import { FormField } from "#app/components/FormField.tsx";
 import { PageTitle } from "#app/components/PageTitle.tsx";
 import { requireNetwork } from "#app/lib/access.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
@@ -284,6 +285,7 @@ function LadderStudy() {
             Every alternative re-rates the section's buses and the windings facing it. Change the conductor, the taps or the capital cost
             where an alternative needs it; an empty field keeps the drawn value or the estimate shown.
           </p>
+          <SizingOption draft={draft} error={errors["sizing.clearingTimeS"]} onChange={(sizing) => update({ ...draft, sizing })} />
           <AlternativeInputs
             network={network}
             section={section}
@@ -390,6 +392,32 @@ function LadderStudy() {
         </section>
       ) : null}
     </div>
+  );
+}
+
+/** Size the section's conductor for every alternative: the library type passing current, voltage and fault withstand at least lifetime cost. */
+function SizingOption({ draft, error, onChange }: { draft: StudyDraft; error: string | undefined; onChange: (sizing: StudyDraft["sizing"]) => void }) {
+  return (
+    <fieldset className="ks-ladder-sizing">
+      <legend className="sr-only">Conductor sizing</legend>
+      <label className="flex items-baseline gap-2">
+        <input type="checkbox" checked={draft.sizing.on} onChange={(event) => onChange({ ...draft.sizing, on: event.target.checked })} /> Size the
+        section's conductor for each voltage: the library type of its construction that carries the load, keeps every bus beyond it in its
+        band and withstands the fault (S ≥ I·√t / k), at least lifetime cost. An alternative given its own conductor below keeps it.
+      </label>
+      {draft.sizing.on ? (
+        <FormField
+          className="ks-ladder-sizing-time"
+          label="Fault clearing time, s"
+          name="sizingClearingTimeS"
+          inputMode="decimal"
+          hint="How long the protection takes to clear a fault on the section; the adiabatic withstand uses it."
+          value={draft.sizing.clearingTimeS}
+          error={error}
+          onChange={(event) => onChange({ ...draft.sizing, clearingTimeS: event.target.value })}
+        />
+      ) : null}
+    </fieldset>
   );
 }
 

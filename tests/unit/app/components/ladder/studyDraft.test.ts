@@ -177,3 +177,19 @@ describe("requiring N-1 in the ladder", () => {
     expect(moveToSection(n1, network, "b-town").outages).toBe(true);
   });
 });
+
+describe("sizing the section's conductor in the ladder", () => {
+  it("asks for sizing only when ticked, reads the clearing time, names a wrong one and keeps the choice through a saved request and a move", () => {
+    const plain = draftForSection(network, "b-calder-66");
+    expect(plain.sizing).toEqual({ on: false, clearingTimeS: "0.5" });
+    expect(requestFromDraft(plain, network).request).not.toHaveProperty("sizing");
+    const sized = { ...plain, sizing: { on: true, clearingTimeS: "0.8" } };
+    const { request, errors } = requestFromDraft(sized, network);
+    expect(errors).toEqual({});
+    expect(request.sizing).toEqual({ clearingTimeS: 0.8 });
+    expect(draftFromRequest(network, request).sizing).toEqual({ on: true, clearingTimeS: "0.8" });
+    expect(moveToSection(sized, network, "b-town").sizing).toEqual(sized.sizing);
+    expect(requestFromDraft({ ...plain, sizing: { on: true, clearingTimeS: "half" } }, network).errors["sizing.clearingTimeS"]).toBe('"half" is not a number');
+    expect(requestFromDraft({ ...plain, sizing: { on: true, clearingTimeS: "0" } }, network).errors["sizing.clearingTimeS"]).toBe("must be a time above 0 s");
+  });
+});

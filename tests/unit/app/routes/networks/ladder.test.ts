@@ -127,6 +127,22 @@ describe("the ladder page", () => {
     const current = (await pageGet(cookies.editor)).body.saved.updatedAt;
     expect((await pagePost({ intent: "save", request: study, basedOn: current }, cookies.editor)).status).toBe(200);
   });
+
+  it("keeps a study that sizes the section's conductor, and the saved ladder says which conductor each alternative got", async () => {
+    const basedOn = (await pageGet(cookies.editor)).body.saved?.updatedAt ?? null;
+    const sizing = { clearingTimeS: 0.5 };
+    expect((await pagePost({ intent: "save", request: { ...study, sizing }, basedOn }, cookies.editor)).status).toBe(200);
+    const again = await pageGet(cookies.viewer);
+    expect(again.body.saved.request.sizing).toEqual(sizing);
+    const chosen = again.body.savedLadder.alternatives.map((a: { sizing: { chosen: { label: string } | null } | null }) => a.sizing?.chosen?.label ?? null);
+    expect(chosen[0]).toBeNull();
+    expect(chosen[1]).toMatch(/^ACSR /);
+    const rows = await (await getDb()).selectFrom("ladder_studies").select(["sizing"]).where("network_id", "=", networkId).execute();
+    expect(rows).toEqual([{ sizing: JSON.stringify(sizing) }]);
+    const back = (await pageGet(cookies.editor)).body.saved.updatedAt;
+    expect((await pagePost({ intent: "save", request: study, basedOn: back }, cookies.editor)).status).toBe(200);
+    expect((await pageGet(cookies.viewer)).body.saved.request).not.toHaveProperty("sizing");
+  });
 });
 
 describe("the ladder as a job", () => {
