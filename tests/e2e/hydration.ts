@@ -6,6 +6,8 @@ import type { Page } from "@playwright/test";
 declare global {
   interface Window {
     __kilostepCommits?: number;
+    /** A test's own look at the page after each commit (see the sheet's one-render-per-edit test). */
+    __kilostepOnCommit?: () => void;
   }
 }
 
@@ -19,6 +21,7 @@ export async function countReactCommits(page: Page) {
         checkDCE: () => {},
         onCommitFiberRoot: () => {
           window.__kilostepCommits = (window.__kilostepCommits ?? 0) + 1;
+          window.__kilostepOnCommit?.();
         },
         onCommitFiberUnmount: () => {},
         onPostCommitFiberRoot: () => {},

@@ -5,6 +5,7 @@ import { expect, test, type Page, type TestInfo } from "@playwright/test";
 import { solveNetwork } from "../../solver/index.ts";
 import { readingNumber } from "../../app/lib/format.ts";
 import { signIn } from "./accounts.ts";
+import { countReactCommits } from "./hydration.ts";
 
 function failOnConsoleErrors(page: Page) {
   const errors: string[] = [];
@@ -170,8 +171,9 @@ test("an editor draws the hydro chain from a blank sheet with the UI only; the l
   noErrors();
 });
 
-test("editing a load changes the readings, undo brings them back, and both are saved", async ({ page }, testInfo) => {
+test("editing a load changes the readings in one render, undo brings them back, and both are saved", async ({ page }, testInfo) => {
   const noErrors = failOnConsoleErrors(page);
+  await countReactCommits(page);
   await signIn(page, "editor");
   await openNetwork(page, "Hollin Moor solar export (fictional)");
   await waitSaved(page);
@@ -179,8 +181,23 @@ test("editing a load changes the readings, undo brings them back, and both are s
   const before = await busReadingKV(page, "b-hollin-132");
 
   await page.locator('.react-flow__node[data-id="ld-aux"]').click();
+  // One render per edit: the first commit after Enter already draws the new Readings (the solve
+  // runs in the edit's own store update, with no debounce and no second render for the numbers).
+  await page.evaluate(() => {
+    const readings = () => document.querySelector('.react-flow__node[data-id="b-hollin-132"] .ks-readings')?.textContent ?? "";
+    const seen: { before: string; commits: string[] } = { before: "", commits: [] };
+    (window as unknown as { __edit: typeof seen }).__edit = seen;
+    document.addEventListener("keydown", (event) => {
+      if (event.key !== "Enter") return;
+      seen.before = readings();
+      window.__kilostepOnCommit = () => seen.commits.push(readings());
+    }, { capture: true, once: true });
+  });
   await setField(page, "Active power P", "25 MW");
   await expect.poll(() => busReadingKV(page, "b-hollin-132")).not.toBe(before);
+  const edit = await page.evaluate(() => (window as unknown as { __edit: { before: string; commits: string[] } }).__edit);
+  expect(edit.commits.length).toBeGreaterThan(0);
+  expect(edit.commits[0]).not.toBe(edit.before);
   await waitSaved(page);
   // The edit starts the next revision, or folds into this one when the same person's editing
   // session (an earlier test's, within 30 minutes) is still open.

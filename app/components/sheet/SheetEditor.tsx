@@ -25,7 +25,6 @@ import { createSheetStore, EDIT_MARK, SheetStoreContext, useSheet, useSheetStore
 import { SheetToolbar } from "./SheetToolbar.tsx";
 import { ShortcutHelp } from "./ShortcutHelp.tsx";
 import { afterNextPaint, useSheetShortcuts, type ShortcutHandlers } from "./shortcuts.ts";
-import { loadUnitParser } from "./unitParser.ts";
 
 export interface SheetEditorProps {
   networkId: string | number;
@@ -86,7 +85,6 @@ function EditorLayout({
 }) {
   const store = useSheetStoreApi();
   const readOnly = useSheet((s) => s.readOnly);
-  const solve = useSheet((s) => s.solve);
   const rootRef = useRef<HTMLDivElement>(null);
   const canvasRef = useRef<HTMLDivElement>(null);
   const saver = useRef<Autosave | null>(null);
@@ -114,22 +112,29 @@ function EditorLayout({
       store.temporal.getState().resume();
     }
     if (store.getState().readOnly) return;
-    void loadUnitParser();
     if (env.storage) setDraft(draftToOffer(readDraft(env.storage, networkId), { revision: savedRevision, document }));
     saver.current = startAutosave(store, env);
     return () => saver.current?.stop();
   }, [store]);
 
+  // Measured after the browser has drawn the new Readings: what the planner waits for. Followed
+  // through the store, not a render of the editor: new Readings re-render only what shows them.
   useEffect(() => {
-    if (solve.kind === "pending") return;
-    // Measured after the browser has drawn the new Readings: what the planner waits for.
-    const frame = requestAnimationFrame(() => {
-      if (performance.getEntriesByName(EDIT_MARK, "mark").length === 0) return;
-      performance.measure(READINGS_MEASURE, EDIT_MARK);
-      performance.clearMarks(EDIT_MARK);
+    let frame = 0;
+    const unsubscribe = store.subscribe((state, previous) => {
+      if (state.solve === previous.solve || state.solve.kind === "pending") return;
+      cancelAnimationFrame(frame);
+      frame = requestAnimationFrame(() => {
+        if (performance.getEntriesByName(EDIT_MARK, "mark").length === 0) return;
+        performance.measure(READINGS_MEASURE, EDIT_MARK);
+        performance.clearMarks(EDIT_MARK);
+      });
     });
-    return () => cancelAnimationFrame(frame);
-  }, [solve]);
+    return () => {
+      cancelAnimationFrame(frame);
+      unsubscribe();
+    };
+  }, [store]);
 
   // While a fit moves the view the canvas carries data-view-moving, so that browser tests wait for
   // the view to come to rest instead of sleeping; it goes once the last step has been painted. Set

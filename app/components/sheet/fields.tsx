@@ -81,11 +81,11 @@ export function QuantityField({ label, unit, value, optional, hint, externalErro
   const inputId = useId();
   const [error, setError] = useState<string | undefined>();
   const { text, setText, fieldProps } = useSheetFieldText(numberText(value), () => setError(undefined));
-  const parseQuantity = useUnitParser();
+  const units = useUnitParser();
 
   useEffect(() => setError(undefined), [value]);
 
-  const live = parseQuantity && text.trim() && text.trim() !== numberText(value) ? parseQuantity(text, unit) : undefined;
+  const live = units.parse && text.trim() && text.trim() !== numberText(value) ? units.parse(text, unit) : undefined;
 
   const commit = () => {
     const trimmed = text.trim();
@@ -102,18 +102,17 @@ export function QuantityField({ label, unit, value, optional, hint, externalErro
       setError(refused);
       return;
     }
-    if (!parseQuantity) {
-      setError("cannot be read yet: the unit reader is still loading, press Enter again in a moment");
-      return;
-    }
-    const parsed = parseQuantity(trimmed, unit);
-    if (!parsed.ok) {
-      setError(parsed.error);
-      return;
-    }
-    const refused = onCommit(parsed.value);
-    setError(refused);
-    if (!refused) setText(numberText(parsed.value));
+    // The reader is fetched on the field's first focus; a value committed before it arrives is read when it does.
+    units.whenReady((parseQuantity) => {
+      const parsed = parseQuantity(trimmed, unit);
+      if (!parsed.ok) {
+        setError(parsed.error);
+        return;
+      }
+      const refused = onCommit(parsed.value);
+      setError(refused);
+      if (!refused) setText(numberText(parsed.value));
+    });
   };
 
   const onKeyDown = (event: KeyboardEvent<HTMLInputElement>) => {
@@ -148,6 +147,7 @@ export function QuantityField({ label, unit, value, optional, hint, externalErro
           aria-invalid={shownError ? true : undefined}
           aria-describedby={describedBy}
           {...fieldProps}
+          onFocus={units.want}
           onBlur={commit}
           onChange={(event) => setText(event.target.value)}
           onKeyDown={onKeyDown}

@@ -8,9 +8,6 @@ import { documentIssues } from "./documentIssues.ts";
 import { solvablePart } from "./solvablePart.ts";
 import type { Readings, SheetStore, SolveState } from "./sheetStore.ts";
 
-/** Short: an edit should reach the Readings well inside 100 ms; it only coalesces bursts. */
-const SOLVE_DEBOUNCE_MS = 30;
-
 export const READINGS_MEASURE = "kilostep:edit-to-readings";
 
 /**
@@ -56,20 +53,18 @@ export function solveForSheet(document: Network): SolveState {
   return { kind: "solved", readings };
 }
 
-/** Re-solve whenever the document changes. */
+/**
+ * Re-solve whenever the document changes, at once and in the same store update's turn: every
+ * change of the document is a committed value (Enter, leaving a field, a drop, the end of a drag,
+ * an undo; typing and dragging stay outside the document until then), so there is nothing to wait
+ * for, and React draws the edit and its Readings in one render.
+ */
 export function useLiveSolve(store: SheetStore): void {
   useEffect(() => {
-    let timer: ReturnType<typeof setTimeout> | undefined;
     const run = () => store.getState().actions.setSolve(solveForSheet(store.getState().document));
     run();
-    const unsubscribe = store.subscribe((state, previous) => {
-      if (state.document === previous.document) return;
-      clearTimeout(timer);
-      timer = setTimeout(run, SOLVE_DEBOUNCE_MS);
+    return store.subscribe((state, previous) => {
+      if (state.document !== previous.document) run();
     });
-    return () => {
-      clearTimeout(timer);
-      unsubscribe();
-    };
   }, [store]);
 }

@@ -1,8 +1,9 @@
-// The unit reader (mathjs) loads after the sheet has appeared, not with it: it is the largest
-// library on the page and is needed only once someone types into Details.
-import { useEffect, useState } from "react";
+// The unit reader (mathjs) is the largest library on the page and is needed only once someone
+// types into a quantity field: it is fetched then (the field's first focus), not with the sheet.
+import { useCallback, useState } from "react";
 
 type Units = typeof import("#app/lib/units.ts");
+export type ParseQuantity = Units["parseQuantity"];
 
 let loaded: Units | undefined;
 let loading: Promise<Units> | undefined;
@@ -12,17 +13,19 @@ export function loadUnitParser(): Promise<Units> {
   return loading;
 }
 
-export function useUnitParser(): Units["parseQuantity"] | undefined {
-  const [parse, setParse] = useState<Units["parseQuantity"] | undefined>(() => loaded?.parseQuantity);
-  useEffect(() => {
-    if (parse) return;
-    let live = true;
+/**
+ * The reader once it is here (undefined before), and `want`, which fetches it: call it when a
+ * field is first used. `whenReady` runs a step now if the reader is here, or once it arrives.
+ */
+export function useUnitParser(): { parse: ParseQuantity | undefined; want: () => void; whenReady: (step: (parse: ParseQuantity) => void) => void } {
+  const [parse, setParse] = useState<ParseQuantity | undefined>(() => loaded?.parseQuantity);
+  const whenReady = useCallback((step: (parse: ParseQuantity) => void) => {
+    if (loaded) return step(loaded.parseQuantity);
     void loadUnitParser().then((units) => {
-      if (live) setParse(() => units.parseQuantity);
+      setParse(() => units.parseQuantity);
+      step(units.parseQuantity);
     });
-    return () => {
-      live = false;
-    };
-  }, [parse]);
-  return parse;
+  }, []);
+  const want = useCallback(() => whenReady(() => {}), [whenReady]);
+  return { parse: parse ?? loaded?.parseQuantity, want, whenReady };
 }
