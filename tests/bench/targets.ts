@@ -4,7 +4,8 @@
 //   the same on 100,000 buses: ≤ 300 ms median and ≤ 200 MB peak RSS (the whole process, document included)
 //   IEC 60909-0 fault levels at every bus of a 10,000-bus radial feeder: ≤ 100 ms median
 // The document handed to solveNetwork is untrusted JSON each time (a fresh parse of the same text),
-// as the API receives it, so validation does its whole work on every run.
+// as the API receives it, so validation does its whole work on every run. The parse itself is done
+// before the clock starts (the server has parsed the body already) and printed on its own.
 import { spawnSync } from "node:child_process";
 import { availableParallelism, loadavg } from "node:os";
 import { fileURLToPath } from "node:url";
@@ -20,14 +21,18 @@ interface Target {
   runs: number;
   targetMs: number;
   targetPeakMB?: number;
-  measure: (buses: number) => () => void;
+  /** Made once per target; each call gives one run's timed work, anything it needs parsed beforehand (not timed). */
+  measure: (buses: number) => () => () => void;
 }
 
 const solveFeeder = (buses: number) => {
   const text = JSON.stringify(syntheticFeeder(buses));
   return () => {
-    const outcome = solveNetwork(JSON.parse(text));
-    if (!outcome.ok || !outcome.result.loadFlow.converged || !outcome.result.faults) throw new Error("bench feeder did not solve");
+    const document: unknown = JSON.parse(text);
+    return () => {
+      const outcome = solveNetwork(document);
+      if (!outcome.ok || !outcome.result.loadFlow.converged || !outcome.result.faults) throw new Error("bench feeder did not solve");
+    };
   };
 };
 
@@ -42,14 +47,17 @@ const solveStored = (buses: number) => {
   // Stored as the validator's output, as every revision is.
   const text = JSON.stringify(checked.network);
   return () => {
-    const outcome = solveValidated(JSON.parse(text) as Network);
-    if (!outcome.ok || !outcome.result.loadFlow.converged || !outcome.result.faults) throw new Error("bench feeder did not solve");
+    const network = JSON.parse(text) as Network;
+    return () => {
+      const outcome = solveValidated(network);
+      if (!outcome.ok || !outcome.result.loadFlow.converged || !outcome.result.faults) throw new Error("bench feeder did not solve");
+    };
   };
 };
 
 const faultLevels = (buses: number) => {
   const network = radialFeeder(buses);
-  return () => {
+  return () => () => {
     if (computeFaultLevels(network).buses.length !== buses) throw new Error("fault bench: a bus is missing");
   };
 };
@@ -62,8 +70,10 @@ const TARGETS: Target[] = [
   { name: "a stored revision on the server (validated once when saved, then trusted)", buses: 100_000, runs: 7, targetMs: 300, targetPeakMB: 200, measure: solveStored },
 ];
 
-/** Measured in the child; JSON.parse of the text counts toward none of the times (the server has parsed the body already). */
+/** Measured in the child; JSON.parse of the text counts toward none of the times (the server has parsed the body already) but is printed. */
 interface Measurement {
+  /** The untimed preparation of one run: the JSON.parse of the document where there is one. */
+  medianParseMs: number;
   medianMs: number;
   fastestMs: number;
   /** CPU time of the process per run (user + system): steadier than wall time on a shared machine. */
@@ -72,11 +82,15 @@ interface Measurement {
 }
 
 function measure(target: Target): Measurement {
-  const run = target.measure(target.buses);
-  run();
+  const prepare = target.measure(target.buses);
+  prepare()();
   const times: number[] = [];
   const cpuTimes: number[] = [];
+  const parseTimes: number[] = [];
   for (let r = 0; r < target.runs; r++) {
+    const parseStarted = performance.now();
+    const run = prepare();
+    parseTimes.push(performance.now() - parseStarted);
     const cpuStarted = process.cpuUsage();
     const started = performance.now();
     run();
@@ -85,7 +99,13 @@ function measure(target: Target): Measurement {
     cpuTimes.push((cpu.user + cpu.system) / 1000);
   }
   const median = (values: number[]) => values.sort((a, b) => a - b)[Math.floor(values.length / 2)];
-  return { medianMs: median(times), fastestMs: times[0], medianCpuMs: median(cpuTimes), peakRssMB: process.resourceUsage().maxRSS / 1024 };
+  return {
+    medianMs: median(times),
+    fastestMs: times[0],
+    medianCpuMs: median(cpuTimes),
+    medianParseMs: median(parseTimes),
+    peakRssMB: process.resourceUsage().maxRSS / 1024,
+  };
 }
 
 function measureInChild(index: number): Measurement {
@@ -113,7 +133,8 @@ export const targetsBench: Bench = {
       const memory = t.targetPeakMB === undefined ? `peak RSS ${m.peakRssMB.toFixed(0)} MB` : `peak RSS ${m.peakRssMB.toFixed(0)} MB (target ≤ ${t.targetPeakMB} MB)`;
       console.log(
         `${t.name}, ${t.buses.toLocaleString("en-GB")} buses: median ${m.medianMs.toFixed(1)} ms, fastest ${m.fastestMs.toFixed(1)} ms, median CPU ${m.medianCpuMs.toFixed(1)} ms ` +
-          `over ${t.runs} runs (target ≤ ${t.targetMs} ms); ${memory}: ${timeOk && memoryOk ? "PASS" : "over"}`,
+          `over ${t.runs} runs (target ≤ ${t.targetMs} ms); ${memory}: ${timeOk && memoryOk ? "PASS" : "over"}` +
+          (m.medianParseMs >= 0.5 ? ` (JSON.parse of the document before each run, not in the times: median ${m.medianParseMs.toFixed(1)} ms)` : ""),
       );
     }
   },
