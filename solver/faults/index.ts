@@ -22,7 +22,7 @@ import {
 import { shortCircuitRatio } from "./minimumFault.ts";
 import type { DrivingPointImpedances, NodalNetwork } from "./nodalNetwork.ts";
 import { atFrequencyRatio, classifyPeakPaths, equivalentFrequencyRatio, kappaEquivalentFrequency } from "./peakMethods.ts";
-import { buildSequenceNetworks } from "./sequenceNetworks.ts";
+import { buildFaultCases } from "./sequenceNetworks.ts";
 import { drivingPointImpedances } from "./zbusDiagonal.ts";
 
 export { FaultModelError } from "./sequenceNetworks.ts";
@@ -57,8 +57,7 @@ function transferMagnitudes(network: NodalNetwork, z: DrivingPointImpedances, j:
 }
 
 export function computeFaultLevels(network: Network): FaultResult {
-  const model = buildSequenceNetworks(network);
-  const minimum = buildSequenceNetworks(network, "minimum");
+  const { maximum: model, minimum } = buildFaultCases(network);
   const analyses = new SymbolicCache();
   const z1 = drivingPointImpedances(model.positive, analyses);
   const z0 = drivingPointImpedances(model.zero, analyses);

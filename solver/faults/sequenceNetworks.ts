@@ -180,7 +180,12 @@ function addTransformerZeroSequence(
   }
 }
 
-export function buildSequenceNetworks(network: Network, faultCase: FaultCase = "maximum"): SequenceNetworks {
+/**
+ * Both IEC 60909-0 cases in one pass over the network: the maximum (c_max, each grid at
+ * shortCircuitMVA) and the minimum (c_min, each grid at shortCircuitMinMVA where given, line
+ * resistances at the end-of-fault temperature). Transformers and generators are the same in both.
+ */
+export function buildFaultCases(network: Network): Record<FaultCase, SequenceNetworks> {
   const { buses, baseMVA } = network;
   const index = busIndexOf(network);
   const busIndex = (busId: string, kind: string, elementId: string): number => {
@@ -189,19 +194,24 @@ export function buildSequenceNetworks(network: Network, faultCase: FaultCase = "
     return i;
   };
   const branchCount = network.lines.length + network.transformers.length;
+  const zeroShunts = network.sources.length + 2 * network.transformers.length;
   const positive = new NodalNetworkBuilder(buses.length, branchCount, network.sources.length);
-  const zero = new NodalNetworkBuilder(buses.length, branchCount, network.sources.length + 2 * network.transformers.length);
+  const zero = new NodalNetworkBuilder(buses.length, branchCount, zeroShunts);
+  const positiveMin = new NodalNetworkBuilder(buses.length, branchCount, network.sources.length);
+  const zeroMin = new NodalNetworkBuilder(buses.length, branchCount, zeroShunts);
 
+  const hot = endOfFaultResistanceFactor();
   for (const line of network.lines) {
     const from = busIndex(line.fromBus, "line", line.id);
     const to = busIndex(line.toBus, "line", line.id);
     const z1 = lineSeriesImpedancePu(line, buses[from], baseMVA);
     const ohmToPu = line.lengthKm / impedanceBaseOhm(buses[from].nominalKV, baseMVA);
-    const hot = faultCase === "minimum" ? endOfFaultResistanceFactor() : 1;
-    const r0 = (line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm) * ohmToPu * hot;
+    const r0 = (line.r0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.rOhmPerKm) * ohmToPu;
     const x0 = (line.x0OhmPerKm ?? LINE_Z0_OVER_Z1 * line.xOhmPerKm) * ohmToPu;
-    positive.branch(from, to, z1.r * hot, z1.x);
-    zero.branch(from, to, r0, x0);
+    positive.branch(from, to, z1.r * 1, z1.x);
+    zero.branch(from, to, r0 * 1, x0);
+    positiveMin.branch(from, to, z1.r * hot, z1.x);
+    zeroMin.branch(from, to, r0 * hot, x0);
   }
 
   const vectorGroupOf = vectorGroupReader();
@@ -209,8 +219,11 @@ export function buildSequenceNetworks(network: Network, faultCase: FaultCase = "
     const hv = busIndex(t.hvBus, "transformer", t.id);
     const lv = busIndex(t.lvBus, "transformer", t.id);
     const model = transformerModel(t, buses[hv], buses[lv], baseMVA);
+    const group = vectorGroupOf(t);
     positive.branch(hv, lv, model.zLvSide.re, model.zLvSide.im, model.ratio);
-    addTransformerZeroSequence(zero, t, vectorGroupOf(t), hv, lv, model);
+    positiveMin.branch(hv, lv, model.zLvSide.re, model.zLvSide.im, model.ratio);
+    addTransformerZeroSequence(zero, t, group, hv, lv, model);
+    addTransformerZeroSequence(zeroMin, t, group, hv, lv, model);
   }
 
   for (const source of network.sources) {
@@ -219,22 +232,30 @@ export function buildSequenceNetworks(network: Network, faultCase: FaultCase = "
     if (source.kind === "grid") {
       if (source.shortCircuitMVA === undefined)
         throw new FaultModelError(`grid infeed "${source.id}" has no shortCircuitMVA`);
-      const zQ = gridImpedancePu(source, buses[k], baseMVA, faultCase);
-      const z0 = scale(zQ, source.z0OverZ1 ?? DEFAULT_GRID_Z0_OVER_Z1);
+      const z0OverZ1 = source.z0OverZ1 ?? DEFAULT_GRID_Z0_OVER_Z1;
+      const zQ = gridImpedancePu(source, buses[k], baseMVA, "maximum");
+      const zQMin = gridImpedancePu(source, buses[k], baseMVA, "minimum");
       positive.shunt(k, zQ.re, zQ.im);
-      zero.shunt(k, z0.re, z0.im);
+      zero.shunt(k, zQ.re * z0OverZ1, zQ.im * z0OverZ1);
+      positiveMin.shunt(k, zQMin.re, zQMin.im);
+      zeroMin.shunt(k, zQMin.re * z0OverZ1, zQMin.im * z0OverZ1);
     } else {
       if (source.ratedMVA === undefined || source.xdSubtransientPct === undefined)
         throw new FaultModelError(`generator "${source.id}" needs ratedMVA and xdSubtransientPct`);
       const zG = generatorImpedancePu(source, buses[k], baseMVA);
       positive.shunt(k, zG.re, zG.im);
+      positiveMin.shunt(k, zG.re, zG.im);
     }
   }
 
+  const cMax = new Float64Array(buses.length);
+  const cMin = new Float64Array(buses.length);
+  for (let i = 0; i < buses.length; i++) {
+    cMax[i] = voltageFactorCMax(buses[i].nominalKV);
+    cMin[i] = voltageFactorCMin(buses[i].nominalKV);
+  }
   return {
-    buses,
-    c: Float64Array.from(buses, (b) => (faultCase === "minimum" ? voltageFactorCMin(b.nominalKV) : voltageFactorCMax(b.nominalKV))),
-    positive: positive.build(),
-    zero: zero.build(),
+    maximum: { buses, c: cMax, positive: positive.build(), zero: zero.build() },
+    minimum: { buses, c: cMin, positive: positiveMin.build(), zero: zeroMin.build() },
   };
 }
