@@ -58,6 +58,7 @@ export function equipmentRules(net: Network, add: Add): void {
       add(["transformers", i, "tapControl", "bus"], `${who} regulates bus "${t.tapControl.bus}", which does not exist`);
     const min = t.tapMinPct ?? -Infinity;
     const max = t.tapMaxPct ?? Infinity;
+    if (min >= max) add(["transformers", i, "tapMaxPct"], `${who}: its highest tap ${t.tapMaxPct} % must be above its lowest ${t.tapMinPct} % for the tap changer to regulate`);
     if (t.tapPct < min || t.tapPct > max)
       add(["transformers", i, "tapPct"], `${who}: its starting tap ${t.tapPct} % lies outside its range ${t.tapMinPct} to ${t.tapMaxPct} %`);
   });

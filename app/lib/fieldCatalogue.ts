@@ -51,6 +51,7 @@ export const FIELD_CATALOGUE = {
   tapMinPct: { label: "Lowest tap", quantity: "pct" },
   tapMaxPct: { label: "Highest tap", quantity: "pct" },
   tapStepPct: { label: "Tap step", quantity: "pct" },
+  tapControl: { label: "On-load tap changer (regulated bus, target, band)" },
   vectorGroup: { label: "Vector group" },
   fromBus: { label: "From busbar" },
   toBus: { label: "To busbar" },

@@ -6,15 +6,7 @@ import { solveNetwork } from "../../solver/index.ts";
 import { readingNumber } from "../../app/lib/format.ts";
 import { signIn } from "./accounts.ts";
 import { countReactCommits } from "./hydration.ts";
-
-function failOnConsoleErrors(page: Page) {
-  const errors: string[] = [];
-  page.on("console", (message) => {
-    if (message.type() === "error") errors.push(message.text());
-  });
-  page.on("pageerror", (error) => errors.push(error.message));
-  return () => expect(errors, "console errors on the page").toEqual([]);
-}
+import { failOnConsoleErrors } from "./consoleErrors.ts";
 
 async function openNetwork(page: Page, name: string) {
   await page.getByRole("link", { name }).click();

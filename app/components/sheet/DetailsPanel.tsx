@@ -8,6 +8,7 @@ import { checkField, fieldsFor, type FieldDef } from "./elementFields.ts";
 import { applyConductorType, applyTransformerType } from "./equipmentApply.ts";
 import { ConductorPicker, TransformerTypePicker, type EquipmentTypes } from "./EquipmentPicker.tsx";
 import { ConductorSizing } from "./ConductorSizing.tsx";
+import { TapControlFields } from "./TapControlFields.tsx";
 import { QuantityField, ReadOnlyValue, SelectField, TextField } from "./fields.tsx";
 import { parseWireId, terminalField, wireId } from "./flowModel.ts";
 import { describeElement, indexElements, type AnyElement, type ElementEntry } from "#app/lib/networkElements.ts";
@@ -65,6 +66,7 @@ function ElementForm({ entry, doc, readOnly, issues, library }: { entry: Element
           <div key={field.key}>
             <ReadOnlyValue label={field.label} value={valueText(field, entry.element, doc)} />
             {field.key === notesAfter ? perUnit : null}
+            {field.key === "tapStepPct" ? <TapControlFields transformer={entry.element as Transformer} doc={doc} readOnly commit={() => undefined} /> : null}
           </div>
         ))}
       </dl>
@@ -164,6 +166,15 @@ function ElementForm({ entry, doc, readOnly, issues, library }: { entry: Element
           <div key={field.key}>
             {input}
             {field.key === "tapPct" ? <TapButtons transformer={entry.element as Transformer} commit={commit} /> : null}
+            {field.key === "tapStepPct" ? (
+              <TapControlFields
+                transformer={entry.element as Transformer}
+                doc={doc}
+                readOnly={false}
+                externalError={issues.find((i) => i.field === "tapControl")?.message}
+                commit={commit}
+              />
+            ) : null}
             {entry.kind === "load" && field.key === "pMW" ? <PowerFactorField load={entry.element as Load} commit={commit} /> : null}
             {field.key === notesAfter ? perUnit : null}
           </div>

@@ -135,4 +135,11 @@ describe("on-load tap changer holding a bus (hand-worked two-bus case)", () => {
     const v = regulated.result.buses.find((b) => b.id === "lv")!.vPu;
     expect(Math.abs(v - 1)).toBeLessThan(Math.abs(closedFormLvPu(tap, 0.88) - closedFormLvPu(tap + 1.25, 0.88)));
   });
+
+  it("refuses a regulating transformer whose highest tap is not above its lowest, naming it", () => {
+    const outcome = solveNetwork(twoBus({ tapMinPct: 5, tapMaxPct: -5 }), { faults: false });
+    expect(outcome.ok).toBe(false);
+    if (!outcome.ok)
+      expect(outcome.issues).toContainEqual({ path: "transformers[0].tapMaxPct", message: 'Transformer "T" (t): its highest tap -5 % must be above its lowest 5 % for the tap changer to regulate' });
+  });
 });
