@@ -49,13 +49,17 @@ export function networkRules(net: Network, add: AddIssue): void {
   }
 
   const busAt = busPositions(net);
-  const busRef = (key: (typeof COLLECTIONS)[number], i: number, field: string, busId: string, kind: string) => {
+  /** The referenced bus's position, or -1 (reported) when there is none. */
+  const busRef = (key: (typeof COLLECTIONS)[number], i: number, field: string, busId: string, kind: string): number => {
     const at = busAt(busId);
     // An empty reference passes only a draft's shape (schema.ts draftShape): a terminal not connected yet.
     if (at === undefined)
       add([key, i, field], busId === "" ? `${label(kind, net[key][i])} is not connected to a bus yet` : `${label(kind, net[key][i])} refers to bus "${busId}", which does not exist`);
-    return at === undefined ? undefined : net.buses[at];
+    return at ?? -1;
   };
+  // Both ends of every branch (lines, then transformers), found once for these rules and the slack rule.
+  const lineCount = net.lines.length;
+  const branchEnds = new Int32Array(2 * (lineCount + net.transformers.length));
 
   for (let i = 0; i < net.buses.length; i++) {
     const b = net.buses[i];
@@ -79,8 +83,12 @@ export function networkRules(net: Network, add: AddIssue): void {
 
   for (let i = 0; i < net.transformers.length; i++) {
     const t = net.transformers[i];
-    const hv = busRef("transformers", i, "hvBus", t.hvBus, "Transformer");
-    const lv = busRef("transformers", i, "lvBus", t.lvBus, "Transformer");
+    const hvAt = busRef("transformers", i, "hvBus", t.hvBus, "Transformer");
+    const lvAt = busRef("transformers", i, "lvBus", t.lvBus, "Transformer");
+    branchEnds[2 * (lineCount + i)] = hvAt;
+    branchEnds[2 * (lineCount + i) + 1] = lvAt;
+    const hv = hvAt < 0 ? undefined : net.buses[hvAt];
+    const lv = lvAt < 0 ? undefined : net.buses[lvAt];
     if (t.hvBus === t.lvBus) add(["transformers", i, "lvBus"], `${label("Transformer", t)} connects bus "${t.hvBus}" to itself`);
     if (hv && Math.abs(t.hvKV / hv.nominalKV - 1) > WINDING_TOLERANCE)
       add(
@@ -115,8 +123,12 @@ export function networkRules(net: Network, add: AddIssue): void {
 
   for (let i = 0; i < net.lines.length; i++) {
     const l = net.lines[i];
-    const from = busRef("lines", i, "fromBus", l.fromBus, "Line");
-    const to = busRef("lines", i, "toBus", l.toBus, "Line");
+    const fromAt = busRef("lines", i, "fromBus", l.fromBus, "Line");
+    const toAt = busRef("lines", i, "toBus", l.toBus, "Line");
+    branchEnds[2 * i] = fromAt;
+    branchEnds[2 * i + 1] = toAt;
+    const from = fromAt < 0 ? undefined : net.buses[fromAt];
+    const to = toAt < 0 ? undefined : net.buses[toAt];
     if (l.fromBus === l.toBus) add(["lines", i, "toBus"], `${label("Line", l)} connects bus "${l.fromBus}" to itself`);
     if (from && to && Math.abs(from.nominalKV - to.nominalKV) > 1e-9 * from.nominalKV)
       add(
@@ -132,7 +144,7 @@ export function networkRules(net: Network, add: AddIssue): void {
 
   operatingCaseRules(net, add);
   equipmentRules(net, add);
-  slackRules(net, busAt, add);
+  slackRules(net, busAt, branchEnds, add);
 }
 
 /**
@@ -150,10 +162,10 @@ function busPositions(net: Network): (busId: string) => number | undefined {
 
 /**
  * One slack per connected group: union-find over the buses (a repeated id is one node) joined by
- * branches whose ends both exist, with path compression and union by size, so a 100,000-bus chain
- * stays linear. Each group is reported at its first bus.
+ * branches whose ends both exist (`branchEnds`: positions, -1 where missing), with path compression
+ * and union by size, so a 100,000-bus chain stays linear. Each group is reported at its first bus.
  */
-function slackRules(net: Network, busAt: (busId: string) => number | undefined, add: AddIssue): void {
+function slackRules(net: Network, busAt: (busId: string) => number | undefined, branchEnds: Int32Array, add: AddIssue): void {
   const n = net.buses.length;
   const parent = new Int32Array(n);
   const size = new Int32Array(n).fill(1);
@@ -168,19 +180,17 @@ function slackRules(net: Network, busAt: (busId: string) => number | undefined, 
     }
     return root;
   };
-  const join = (a: string, b: string) => {
-    const na = busAt(a);
-    const nb = busAt(b);
-    if (na === undefined || nb === undefined) return;
+  for (let e = 0; e < branchEnds.length; e += 2) {
+    const na = branchEnds[e];
+    const nb = branchEnds[e + 1];
+    if (na < 0 || nb < 0) continue;
     let ra = find(na);
     let rb = find(nb);
-    if (ra === rb) return;
+    if (ra === rb) continue;
     if (size[ra] < size[rb]) [ra, rb] = [rb, ra];
     parent[rb] = ra;
     size[ra] += size[rb];
-  };
-  for (const l of net.lines) join(l.fromBus, l.toBus);
-  for (const t of net.transformers) join(t.hvBus, t.lvBus);
+  }
   const slacks = new Map<number, number[]>();
   net.sources.forEach((s, i) => {
     const at = busAt(s.bus);
@@ -190,10 +200,12 @@ function slackRules(net: Network, busAt: (busId: string) => number | undefined, 
     if (list) list.push(i);
     else slacks.set(root, [i]);
   });
+  // Without repeated ids each bus is its own position.
+  const repeated = busIndexOf(net).repeats.length > 0;
   const reported = new Uint8Array(n);
   for (let i = 0; i < n; i++) {
     const b = net.buses[i];
-    const root = find(busAt(b.id)!);
+    const root = find(repeated ? busAt(b.id)! : i);
     if (reported[root]) continue;
     reported[root] = 1;
     const found = slacks.get(root) ?? [];

@@ -46,7 +46,7 @@ import {
 } from "./iecFactors.ts";
 import { endOfFaultResistanceFactor, voltageFactorCMin } from "./minimumFault.ts";
 import { NodalNetworkBuilder, type NodalNetwork } from "./nodalNetwork.ts";
-import { parseVectorGroup, VectorGroupError, zeroSequenceCoupling, type VectorGroup } from "./vectorGroup.ts";
+import { parseVectorGroup, VectorGroupError, zeroSequenceCoupling, type VectorGroup, type ZeroSequenceCoupling } from "./vectorGroup.ts";
 
 export const DEFAULT_GRID_Z0_OVER_Z1 = 1;
 export const DEFAULT_TRANSFORMER_Z0_OVER_Z1 = 1;
@@ -126,54 +126,57 @@ function transformerModel(t: Transformer, hv: Bus, lv: Bus, baseMVA: number): Tr
   };
 }
 
-/** Parsed once per distinct vector group code in a network. */
-function vectorGroupReader(): (t: Transformer) => VectorGroup {
-  const known = new Map<string, VectorGroup>();
+interface WindingGroup {
+  group: VectorGroup;
+  coupling: ZeroSequenceCoupling;
+}
+
+/** Parsed, and its zero-sequence coupling worked out, once per distinct vector group code in a network. */
+function vectorGroupReader(): (t: Transformer) => WindingGroup {
+  const known = new Map<string, WindingGroup>();
   return (t) => {
-    let group = known.get(t.vectorGroup);
-    if (!group) {
+    let found = known.get(t.vectorGroup);
+    if (!found) {
+      let group: VectorGroup;
       try {
         group = parseVectorGroup(t.vectorGroup);
       } catch (error) {
         if (error instanceof VectorGroupError) throw new FaultModelError(`transformer "${t.id}": ${error.message}`);
         throw error;
       }
-      known.set(t.vectorGroup, group);
+      found = { group, coupling: zeroSequenceCoupling(group) };
+      known.set(t.vectorGroup, found);
     }
-    return group;
+    return found;
   };
 }
 
-/** Places a transformer's zero-sequence impedance as its vector group allows. */
-function addTransformerZeroSequence(
-  zero: NodalNetworkBuilder,
-  t: Transformer,
-  group: VectorGroup,
-  hv: number,
-  lv: number,
-  model: TransformerModel,
-): void {
-  const z0OverZ1 = (side: "hv" | "lv") =>
-    t.z0OverZ1 ??
-    (group[side].connection === "zigzag" ? DEFAULT_ZIGZAG_Z0_OVER_Z1 : DEFAULT_TRANSFORMER_Z0_OVER_Z1);
+function transformerZ0OverZ1(t: Transformer, group: VectorGroup, side: "hv" | "lv"): number {
+  return t.z0OverZ1 ?? (group[side].connection === "zigzag" ? DEFAULT_ZIGZAG_Z0_OVER_Z1 : DEFAULT_TRANSFORMER_Z0_OVER_Z1);
+}
+
+/** A transformer's zero-sequence impedance as a shunt on one side. */
+function addTransformerZeroShunt(zero: NodalNetworkBuilder, t: Transformer, group: VectorGroup, side: "hv" | "lv", node: number, model: TransformerModel): void {
   // Seen from the HV terminals an impedance on the LV side of the ideal t:1 is t² larger.
-  const shuntAt = (side: "hv" | "lv") => {
-    const z = scale(model.zLvSide, z0OverZ1(side) * (side === "hv" ? model.ratio ** 2 : 1));
-    zero.shunt(side === "hv" ? hv : lv, z.re, z.im);
-  };
-  const coupling = zeroSequenceCoupling(group);
+  const z = scale(model.zLvSide, transformerZ0OverZ1(t, group, side) * (side === "hv" ? model.ratio ** 2 : 1));
+  zero.shunt(node, z.re, z.im);
+}
+
+/** Places a transformer's zero-sequence impedance as its vector group allows. */
+function addTransformerZeroSequence(zero: NodalNetworkBuilder, t: Transformer, windings: WindingGroup, hv: number, lv: number, model: TransformerModel): void {
+  const { group, coupling } = windings;
   switch (coupling.kind) {
     case "series": {
-      const z = scale(model.zLvSide, z0OverZ1("lv"));
+      const z = scale(model.zLvSide, transformerZ0OverZ1(t, group, "lv"));
       zero.branch(hv, lv, z.re, z.im, model.ratio);
       break;
     }
     case "shunt":
-      shuntAt(coupling.side);
+      addTransformerZeroShunt(zero, t, group, coupling.side, coupling.side === "hv" ? hv : lv, model);
       break;
     case "shunt-both":
-      shuntAt("hv");
-      shuntAt("lv");
+      addTransformerZeroShunt(zero, t, group, "hv", hv, model);
+      addTransformerZeroShunt(zero, t, group, "lv", lv, model);
       break;
     case "open":
       break;
@@ -219,11 +222,11 @@ export function buildFaultCases(network: Network): Record<FaultCase, SequenceNet
     const hv = busIndex(t.hvBus, "transformer", t.id);
     const lv = busIndex(t.lvBus, "transformer", t.id);
     const model = transformerModel(t, buses[hv], buses[lv], baseMVA);
-    const group = vectorGroupOf(t);
+    const windings = vectorGroupOf(t);
     positive.branch(hv, lv, model.zLvSide.re, model.zLvSide.im, model.ratio);
     positiveMin.branch(hv, lv, model.zLvSide.re, model.zLvSide.im, model.ratio);
-    addTransformerZeroSequence(zero, t, group, hv, lv, model);
-    addTransformerZeroSequence(zeroMin, t, group, hv, lv, model);
+    addTransformerZeroSequence(zero, t, windings, hv, lv, model);
+    addTransformerZeroSequence(zeroMin, t, windings, hv, lv, model);
   }
 
   for (const source of network.sources) {

@@ -80,10 +80,11 @@ export type ZeroSequenceCoupling =
   | { kind: "shunt-both" }
   | { kind: "open" };
 
+const earthedStar = (w: Winding) => w.connection === "star" && w.neutralEarthed;
+const earthedZigzag = (w: Winding) => w.connection === "zigzag" && w.neutralEarthed;
+
 export function zeroSequenceCoupling(group: VectorGroup): ZeroSequenceCoupling {
   const { hv, lv } = group;
-  const earthedStar = (w: Winding) => w.connection === "star" && w.neutralEarthed;
-  const earthedZigzag = (w: Winding) => w.connection === "zigzag" && w.neutralEarthed;
   if (earthedStar(hv) && earthedStar(lv)) return { kind: "series" };
   if (earthedZigzag(hv) && earthedZigzag(lv)) return { kind: "shunt-both" };
   if (earthedZigzag(hv)) return { kind: "shunt", side: "hv" };
