@@ -99,7 +99,7 @@ export const API_ENDPOINTS: ApiEndpoint[] = [
   {
     method: "POST",
     route: "/api/networks/:networkId/ladder",
-    what: "The voltage ladder on the saved revision: { sectionBus, voltagesKV }, one alternative per candidate voltage; add sizing: { clearingTimeS } to have each alternative's section take the built-in library conductor that carries the load, keeps the buses beyond in band and withstands the fault at least lifetime cost (each alternative's sizing says which and why).",
+    what: "The voltage ladder on the saved revision: { sectionBus, voltagesKV }, one alternative per candidate voltage; add sizing: { clearingTimeS } to have each alternative's section take the library conductor (built-in or the team's) that carries the load, keeps the buses beyond in band and withstands the fault at least lifetime cost (each alternative's sizing says which and why).",
     who: "viewer (a read token may run it)",
     example: { path: "/api/networks/$NETWORK_ID/ladder", body: '{"sectionBus": "$SECTION_BUS", "voltagesKV": [33, 66, 132]}' },
   },

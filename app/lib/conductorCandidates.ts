@@ -32,5 +32,11 @@ export function lineNominalKV(line: Line, buses: readonly { id: string; nominalK
   return buses.find((b) => b.id === line.fromBus)?.nominalKV ?? buses.find((b) => b.id === line.toBus)?.nominalKV ?? 0;
 }
 
-/** The built-in library as the voltage ladder sizes each alternative's section from it. */
-export const builtInLadderConductors: ConductorLibrary = (nominalKV, frequencyHz) => sizingCandidates(builtInConductorTypes, nominalKV, frequencyHz);
+/** The library the voltage ladder sizes each alternative's section from: the built-in types and the team's own. */
+export function ladderConductors(teamTypes: readonly ConductorType[] = []): ConductorLibrary {
+  const types = [...builtInConductorTypes, ...teamTypes];
+  return (nominalKV, frequencyHz) => sizingCandidates(types, nominalKV, frequencyHz);
+}
+
+/** The built-in library alone, for callers without a team (the command line, tests). */
+export const builtInLadderConductors: ConductorLibrary = ladderConductors();

@@ -48,6 +48,19 @@ export async function teamEquipmentTypes(
   };
 }
 
+/**
+ * The team's conductor types as the voltage ladder sizes from them, and a fingerprint that changes
+ * whenever one is added, changed or removed, so a kept ladder is made again after a library edit.
+ */
+export async function teamConductorsForSizing(db: Db, teamId: number): Promise<{ conductors: TeamConductorType[]; fingerprint: string }> {
+  const rows = await listLibraryTypes(db, teamId);
+  const conductors = rows.flatMap((row) => {
+    const entry = readEntry(row);
+    return entry?.kind === "conductor" ? [toConductorType(entry.id, entry.name, entry.data, "Team")] : [];
+  });
+  return { conductors, fingerprint: rows.filter((r) => r.kind === "conductor").map((r) => `${r.id}@${r.updatedAt}`).join(",") };
+}
+
 /** Whether a type of that number is in this team's library. */
 export async function teamHasLibraryType(db: Db, teamId: number, typeId: number): Promise<boolean> {
   return (await findLibraryType(db, typeId))?.team_id === teamId;

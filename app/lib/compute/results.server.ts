@@ -15,6 +15,7 @@ import type { Actor } from "../permissions.server.ts";
 import { solveCost, spend, type BudgetRefusal } from "./budget.server.ts";
 import { compute, ComputeStopped, type ComputeOptions } from "./pool.server.ts";
 import type { CsvOutcome, FromKept, JsonOutcome, KeptProduct, KeptSolve, ReportData } from "./tasks.ts";
+import { teamConductorsForSizing } from "../library.server.ts";
 
 /** The caller's budget was spent; `refusal` says how long to wait. */
 export class BudgetExceeded extends Error {
@@ -240,10 +241,24 @@ export async function revisionCsv(db: Db, network: NetworkRow, table: CsvTable, 
   return made.ok ? made : { ok: false };
 }
 
-/** The study report's numbers for the current revision and the saved study (kept per both), cut to what the report lists. */
-export function revisionReport(db: Db, network: NetworkRow, study: { request: unknown; updatedAt: string } | null, actor: Actor): Promise<ReportData> {
-  return fromKeptSolve<ReportData>(db, network, actor, revisionKey("report", network, study?.updatedAt ?? ""), { product: "report", study: study?.request ?? null }, (buses) =>
-    study ? ladderBusCost(buses, study.request) : 0,
+/** Whether a ladder request asks to size the section's conductor (then the team's library counts). */
+const asksSizing = (request: unknown) => Boolean((request as { sizing?: unknown } | null)?.sizing);
+
+/** The team's conductor types for a ladder that sizes, with their fingerprint for kept answers; none otherwise. */
+async function sizingLibrary(db: Db, network: NetworkRow, request: unknown) {
+  return asksSizing(request) ? teamConductorsForSizing(db, network.team_id) : { conductors: [], fingerprint: "" };
+}
+
+/** The study report's numbers for the current revision and the saved study (kept per both and the team's conductors when it sizes), cut to what the report lists. */
+export async function revisionReport(db: Db, network: NetworkRow, study: { request: unknown; updatedAt: string } | null, actor: Actor): Promise<ReportData> {
+  const library = await sizingLibrary(db, network, study?.request ?? null);
+  return fromKeptSolve<ReportData>(
+    db,
+    network,
+    actor,
+    revisionKey("report", network, `${study?.updatedAt ?? ""}|${library.fingerprint}`),
+    { product: "report", study: study?.request ?? null, conductors: library.conductors },
+    (buses) => (study ? ladderBusCost(buses, study.request) : 0),
   );
 }
 
@@ -253,15 +268,19 @@ export function ladderOf(db: Db, network: NetworkRow, request: unknown, actor: A
 export async function ladderOf(db: Db, network: NetworkRow, request: unknown, actor: Actor, signal?: AbortSignal, form?: "json") {
   const revision = await storedRevision(db, network)();
   pay(payerOf(actor), ladderBusCost(revision.buses, request));
+  const { conductors } = await sizingLibrary(db, network, request);
   const input = storedInput(revision);
-  return form === "json" ? compute({ kind: "ladder-json", request, ...input }, { signal }) : compute({ kind: "ladder", request, ...input }, { signal });
+  return form === "json"
+    ? compute({ kind: "ladder-json", request, conductors, ...input }, { signal })
+    : compute({ kind: "ladder", request, conductors, ...input }, { signal });
 }
 
 /** The ladder as a job's work: the stored revision read now and paid for now; run when the job calls it. */
 export async function ladderWork(db: Db, network: NetworkRow, request: unknown, actor: Actor): Promise<(options: ComputeOptions) => Promise<LadderOutcome>> {
   const revision = await storedRevision(db, network)();
   pay(payerOf(actor), ladderBusCost(revision.buses, request));
-  return (options) => compute({ kind: "ladder", request, ...storedInput(revision) }, options);
+  const { conductors } = await sizingLibrary(db, network, request);
+  return (options) => compute({ kind: "ladder", request, conductors, ...storedInput(revision) }, options);
 }
 
 /** Solve a document sent with the request (not stored, so not kept), as the API's JSON. */
@@ -279,13 +298,14 @@ export function computeRefusalOf(failure: unknown): { status: number; error: str
 }
 
 /** The saved ladder study's ladder on the current revision, kept per revision and study (the ladder page shows it on every visit). */
-export function savedLadderOf(db: Db, network: NetworkRow, study: { request: unknown; updatedAt: string }, actor: Actor): Promise<LadderOutcome> {
+export async function savedLadderOf(db: Db, network: NetworkRow, study: { request: unknown; updatedAt: string }, actor: Actor): Promise<LadderOutcome> {
+  const library = await sizingLibrary(db, network, study.request);
   return once(
-    revisionKey("saved-ladder", network, study.updatedAt),
+    revisionKey("saved-ladder", network, `${study.updatedAt}|${library.fingerprint}`),
     payerOf(actor),
     (revision) => ({
       cost: ladderBusCost(revision.buses, study.request),
-      run: () => compute({ kind: "ladder", request: study.request, ...storedInput(revision) }),
+      run: () => compute({ kind: "ladder", request: study.request, conductors: library.conductors, ...storedInput(revision) }),
     }),
     storedRevision(db, network),
   );

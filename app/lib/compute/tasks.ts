@@ -12,7 +12,8 @@ import type { JobProgress } from "./jobView.ts";
 import { runLadder, type LadderOutcome, type LadderProgress } from "#solver/ladder.ts";
 import { validateNetwork, type Network, type ValidationIssue } from "#solver/schema.ts";
 import { runStudySync, type StudyOutcome, type StudyProgress } from "#solver/study/index.ts";
-import { builtInLadderConductors } from "../conductorCandidates.ts";
+import { ladderConductors } from "../conductorCandidates.ts";
+import type { ConductorType } from "../equipmentLibrary.ts";
 
 /**
  * A stored revision as it is stored: its JSON text, parsed in the worker (not on the request
@@ -36,7 +37,10 @@ export type TaskInput = { document: unknown; stored?: undefined } | { stored: St
 export type KeptSolve = { ok: true; kept: Uint8Array; buses: number } | { ok: false; issues: ValidationIssue[] };
 
 /** What is made from a kept solve: the API's JSON, a results CSV, or the report's numbers (with the saved ladder study, if any). */
-export type KeptProduct = { product: "json" } | { product: "csv"; table: CsvTable } | { product: "report"; study: unknown | null };
+export type KeptProduct =
+  | { product: "json" }
+  | { product: "csv"; table: CsvTable }
+  | { product: "report"; study: unknown | null; conductors?: ConductorType[] };
 
 export type ComputeTask =
   | (TaskInput &
@@ -44,8 +48,8 @@ export type ComputeTask =
         | { kind: "solve" }
         | { kind: "solve-kept" }
         | { kind: "solve-json" }
-        | { kind: "ladder-json"; request: unknown }
-        | { kind: "ladder"; request: unknown }
+        | { kind: "ladder-json"; request: unknown; conductors?: ConductorType[] }
+        | { kind: "ladder"; request: unknown; conductors?: ConductorType[] }
         | { kind: "study"; request: unknown }
       ))
   | ({ kind: "from-kept"; kept: Uint8Array; stored?: undefined; document?: undefined } & KeptProduct);
@@ -139,21 +143,22 @@ export function fromKeptTask(kept: Uint8Array, want: KeptProduct): FromKept {
     case "csv":
       return { ok: true, csv: resultsCsv(want.table, solved.network, solved.result) };
     case "report":
-      return reportTask(solved, want.study);
+      return reportTask(solved, want.study, want.conductors);
   }
 }
 
-export function ladderTask(document: unknown, request: unknown, onProgress?: (step: LadderProgress) => void): LadderOutcome {
-  return runLadder(document, request, onProgress, builtInLadderConductors);
+/** The ladder; sizing draws on the built-in conductors and the team's own (`teamConductors`). */
+export function ladderTask(document: unknown, request: unknown, onProgress?: (step: LadderProgress) => void, teamConductors: readonly ConductorType[] = []): LadderOutcome {
+  return runLadder(document, request, onProgress, ladderConductors(teamConductors));
 }
 
 /**
  * The study report's numbers from a solve: the saved ladder study (if any), the drawing's layout
  * (small networks only) and the part of the network and its results the report lists.
  */
-export function reportTask(solved: Extract<SolveOutcome, { ok: true }>, study: unknown | null): ReportData {
+export function reportTask(solved: Extract<SolveOutcome, { ok: true }>, study: unknown | null, teamConductors: readonly ConductorType[] = []): ReportData {
   const { network, result } = solved;
-  const ladder = study === null ? null : runLadder(network, study, undefined, builtInLadderConductors);
+  const ladder = study === null ? null : runLadder(network, study, undefined, ladderConductors(teamConductors));
   const drawing = network.buses.length <= DRAWING_MAX_BUSES ? layoutSingleLine(network) : null;
   const section = ladder?.ok ? ladder.ladder.section : null;
   const part = reportPart(network, result, { alsoBuses: section ? [...section.busIds, ...section.endBusIds] : [] });
@@ -182,7 +187,7 @@ export function runTask(task: ComputeTask & { progress?: MessagePort }): Compute
       return solved.ok ? { ok: true, json: JSON.stringify(solved.result) } : solved;
     }
     case "ladder-json": {
-      const run = ladderTask(document, task.request);
+      const run = ladderTask(document, task.request, undefined, task.conductors);
       if (!run.ok) return run;
       const { sectionBus, section, money, alternatives, cheapest, sensitivity, inverseSquareReference } = run.ladder;
       return { ok: true, json: JSON.stringify({ sectionBus, section, money, alternatives, cheapest, sensitivity, inverseSquareReference }) };
@@ -190,7 +195,7 @@ export function runTask(task: ComputeTask & { progress?: MessagePort }): Compute
     case "solve-kept":
       return keptSolveTask(document, trusted);
     case "ladder":
-      return ladderTask(document, task.request, reporter(task.progress, ladderProgressOf));
+      return ladderTask(document, task.request, reporter(task.progress, ladderProgressOf), task.conductors);
     case "study":
       return studyTask(document, task.request, reporter(task.progress, studyProgressOf), trusted);
   }

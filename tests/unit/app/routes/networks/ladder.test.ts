@@ -8,6 +8,7 @@ import { action as jobAction, loader as jobLoader } from "#app/routes/networks/j
 import { action as ladderAction, loader as ladderLoader } from "#app/routes/networks/ladder.tsx";
 import { loader as reportLoader } from "#app/routes/networks/report.tsx";
 import { insertMembership, insertTeamWithOwner } from "#db/teams.ts";
+import { writeLibraryTypes } from "#db/libraryTypes.ts";
 import { syntheticFeeder } from "../../../../bench/syntheticFeeder.ts";
 import { call, cookieFor, formRequest, getRequest, jsonRequest, makeUser } from "../harness.ts";
 
@@ -15,6 +16,7 @@ const cookies = {} as Record<"owner" | "editor" | "viewer" | "outsider", string>
 let networkId: number;
 let teamId: number;
 let editorName: string;
+let ownerId: number;
 const study = { sectionBus: "b-calder-66", voltagesKV: [33, 66, 132], money: { energyPricePerMWh: 95, currency: "GBP" } };
 
 const started = (body: unknown, cookie: string, id = networkId) =>
@@ -46,6 +48,7 @@ beforeAll(async () => {
   const viewer = await makeUser("Page Viewer");
   const outsider = await makeUser("Page Outsider", { ownTeam: true });
   editorName = editor.name;
+  ownerId = owner.id;
   teamId = (await db.transaction().execute((trx) => insertTeamWithOwner(trx, "Ladder page team", owner.id))).id;
   await insertMembership(db, teamId, editor.id, "editor");
   await insertMembership(db, teamId, viewer.id, "viewer");
@@ -139,6 +142,22 @@ describe("the ladder page", () => {
     expect(chosen[1]).toMatch(/^ACSR /);
     const rows = await (await getDb()).selectFrom("ladder_studies").select(["sizing"]).where("network_id", "=", networkId).execute();
     expect(rows).toEqual([{ sizing: JSON.stringify(sizing) }]);
+
+    // A team conductor that passes and costs less over its life than any built-in one is chosen, on the next visit too.
+    const written = await writeLibraryTypes(await getDb(), {
+      teamId,
+      userId: ownerId,
+      types: [
+        {
+          kind: "conductor",
+          name: "Moorland 200 (team type)",
+          data: { kind: "overhead", frequencyHz: 50, rOhmPerKm: 0.12, xOhmPerKm: 0.35, ampacityA: 600, material: "acsr", crossSectionMm2: 200 },
+        },
+      ],
+    });
+    expect(written.ok).toBe(true);
+    const withTeamType = await pageGet(cookies.viewer);
+    expect(withTeamType.body.savedLadder.alternatives[1].sizing.chosen.label).toBe("Moorland 200 (team type)");
     const back = (await pageGet(cookies.editor)).body.saved.updatedAt;
     expect((await pagePost({ intent: "save", request: study, basedOn: back }, cookies.editor)).status).toBe(200);
     expect((await pageGet(cookies.viewer)).body.saved.request).not.toHaveProperty("sizing");
