@@ -30,6 +30,7 @@ export default [
     index("routes/networks/list.tsx"),
     route("upload", "routes/networks/upload.tsx"),
     route(":networkId", "routes/networks/network.tsx"),
+    route(":networkId/document", "routes/networks/document.ts"),
     route(":networkId/loads-import", "routes/networks/loads-import.tsx"),
     route(":networkId/ladder", "routes/networks/ladder.tsx"),
     route(":networkId/jobs/:jobId", "routes/networks/job.ts"),

@@ -91,12 +91,29 @@ export async function findNetwork(db: Db, networkId: number): Promise<NetworkRow
 }
 
 /** The stored document of one revision, parsed; undefined when there is no such revision. */
-export async function readRevision(
+/** A revision's author, message, editing session and document length in characters, without reading its document. */
+export async function readRevisionHeading(
+  db: Db,
+  networkId: number,
+  number: number,
+): Promise<{ createdAt: string; authorName: string | null; message: string; foldedSaves: number; documentChars: number } | undefined> {
+  const row = await db
+    .selectFrom("network_revisions as r")
+    .leftJoin("users as u", "u.id", "r.author_id")
+    .select((eb) => ["r.created_at", "r.updated_at", "r.message", "r.folded_saves", "u.name as authorName", eb.fn<number>("length", ["r.document"]).as("documentChars")])
+    .where("r.network_id", "=", networkId)
+    .where("r.number", "=", number)
+    .executeTakeFirst();
+  return row && { createdAt: row.updated_at ?? row.created_at, authorName: row.authorName, message: row.message, foldedSaves: row.folded_saves, documentChars: row.documentChars };
+}
+
+/** A revision with its document as stored (JSON text, not parsed), its author's name and its editing session. */
+export async function readRevisionAsStored(
   db: Db,
   networkId: number,
   number: number,
 ): Promise<
-  | { document: unknown; createdAt: string; authorName: string | null; message: string; foldedSaves: number; problems: { path: string; message: string }[] }
+  | { text: string; createdAt: string; authorName: string | null; message: string; foldedSaves: number; problems: { path: string; message: string }[] }
   | undefined
 > {
   const row = await db
@@ -108,7 +125,7 @@ export async function readRevision(
     .executeTakeFirst();
   if (!row) return undefined;
   return {
-    document: JSON.parse(row.document),
+    text: row.document,
     createdAt: row.updated_at ?? row.created_at,
     authorName: row.authorName,
     message: row.message,
@@ -117,8 +134,20 @@ export async function readRevision(
   };
 }
 
-/** The stored document of one revision as its JSON text, unparsed (for the compute pool to parse off the request thread). */
-/** A revision's stored JSON text and when it was last saved (an editing session folds saves into it). */
+export async function readRevision(
+  db: Db,
+  networkId: number,
+  number: number,
+): Promise<
+  | { document: unknown; createdAt: string; authorName: string | null; message: string; foldedSaves: number; problems: { path: string; message: string }[] }
+  | undefined
+> {
+  const stored = await readRevisionAsStored(db, networkId, number);
+  if (!stored) return undefined;
+  const { text, ...rest } = stored;
+  return { document: JSON.parse(text), ...rest };
+}
+
 export async function readRevisionText(db: Db, networkId: number, number: number): Promise<{ text: string; savedAt: string } | undefined> {
   const row = await db
     .selectFrom("network_revisions")

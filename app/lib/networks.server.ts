@@ -2,7 +2,7 @@
 // file's schema before anything is stored (a draft with its problems), and every change is a
 // numbered revision (an editing session's autosaves fold into one).
 import type { Db } from "#db/database.ts";
-import { insertNetwork, writeRevision, markNetworkDeleted, readRevision, readRevisionText, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
+import { insertNetwork, writeRevision, markNetworkDeleted, readRevision, readRevisionAsStored, readRevisionHeading, readRevisionText, restoreNetwork, RESTORE_WINDOW_DAYS } from "#db/networks.ts";
 import type { NetworkRow, User } from "#db/schema.ts";
 import { findTeam } from "#db/teams.ts";
 import { revokeLinksOfNetwork } from "#db/shareLinks.ts";
@@ -80,6 +80,40 @@ export async function currentDocument(db: Db, network: NetworkRow) {
   return revision;
 }
 
+/** What names one version of a network's document: its revision and its last save (autosaves fold into a revision). */
+export function documentVersion(revision: number, savedAt: string): string {
+  return `${revision}-${savedAt}`;
+}
+
+/** The current revision's author, message and save time, without reading its document. */
+export async function currentRevisionHeading(db: Db, network: NetworkRow) {
+  const heading = await readRevisionHeading(db, network.id, network.current_revision);
+  if (!heading) throw new Error(`Network ${network.id} has no revision ${network.current_revision}`);
+  return heading;
+}
+
+/**
+ * The sheet's view of the current revision: its heading, and its document as stored, either as
+ * text for the page (up to `inlineMaxChars`) or as the address the browser fetches it from
+ * (routes/networks/document.ts). A large revision this process trusts is not even read here.
+ */
+export async function sheetRevision(db: Db, network: NetworkRow, inlineMaxChars: number) {
+  const heading = await currentRevisionHeading(db, network);
+  const documentUrl = `/networks/${network.id}/document?v=${encodeURIComponent(documentVersion(network.current_revision, heading.createdAt))}`;
+  const large = heading.documentChars > inlineMaxChars;
+  if (large && isTrustedRevision(network.id, network.current_revision, heading.createdAt)) return { heading, documentText: null, documentUrl, issues: [] };
+  const checked = checkedDraftText(network, await currentRevisionAsStored(db, network));
+  if (!checked.ok) return { heading, documentText: null, documentUrl: null, issues: checked.issues };
+  return large ? { heading, documentText: null, documentUrl, issues: [] } : { heading, documentText: checked.text, documentUrl: null, issues: [] };
+}
+
+/** The current revision with its document as stored (JSON text): for pages that send it on unread. */
+export async function currentRevisionAsStored(db: Db, network: NetworkRow) {
+  const revision = await readRevisionAsStored(db, network.id, network.current_revision);
+  if (!revision) throw new Error(`Network ${network.id} has no revision ${network.current_revision}`);
+  return revision;
+}
+
 type StoredDocument = { document: unknown; createdAt: string };
 
 /**
@@ -101,6 +135,26 @@ export function checkedDraft(network: NetworkRow, revision: StoredDocument): Ret
   const checked = validateDraft(revision.document);
   if (checked.ok && !checked.problems.length) trustRevision(network.id, network.current_revision, revision.createdAt);
   return checked;
+}
+
+/**
+ * As checkedDraft, for a page that sends the document on as JSON text: a revision this process
+ * trusts is sent exactly as stored, neither parsed nor validated nor encoded again; any other is
+ * read and checked now (once: it is trusted from then on when it passes) and sent as checked.
+ */
+export function checkedDraftText(
+  network: NetworkRow,
+  revision: { text: string; createdAt: string },
+): { ok: true; text: string } | { ok: false; issues: ValidationIssue[] } {
+  if (isTrustedRevision(network.id, network.current_revision, revision.createdAt)) return { ok: true, text: revision.text };
+  let document: unknown;
+  try {
+    document = JSON.parse(revision.text);
+  } catch {
+    return { ok: false, issues: [{ path: "", message: "is not readable JSON" }] };
+  }
+  const checked = checkedDraft(network, { document, createdAt: revision.createdAt });
+  return checked.ok ? { ok: true, text: JSON.stringify(checked.network) } : checked;
 }
 
 /**

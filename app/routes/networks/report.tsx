@@ -18,7 +18,7 @@ import { savedLadderStudy } from "#app/lib/ladder.server.ts";
 import { networkReader } from "#app/lib/networkReader.server.ts";
 import { REPORT_ROWS_MAX, type ReportExtent } from "#app/lib/reportExtent.ts";
 import type { ReportStudyShape } from "#app/lib/compute/tasks.ts";
-import { currentDocument, teamNameOf } from "#app/lib/networks.server.ts";
+import { currentRevisionHeading, teamNameOf } from "#app/lib/networks.server.ts";
 import { computeRefusal, computeRefusalOf, revisionReport } from "#app/lib/compute/results.server.ts";
 import { DRAWING_MAX_BUSES } from "#app/components/report/singleLineLayout.ts";
 import { keptStudyOnNetwork } from "#app/lib/study.server.ts";
@@ -38,7 +38,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const db = await getDb();
   // Also mapped at /s/:token/report: a view-link holder reads the same report without an account.
   const { network, user, actor, home, viaLink } = await networkReader(db, request, params);
-  const [revision, team, saved] = await Promise.all([currentDocument(db, network), teamNameOf(db, network), savedLadderStudy(db, network.id)]);
+  const [revision, team, saved] = await Promise.all([currentRevisionHeading(db, network), teamNameOf(db, network), savedLadderStudy(db, network.id)]);
   const report = await revisionReport(db, network, saved.study, actor).catch((failure) => computeRefusal(failure, "page"));
   // A large network's report lists the first part of each table (cut in the worker): the page stays a few hundred kilobytes.
   const ladderRun = report.ok ? report.ladder : null;

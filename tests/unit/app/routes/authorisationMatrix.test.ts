@@ -135,6 +135,8 @@ const CASES: Case[] = [
   },
   { route: "networks/:networkId", method: "GET", path: "/networks/{network}", expect: view(302) },
   { route: "networks/:networkId", method: "GET", path: "/networks/{other}", expect: { ...view(302), editLink: 404 } },
+  { route: "networks/:networkId/document", method: "GET", path: "/networks/{network}/document", expect: view(302) },
+  { route: "networks/:networkId/document", method: "GET", path: "/networks/{other}/document", expect: { ...view(302), editLink: 404 } },
   { route: "networks/:networkId/loads-import", method: "GET", path: "/networks/{network}/loads-import", expect: onNetwork({ viewer: 403, editor: 200, owner: 200 }, 302) },
   { route: "networks/:networkId/ladder", method: "GET", path: "/networks/{network}/ladder", expect: view(302) },
   {
