@@ -86,8 +86,10 @@ function prepare(document: unknown, requestInput: unknown): { ok: true; prepared
   };
 }
 
-interface SolvedCase {
+export interface SolvedCase {
   result: SolveResult;
+  /** The network the solver saw in this case (elements out removed), or null when it saw none. */
+  network: Network | null;
   lostLoadMW: number;
   deenergisedBuses: string[];
 }
@@ -102,14 +104,16 @@ interface SolvedCase {
 export function solveCase(network: Network, operatingCase: OperatingCase, adjustment: CaseAdjustment = {}, faults = true): SolvedCase {
   const applied = applyCase(network, operatingCase, adjustment);
   const { lostLoadMW, deenergisedBuses } = applied;
-  if (!applied.document) return { result: { loadFlow: emptyLoadFlow("No bus is connected to a slack source in this case: every load is lost."), checks: [] }, lostLoadMW, deenergisedBuses };
+  if (!applied.document)
+    return { result: { loadFlow: emptyLoadFlow("No bus is connected to a slack source in this case: every load is lost."), checks: [] }, network: null, lostLoadMW, deenergisedBuses };
   const outcome = staysValid(applied.document) ? solveValidated(applied.document, { faults }) : solveNetwork(applied.document, { faults });
-  if (outcome.ok) return { result: outcome.result, lostLoadMW, deenergisedBuses };
+  if (outcome.ok) return { result: outcome.result, network: outcome.network, lostLoadMW, deenergisedBuses };
   // A case of a valid network is a valid network; should the solver still refuse it, the case
   // reports why instead of stopping the study.
   const why = outcome.issues.map((i) => (i.path ? `${i.path}: ${i.message}` : i.message)).join("; ");
   return {
     result: { loadFlow: { ...emptyLoadFlow(`This case could not be solved: ${why}`), converged: false }, checks: [] },
+    network: null,
     lostLoadMW,
     deenergisedBuses,
   };

@@ -32,7 +32,8 @@ import {
   type ResultColumn,
   type SourceRow,
 } from "#solver/resultTables.ts";
-import { useSheet, type Readings } from "./sheetStore.ts";
+import { branchEnvelopeColumns, busEnvelopeColumns, type BranchEnvelopeRow, type BusEnvelopeRow } from "#solver/study/tables.ts";
+import { useSheet, type EnvelopeReadings, type Readings } from "./sheetStore.ts";
 
 const VoltageProfile = lazy(() => import("./VoltageProfile.tsx"));
 
@@ -202,6 +203,46 @@ const faultTable: ColumnDef<FaultRow>[] = [
   shared(fault.note),
 ];
 
+const busEnvelope = busEnvelopeColumns;
+const busEnvelopeTable: ColumnDef<BusEnvelopeRow>[] = [
+  named(busEnvelope.name),
+  shared(busEnvelope.vMinPu, (r) => readingAgainstLimit(r.vMinPu, [r.bandLowPu, r.bandHighPu], "pu")),
+  shared(busEnvelope.vMinCase),
+  shared(busEnvelope.vMaxPu, (r) => readingAgainstLimit(r.vMaxPu, [r.bandLowPu, r.bandHighPu], "pu")),
+  shared(busEnvelope.vMaxCase),
+  statusColumn((r) => worstStatus([voltageStatus(r.vMinPu, r.bandLowPu, r.bandHighPu), voltageStatus(r.vMaxPu, r.bandLowPu, r.bandHighPu)])),
+  shared(busEnvelope.nominalKV),
+  { id: "band", accessorFn: (r) => `${r.bandLowPu}–${r.bandHighPu}`, header: "Band (pu)" },
+];
+
+const branchEnvelope = branchEnvelopeColumns;
+const branchEnvelopeTable: ColumnDef<BranchEnvelopeRow>[] = [
+  named(branchEnvelope.name),
+  shared(branchEnvelope.maxLoadingPct, (r) => readingAgainstLimit(r.maxLoadingPct, [100], "pct")),
+  shared(branchEnvelope.maxLoadingCase),
+  statusColumn((r) => upperLimitStatus(r.maxLoadingPct, 100, "pct")),
+  shared(branchEnvelope.kind),
+];
+
+/** The envelope's tabs: bus voltages and branch loadings; the rest belong to one case at a time. */
+function envelopePanel(active: TabId, envelope: EnvelopeReadings): ReactNode {
+  if (active === "buses")
+    return (
+      <>
+        <ResultsTable caption="Bus voltage envelope: the lowest and highest over the operating cases" data={[...envelope.buses.values()]} columns={busEnvelopeTable} />
+        <p className="ks-muted ks-results-foot">Each bus's lowest and highest voltage over the {envelope.study.cases.length} operating cases, with the case that sets it; the study page has every case's table and CSV.</p>
+      </>
+    );
+  if (active === "branches")
+    return (
+      <>
+        <ResultsTable caption="Branch loading envelope: the highest over the operating cases" data={[...envelope.branches.values()]} columns={branchEnvelopeTable} />
+        <p className="ks-muted ks-results-foot">Each rated line's and transformer's highest loading over the operating cases, with the case that sets it.</p>
+      </>
+    );
+  return <p className="ks-panel-note">The envelope gives bus voltages and branch loadings; pick one operating case above the sheet for its sources, totals, fault levels and profile.</p>;
+}
+
 function rowsFor(doc: Network, readings: Readings) {
   const result = readings.result;
   return { buses: busRows(doc, result), branches: branchRows(doc, result), sources: sourceRows(doc, result), faults: faultRows(doc, result) };
@@ -218,10 +259,11 @@ const tabs: { id: TabId; label: string }[] = [
 ];
 
 function CsvLink({ table, csvBase, revision }: { table: CsvTable; csvBase: string | null; revision: number }) {
+  const caseShown = useSheet((s) => s.solve.kind === "solved" && s.solve.readings.shownCase !== undefined);
   if (csvBase === null) return null;
   return (
     <a className="btn btn-small" href={`${csvBase}/results.csv?table=${table}`} download>
-      Download CSV of {table} <span className="ks-muted">(saved revision {revision})</span>
+      Download CSV of {table} <span className="ks-muted">(saved revision {revision}{caseShown ? ", as drawn" : ""})</span>
     </a>
   );
 }
@@ -239,6 +281,7 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   const network = readings?.network;
   const rows = useMemo(() => (readings && network ? rowsFor(network, readings) : undefined), [readings, network]);
   const converged = readings?.result.loadFlow.converged ?? false;
+  const shownName = solve.kind === "envelope" ? "envelope of all cases" : readings?.shownCase?.name;
 
   const onTabKey = (event: KeyboardEvent) => {
     const i = tabs.findIndex((t) => t.id === active);
@@ -251,7 +294,9 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   };
 
   let panel: ReactNode;
-  if (!readings || !rows) {
+  if (solve.kind === "envelope") {
+    panel = envelopePanel(active, solve.envelope);
+  } else if (!readings || !rows) {
     panel = (
       <p className="ks-panel-note">
         {solve.kind === "invalid"
@@ -341,7 +386,10 @@ export function ResultsTabs({ csvBase }: { csvBase?: string | null }) {
   return (
     <section className="ks-results" aria-labelledby="ks-results-title">
       <div className="ks-results-head">
-        <h2 id="ks-results-title">Results</h2>
+        <h2 id="ks-results-title">
+          Results
+          {shownName ? <span className="ks-results-case"> · {shownName}</span> : null}
+        </h2>
         <div role="tablist" aria-label="Results" className="ks-tabs" onKeyDown={onTabKey}>
           {tabs.map((tab) => (
             <button

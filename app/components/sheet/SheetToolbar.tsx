@@ -1,6 +1,8 @@
 // The bar above the sheet: the panels, history, layout and view actions, and the save state.
 // It stays one slim row: longer explanations go to Checks or a tooltip, never into the bar.
+import { useId, useMemo } from "react";
 import { useReactFlow } from "@xyflow/react";
+import { availableView, caseChoices, caseViewValue } from "./caseView.ts";
 import { fixed } from "#app/lib/format.ts";
 import { afterNextPaint } from "./shortcuts.ts";
 import { useSheet, useSheetActions, useSheetHistory, type SaveStatus } from "./sheetStore.ts";
@@ -72,7 +74,45 @@ export interface PanelToggles {
 
 /** "Solved in" only for a load flow that converged: beside "did not converge" it would mislead. */
 function useSolvedInMs(): number | undefined {
-  return useSheet((s) => (s.solve.kind === "solved" && s.solve.readings.result.loadFlow.converged ? s.solve.readings.elapsedMs : undefined));
+  return useSheet((s) =>
+    s.solve.kind === "envelope"
+      ? s.solve.envelope.elapsedMs
+      : s.solve.kind === "solved" && s.solve.readings.result.loadFlow.converged
+        ? s.solve.readings.elapsedMs
+        : undefined,
+  );
+}
+
+/** Which operating case Readings and Results show; only a network with cases offers a choice. */
+export function CasePicker() {
+  const actions = useSheetActions();
+  const cases = useSheet((s) => s.document.cases);
+  const view = useSheet((s) => s.caseView);
+  const choices = useMemo(() => caseChoices({ cases }), [cases]);
+  const id = useId();
+  if (choices.length === 0) return null;
+  const value = caseViewValue(availableView({ cases }, view));
+  return (
+    <div className="ks-case-picker">
+      <label htmlFor={id}>Case</label>
+      <select
+        id={id}
+        className="ks-case-select"
+        value={value}
+        onChange={(event) => {
+          const chosen = choices.find((c) => c.value === event.target.value);
+          if (chosen) actions.setCaseView(chosen.view);
+        }}
+        title="The operating case the Readings and Results show, or the envelope across all of them"
+      >
+        {choices.map((c) => (
+          <option key={c.value} value={c.value}>
+            {c.label}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
 }
 
 export function SheetToolbar({ onFit, panels }: { onFit(): void; panels: PanelToggles }) {
@@ -115,6 +155,7 @@ export function SheetToolbar({ onFit, panels }: { onFit(): void; panels: PanelTo
           Fit
         </button>
       </div>
+      <CasePicker />
       <div className="ks-tool-group">
         <button type="button" className="btn btn-small" aria-pressed={showReadings} onClick={() => actions.setShowReadings(!showReadings)} aria-keyshortcuts="R">
           Readings

@@ -1,12 +1,16 @@
 // Solving in the browser after each edit: the same solveNetwork the command line and the API
-// use, timed, and turned into the lookups the sheet's Readings need.
+// use, timed, and turned into the lookups the sheet's Readings need; in the operating case the
+// picker shows, or the envelope across every case (caseView.ts).
 import { useEffect } from "react";
 import { solveNetwork } from "#solver/index.ts";
-import type { Check } from "#solver/results.ts";
+import type { Check, SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
 import { documentIssues } from "./documentIssues.ts";
 import { solvablePart } from "./solvablePart.ts";
+import { AS_DRAWN_VIEW, solveInView, type CaseView } from "./caseView.ts";
 import type { Readings, SheetStore, SolveState } from "./sheetStore.ts";
+import type { SheetIssue } from "./documentIssues.ts";
+import { branchEnvelopeRows, busEnvelopeRows } from "#solver/study/tables.ts";
 
 export const READINGS_MEASURE = "kilostep:edit-to-readings";
 
@@ -14,11 +18,15 @@ export const READINGS_MEASURE = "kilostep:edit-to-readings";
  * A draft solves its complete part (solvablePart.ts): readings there, the rest marked as left
  * out and its problems listed, never a sheet without numbers for one loose part.
  */
-export function solveForSheet(document: Network): SolveState {
+export function solveForSheet(document: Network, view: CaseView = AS_DRAWN_VIEW): SolveState {
   const started = performance.now();
   const problems = documentIssues(document);
   const part = problems.length ? solvablePart(document) : { network: document, leftOut: new Set<string>() };
   if (!part) return { kind: "invalid", issues: problems };
+  if (view.kind !== "as-drawn") {
+    const shown = solveShownCase(part.network, view, started, part.leftOut, problems);
+    if (shown) return shown;
+  }
   let outcome: ReturnType<typeof solveNetwork>;
   try {
     outcome = solveNetwork(part.network);
@@ -29,7 +37,39 @@ export function solveForSheet(document: Network): SolveState {
   if (!outcome.ok) {
     return { kind: "invalid", issues: problems.length ? problems : outcome.issues.map((i) => ({ message: `${i.path}: ${i.message}` })) };
   }
-  const { result, network } = outcome;
+  return { kind: "solved", readings: readingsOf(outcome.result, outcome.network, elapsedMs, part.leftOut, problems) };
+}
+
+/** One operating case, or the envelope across them all; undefined leaves the drawing as drawn. */
+function solveShownCase(network: Network, view: CaseView, started: number, leftOut: Set<string>, problems: SheetIssue[]): SolveState | undefined {
+  let solved: ReturnType<typeof solveInView>;
+  try {
+    solved = solveInView(network, view);
+  } catch (error) {
+    return { kind: "failed", message: `The solver stopped on this case: ${error instanceof Error ? error.message : String(error)}` };
+  }
+  const elapsedMs = performance.now() - started;
+  if (solved.kind === "as-drawn") return undefined;
+  if (solved.kind === "case") {
+    const readings = readingsOf(solved.result, solved.network, elapsedMs, leftOut, problems);
+    return { kind: "solved", readings: { ...readings, shownCase: solved.shownCase } };
+  }
+  const { study } = solved;
+  return {
+    kind: "envelope",
+    envelope: {
+      network: solved.network,
+      study,
+      elapsedMs,
+      buses: new Map(busEnvelopeRows(solved.network, study).map((row) => [row.id, row])),
+      branches: new Map(branchEnvelopeRows(solved.network, study).map((row) => [row.id, row])),
+      leftOut,
+      problems,
+    },
+  };
+}
+
+function readingsOf(result: SolveResult, network: Network, elapsedMs: number, leftOut: Set<string>, problems: SheetIssue[]): Readings {
   const converged = result.loadFlow.converged;
   const checksByElement = new Map<string, Check[]>();
   for (const check of result.checks) {
@@ -37,7 +77,7 @@ export function solveForSheet(document: Network): SolveState {
     if (list) list.push(check);
     else checksByElement.set(check.element, [check]);
   }
-  const readings: Readings = {
+  return {
     result,
     network,
     elapsedMs,
@@ -47,24 +87,23 @@ export function solveForSheet(document: Network): SolveState {
     sources: new Map(converged ? result.loadFlow.sources.map((s) => [s.id, s]) : []),
     faults: new Map((result.faults?.buses ?? []).map((f) => [f.id, f])),
     checksByElement,
-    leftOut: part.leftOut,
+    leftOut,
     problems,
   };
-  return { kind: "solved", readings };
 }
 
 /**
- * Re-solve whenever the document changes, at once and in the same store update's turn: every
- * change of the document is a committed value (Enter, leaving a field, a drop, the end of a drag,
- * an undo; typing and dragging stay outside the document until then), so there is nothing to wait
- * for, and React draws the edit and its Readings in one render.
+ * Re-solve whenever the document, or the case the picker shows, changes, at once and in the same
+ * store update's turn: every change of the document is a committed value (Enter, leaving a field,
+ * a drop, the end of a drag, an undo; typing and dragging stay outside the document until then),
+ * so there is nothing to wait for, and React draws the edit and its Readings in one render.
  */
 export function useLiveSolve(store: SheetStore): void {
   useEffect(() => {
-    const run = () => store.getState().actions.setSolve(solveForSheet(store.getState().document));
+    const run = () => store.getState().actions.setSolve(solveForSheet(store.getState().document, store.getState().caseView));
     run();
     return store.subscribe((state, previous) => {
-      if (state.document !== previous.document) run();
+      if (state.document !== previous.document || state.caseView !== previous.caseView) run();
     });
   }, [store]);
 }

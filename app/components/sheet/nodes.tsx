@@ -63,13 +63,36 @@ function ReadingBlock({ children }: { children: ReactNode }) {
 
 const useReadOnly = () => useSheet((s) => s.readOnly);
 
-/** A draft's element outside the solved part: drawn faint, with the reason one click away in Checks. */
+/**
+ * A draft's element outside the solved part, or one out of service (or without supply) in the
+ * operating case shown: drawn faint, with the reason in words.
+ */
 function useLeftOut(id: string): boolean {
-  return useSheet((s) => s.solve.kind === "solved" && s.solve.readings.leftOut.has(id));
+  return useSheet((s) => s.solve.kind === "solved" && (s.solve.readings.leftOut.has(id) || s.solve.readings.shownCase?.outOfService.has(id) === true));
 }
 
-function LeftOutMark() {
-  return <span className="ks-left-out-mark">not solved: see Checks</span>;
+function LeftOutMark({ id }: { id: string }) {
+  const outInCase = useSheet((s) => s.solve.kind === "solved" && s.solve.readings.shownCase?.outOfService.has(id) === true);
+  return <span className="ks-left-out-mark">{outInCase ? "out in this case" : "not solved: see Checks"}</span>;
+}
+
+/** In the envelope: the bus's lowest and highest voltage over the cases, each with its case. */
+function EnvelopeBusReadings({ id, bus }: { id: string; bus: Bus }) {
+  const row = useSheet((s) => (s.solve.kind === "envelope" ? s.solve.envelope.buses.get(id) : undefined));
+  if (!row) return null;
+  const band: [number, number] = [bus.vMinPu, bus.vMaxPu];
+  const low = voltageStatus(row.vMinPu, bus.vMinPu, bus.vMaxPu);
+  const high = voltageStatus(row.vMaxPu, bus.vMinPu, bus.vMaxPu);
+  return (
+    <ReadingBlock>
+      <div className={`ks-readings-envelope ${low ? statusCue[low].className : ""}`}>
+        lowest {readingAgainstLimit(row.vMinPu, band, "pu")} pu · {row.vMinCase.name} <StatusMark status={low} />
+      </div>
+      <div className={`ks-readings-envelope ${high ? statusCue[high].className : ""}`}>
+        highest {readingAgainstLimit(row.vMaxPu, band, "pu")} pu · {row.vMaxCase.name} <StatusMark status={high} />
+      </div>
+    </ReadingBlock>
+  );
 }
 
 function BusNodeView({ id, data }: NodeProps<SheetNode>) {
@@ -89,7 +112,7 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
   const minimumStatus = lowerLimitStatus(sk3MinMVA, bus.minFaultMVA, "MVA");
   return (
     <div className={`ks-node ks-bus${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+      {leftOut ? <LeftOutMark id={id} /> : null}
       <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
         <div className="ks-node-label ks-bus-label">
           <span className="ks-bus-name">{bus.name}</span>
@@ -129,6 +152,7 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
             ) : null}
           </ReadingBlock>
         ) : null}
+        <EnvelopeBusReadings id={id} bus={bus} />
       </div>
     </div>
   );
@@ -136,6 +160,17 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
 
 function BranchReadings({ id, fromSide, reversed, ratedLoading }: { id: string; fromSide: Side; reversed: boolean; ratedLoading: boolean }) {
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
+  const envelope = useSheet((s) => (s.solve.kind === "envelope" ? s.solve.envelope.branches.get(id) : undefined));
+  if (envelope) {
+    const highest = upperLimitStatus(envelope.maxLoadingPct, 100, "pct");
+    return (
+      <ReadingBlock>
+        <div className={`ks-readings-envelope ${highest ? statusCue[highest].className : ""}`}>
+          highest {readingAgainstLimit(envelope.maxLoadingPct, [100], "pct")} % · {envelope.maxLoadingCase.name} <StatusMark status={highest} />
+        </div>
+      </ReadingBlock>
+    );
+  }
   if (!reading) return null;
   // The reading's from-end may be the element's other terminal (a transformer reads HV to LV).
   const side: Side = reversed ? (fromSide === "left" ? "right" : "left") : fromSide;
@@ -169,7 +204,7 @@ function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
   const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+      {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {t.name}
         <span className="ks-node-sub">
@@ -208,7 +243,7 @@ function LineNodeView({ id, data }: NodeProps<SheetNode>) {
   const branch = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+      {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {line.name}
         <span className="ks-node-sub">
@@ -238,7 +273,7 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
   const Symbol = source.kind === "grid" ? GridInfeedSymbol : source.kind === "converter" ? ConverterSymbol : GeneratorSymbol;
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+      {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {source.name}
         <span className="ks-node-sub">{source.control === "slack" ? "slack" : source.control.toUpperCase()}</span>
@@ -268,7 +303,7 @@ function LoadNodeView({ id, data }: NodeProps<SheetNode>) {
   const side = data.sides.t ?? "left";
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+      {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {load.name}
         <span className="ks-node-sub">
@@ -288,7 +323,7 @@ function ShuntNodeView({ id, data }: NodeProps<SheetNode>) {
   const side = data.sides.t ?? "left";
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
-      {leftOut ? <LeftOutMark /> : null}
+      {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {shunt.name}
         <span className="ks-node-sub">{shunt.qMvar} Mvar</span>

@@ -10,6 +10,9 @@ import { temporal, type TemporalState } from "zundo";
 import type { Network } from "#solver/schema.ts";
 import type { Check, SolveResult } from "#solver/results.ts";
 import { documentIssues, type SheetIssue } from "./documentIssues.ts";
+import { AS_DRAWN_VIEW, type CaseView, type ShownCase } from "./caseView.ts";
+import type { Study } from "#solver/study/results.ts";
+import type { BranchEnvelopeRow, BusEnvelopeRow } from "#solver/study/tables.ts";
 import { applyMoves, parseWireId, replaceElement, type SheetContent, type SheetLayout, type TerminalId, type XY } from "./flowModel.ts";
 import { indexElements, type AnyElement } from "#app/lib/networkElements.ts";
 import {
@@ -46,13 +49,28 @@ export interface Readings {
   leftOut: Set<string>;
   /** Why they are left out: the draft's problems, empty for a complete network. */
   problems: SheetIssue[];
+  /** The operating case these readings are of, when the picker shows one rather than the drawing. */
+  shownCase?: ShownCase;
+}
+
+/** The envelope across every operating case: what the sheet shows when the picker says so. */
+export interface EnvelopeReadings {
+  network: Network;
+  /** The cases' load flows and the envelope, as the study engine gives them. */
+  study: Study;
+  elapsedMs: number;
+  buses: Map<string, BusEnvelopeRow>;
+  branches: Map<string, BranchEnvelopeRow>;
+  leftOut: Set<string>;
+  problems: SheetIssue[];
 }
 
 export type SolveState =
   | { kind: "pending" }
   | { kind: "invalid"; issues: SheetIssue[] }
   | { kind: "failed"; message: string }
-  | { kind: "solved"; readings: Readings };
+  | { kind: "solved"; readings: Readings }
+  | { kind: "envelope"; envelope: EnvelopeReadings };
 
 export interface SheetInit {
   networkId: string;
@@ -78,6 +96,8 @@ export interface SheetStoreState extends SheetContent {
   clipboard: Clipboard | null;
   showReadings: boolean;
   showFaults: boolean;
+  /** Which operating case the Readings and results show (the case picker). */
+  caseView: CaseView;
   helpOpen: boolean;
   notice: string | null;
   save: SaveStatus;
@@ -107,6 +127,7 @@ export interface SheetActions {
   redo(): void;
   setShowReadings(show: boolean): void;
   setShowFaults(show: boolean): void;
+  setCaseView(view: CaseView): void;
   setHelpOpen(open: boolean): void;
   dismissNotice(): void;
   setSave(save: SaveStatus): void;
@@ -219,6 +240,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
           },
           setShowReadings: (showReadings) => set({ showReadings }),
           setShowFaults: (showFaults) => set({ showFaults }),
+          setCaseView: (caseView) => set({ caseView }),
           setHelpOpen: (helpOpen) => set({ helpOpen }),
           dismissNotice: () => set({ notice: null }),
           setSave: (save) => set({ save }),
@@ -240,6 +262,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
           clipboard: null,
           showReadings: true,
           showFaults: false,
+          caseView: AS_DRAWN_VIEW,
           helpOpen: false,
           notice: null,
           save: savedState(init.document),
