@@ -190,14 +190,19 @@ export function regulateTaps(network: Network, solve: (network: Network) => Load
   let current = network;
   let result = solve(current);
   let solves = 1;
+  // Most networks regulate nothing: answer without reading a single voltage back.
+  if (regs.length === 0) return { result, network: current, taps: [], solves };
   const taps = new Map(regs.map((r) => [r.transformer.id, r.transformer.tapPct]));
   const searches = new Map<string, Search>(regs.map((r) => [r.transformer.id, { needsUp: -Infinity, needsDown: Infinity, perPct: null, singleSteps: false }]));
   const limited = new Set<string>();
   const held = new Set<string>();
   let lastMove: { id: string; fromPct: number; fromVPu: number } | null = null;
+  // Only the controlled buses' voltages are read back, so no map of every bus per solve.
+  const controlled = new Set(regs.map((r) => r.control.bus));
 
   for (let moves = 0; moves < MAX_TAP_MOVES && result.converged; moves++) {
-    const voltage = new Map(result.buses.map((b) => [b.id, b.vPu]));
+    const voltage = new Map<string, number>();
+    for (const b of result.buses) if (controlled.has(b.id)) voltage.set(b.id, b.vPu);
     if (lastMove) {
       // The measured sensitivity of the regulator that just moved, when it has the expected sign.
       const r = regs.find((x) => x.transformer.id === lastMove!.id)!;
