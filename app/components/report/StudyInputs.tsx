@@ -1,5 +1,6 @@
 // What each alternative of the saved study was asked to change beyond its voltage, as the
-// report prints it: conductor, taps and capital entries, or "as drawn".
+// report prints it: conductor (entered, or chosen by the ladder's sizing), taps and capital
+// entries, or "as drawn".
 import { fixed, kvText, moneyText } from "#app/lib/format.ts";
 import type { AlternativeOverrides, Ladder } from "#solver/ladder.ts";
 import type { Network } from "#solver/schema.ts";
@@ -38,7 +39,11 @@ export function StudyInputs({
                 <td>
                   {o.conductor
                     ? `${o.conductor.name ?? "entered"}: ${fixed(o.conductor.rOhmPerKm, 4)} + j${fixed(o.conductor.xOhmPerKm, 4)} Ω/km${o.conductor.ampacityA ? `, ${o.conductor.ampacityA} A` : ""}`
-                    : "as drawn"}
+                    : a.sizing?.chosen
+                      ? `${a.sizing.chosen.label}, sized from the library for a fault cleared in ${a.sizing.clearingTimeS} s`
+                      : a.sizing
+                        ? "as drawn (no library type passes)"
+                        : "as drawn"}
                 </td>
                 <td>{taps.length === 0 ? "as drawn" : taps.map(([id, t]) => `${tName(id)} ${t.tapPct! > 0 ? "+" : ""}${t.tapPct} %`).join("; ")}</td>
                 <td>
@@ -46,7 +51,9 @@ export function StudyInputs({
                     ? `${moneyText(a.money.capital.total, currency)} entered`
                     : o.capital?.lineCostPerKm !== undefined
                       ? `lines at ${moneyText(o.capital.lineCostPerKm, currency)} per km entered; transformers from unit costs`
-                      : "from unit costs"}
+                      : a.sizing?.chosen
+                        ? "from unit costs, line by its sized conductor"
+                        : "from unit costs"}
                 </td>
               </tr>
             );
