@@ -35,7 +35,7 @@ export type SheetLayout = Record<string, XY>;
 export const GRID_PX = 20;
 /** Default spacing of buses without a position in the document. */
 const BUS_SPACING_PX = 240;
-const BAR_HIT_WIDTH_PX = 24;
+export const BAR_HIT_WIDTH_PX = 24;
 export const BAR_HALF_THICKNESS_PX = 3;
 const MIN_BAR_HALF_LENGTH_PX = 40;
 const ATTACHMENT_SLOT_PX = 120;
@@ -124,6 +124,7 @@ function defaultOffsets(entries: Map<string, ElementEntry>, busCenters: Map<stri
     (taken.get(busId)?.[side] ?? []).every((other) => Math.abs(other - y) >= ATTACHMENT_SLOT_PX);
 
   const waiting: { id: string; entry: ElementEntry; busId: string }[] = [];
+  const parallels = new Map<string, number>();
   for (const [id, entry] of entries) {
     if (entry.kind === "bus") continue;
     const buses = terminalsOf(entry.kind)
@@ -133,6 +134,14 @@ function defaultOffsets(entries: Map<string, ElementEntry>, busCenters: Map<stri
     if ((entry.kind === "transformer" || entry.kind === "line") && buses.length === 1 && !layout[id]) {
       const [a] = terminalsOf(entry.kind);
       offsets.set(id, { x: terminalBus(entry, a) === buses[0] ? ATTACHMENT_OFFSET_PX : -ATTACHMENT_OFFSET_PX, y: 0 });
+    }
+    // Parallel branches (the same two buses) fan out below and above the first instead of
+    // being drawn on top of it.
+    if (buses.length === 2 && buses[0] !== buses[1] && !layout[id]) {
+      const pair = buses[0] < buses[1] ? `${buses[0]}\n${buses[1]}` : `${buses[1]}\n${buses[0]}`;
+      const before = parallels.get(pair) ?? 0;
+      parallels.set(pair, before + 1);
+      if (before > 0) offsets.set(id, { x: 0, y: (before % 2 === 1 ? 1 : -1) * Math.ceil(before / 2) * ATTACHMENT_SLOT_PX });
     }
     const single = entry.kind === "source" || entry.kind === "load" || entry.kind === "shunt";
     if (single && !layout[id]) {

@@ -10,6 +10,7 @@ import { UNEARTHED_NOTE } from "#solver/faults/index.ts";
 import { type LimitStatus, lowerLimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
 import { minShortCircuitRatio } from "#solver/equipmentRules.ts";
 import { useSheet } from "./sheetStore.ts";
+import { nameSubLine } from "./labelBoxes.ts";
 import {
   CapacitorSymbol,
   ConverterSymbol,
@@ -116,7 +117,7 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
       <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
         <div className="ks-node-label ks-bus-label">
           <span className="ks-bus-name">{bus.name}</span>
-          <span className="ks-bus-kv">{bus.nominalKV} kV</span>
+          <span className="ks-bus-kv">{nameSubLine("bus", bus)}</span>
         </div>
         <div className="ks-bar" style={{ background: stroke.colour, width: Math.max(5, stroke.strokePx + 3) }} aria-hidden="true" />
         <Handle
@@ -158,7 +159,20 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
   );
 }
 
-function BranchReadings({ id, fromSide, reversed, ratedLoading }: { id: string; fromSide: Side; reversed: boolean; ratedLoading: boolean }) {
+function BranchReadings({
+  id,
+  fromSide,
+  reversed,
+  ratedLoading,
+  children,
+}: {
+  id: string;
+  fromSide: Side;
+  reversed: boolean;
+  ratedLoading: boolean;
+  /** Further lines in the same block (a regulating tap), so they stack instead of overlapping. */
+  children?: ReactNode;
+}) {
   const reading = useSheet((s) => (s.solve.kind === "solved" ? s.solve.readings.branches.get(id) : undefined));
   const envelope = useSheet((s) => (s.solve.kind === "envelope" ? s.solve.envelope.branches.get(id) : undefined));
   if (envelope) {
@@ -192,6 +206,7 @@ function BranchReadings({ id, fromSide, reversed, ratedLoading }: { id: string; 
           </>
         ) : null}
       </div>
+      {children}
     </ReadingBlock>
   );
 }
@@ -207,9 +222,7 @@ function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
       {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {t.name}
-        <span className="ks-node-sub">
-          {t.ratedMVA} MVA · {t.hvKV}/{t.lvKV} kV{t.tapPct ? ` · tap ${t.tapPct > 0 ? "+" : ""}${t.tapPct} %` : ""}
-        </span>
+        <span className="ks-node-sub">{nameSubLine("transformer", t)}</span>
       </Label>
       <TransformerSymbol
         width={data.width}
@@ -221,15 +234,14 @@ function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
       />
       <Terminal id="hv" side={hvSide} readOnly={readOnly} />
       <Terminal id="lv" side={data.sides.lv ?? "right"} readOnly={readOnly} />
-      <BranchReadings id={id} fromSide={hvSide} reversed={branch ? branch.fromBus !== t.hvBus : false} ratedLoading />
-      {t.tapControl && branch?.tapPct !== undefined ? (
-        <ReadingBlock>
+      <BranchReadings id={id} fromSide={hvSide} reversed={branch ? branch.fromBus !== t.hvBus : false} ratedLoading>
+        {t.tapControl && branch?.tapPct !== undefined ? (
           <div className={branch.tapLimited ? statusCue.beyond.className : undefined}>
             regulating: tap {branch.tapPct > 0 ? "+" : ""}
             {readingNumber(branch.tapPct, "pct")} %{branch.tapLimited ? " · range ran out" : ""} <StatusMark status={branch.tapLimited ? "beyond" : undefined} />
           </div>
-        </ReadingBlock>
-      ) : null}
+        ) : null}
+      </BranchReadings>
     </div>
   );
 }
@@ -246,9 +258,7 @@ function LineNodeView({ id, data }: NodeProps<SheetNode>) {
       {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {line.name}
-        <span className="ks-node-sub">
-          {line.lengthKm} km {line.kind === "cable" ? "cable" : "overhead"}
-        </span>
+        <span className="ks-node-sub">{nameSubLine("line", line)}</span>
       </Label>
       <LineSymbol width={data.width} height={data.height} stroke={strokeOf(kv)} cable={line.kind === "cable"} />
       <Terminal id="from" side={fromSide} readOnly={readOnly} />
@@ -276,7 +286,7 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
       {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {source.name}
-        <span className="ks-node-sub">{source.control === "slack" ? "slack" : source.control.toUpperCase()}</span>
+        <span className="ks-node-sub">{nameSubLine("source", source)}</span>
       </Label>
       <Symbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
       <Terminal id="t" side={side} readOnly={readOnly} />
@@ -306,9 +316,7 @@ function LoadNodeView({ id, data }: NodeProps<SheetNode>) {
       {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {load.name}
-        <span className="ks-node-sub">
-          {load.pMW} MW · {load.qMvar} Mvar
-        </span>
+        <span className="ks-node-sub">{nameSubLine("load", load)}</span>
       </Label>
       <LoadSymbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
       <Terminal id="t" side={side} readOnly={readOnly} />
@@ -326,7 +334,7 @@ function ShuntNodeView({ id, data }: NodeProps<SheetNode>) {
       {leftOut ? <LeftOutMark id={id} /> : null}
       <Label>
         {shunt.name}
-        <span className="ks-node-sub">{shunt.qMvar} Mvar</span>
+        <span className="ks-node-sub">{nameSubLine("shunt", shunt)}</span>
       </Label>
       <CapacitorSymbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
       <Terminal id="t" side={side} readOnly={readOnly} />
