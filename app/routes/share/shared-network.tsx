@@ -11,7 +11,7 @@ import { SheetEditor } from "#app/components/sheet/SheetEditor.tsx";
 import { getDb } from "#app/lib/db.server.ts";
 import { formatDateTime } from "#app/lib/format.ts";
 import { closedLinkAnswer } from "#app/lib/networkReader.server.ts";
-import { currentDocument, checkedRevision } from "#app/lib/networks.server.ts";
+import { checkedDraft, currentDocument } from "#app/lib/networks.server.ts";
 import { grantedOrPageError, networkAccess } from "#app/lib/permissions.server.ts";
 import { reviewNotesFor } from "#app/lib/reviewNotes.server.ts";
 import { getSessionUser } from "#app/lib/session.server.ts";
@@ -47,7 +47,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     currentDocument(db, network),
     reviewNotesFor(db, network.id, { userId: null, canView: true, canEdit: false, guestLinkId: link.id }),
   ]);
-  const checked = checkedRevision(network, revision);
+  // A draft opens as the owner's sheet opens it: read only, its problems in Checks and its
+  // complete part solved. Only a document of the wrong shape is refused.
+  const checked = checkedDraft(network, revision);
   return {
     kind: "view" as const,
     here,
@@ -57,6 +59,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     expiresAt: link.expires_at,
     document: checked.ok ? checked.network : null,
     issues: checked.ok ? [] : checked.issues,
+    problems: checked.ok ? checked.problems : [],
     notes,
   };
 }
@@ -90,7 +93,7 @@ export default function SharedNetwork({ loaderData }: Route.ComponentProps) {
       </section>
     );
   }
-  const { here, id, name, revision, expiresAt, document, issues, notes } = loaderData;
+  const { here, id, name, revision, expiresAt, document, issues, problems, notes } = loaderData;
   return (
     <>
       <PageTitle
@@ -101,6 +104,7 @@ export default function SharedNetwork({ loaderData }: Route.ComponentProps) {
             {formatDateTime(revision.savedAt)}
             {revision.by ? ` by ${revision.by}` : ""}
             {expiresAt ? ` · this link works until ${formatDateTime(expiresAt)}` : ""}
+            {problems.length ? ` · a draft with ${problems.length === 1 ? "one problem" : `${problems.length} problems`}, listed in Checks` : ""}
           </>
         }
         actions={

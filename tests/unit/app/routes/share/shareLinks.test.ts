@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { loader as networksApi } from "#app/routes/api/networks.ts";
+import { action as changeNetwork } from "#app/routes/api/network.ts";
 import { loader as sharedNetworkLoader } from "#app/routes/share/shared-network.tsx";
 import { getDb } from "#app/lib/db.server.ts";
 import { networkAccess, teamAccess } from "#app/lib/permissions.server.ts";
@@ -8,8 +9,8 @@ import { createShareLink, openShareLink, revokeShareLink, shareLinkActor } from 
 import { listAuditEvents } from "#db/auditEvents.ts";
 import { markNetworkDeleted } from "#db/networks.ts";
 import { listShareLinks, liveGrantRole, listGrantedNetworks } from "#db/shareLinks.ts";
-import { call, getRequest, ORIGIN } from "../harness.ts";
-import { freshWorld, makePeople, type People, type World } from "../reviewWorld.ts";
+import { call, getRequest, jsonRequest, ORIGIN } from "../harness.ts";
+import { demoDocument, freshWorld, makePeople, type People, type World } from "../reviewWorld.ts";
 
 let people: People;
 let world: World;
@@ -155,6 +156,30 @@ describe("the shared page and its record of use", () => {
     expect(signedIn.status).toBe(302);
     const uses = (await listShareLinks(db, own.networkId)).flatMap((l) => l.uses);
     expect(uses).toEqual([expect.objectContaining({ userName: people.outsider.name })]);
+  });
+
+  it("opens a draft read only with its problems, as the owner's sheet does; a wrong shape is still refused", async () => {
+    const own = await freshWorld(people, "Links draft");
+    const network = await networkRow(own.networkId);
+    const draft = demoDocument("Links draft");
+    (draft.loads as { bus: string }[])[0].bus = "";
+    const saved = await call(
+      changeNetwork,
+      jsonRequest("PUT", `/api/networks/${own.networkId}`, { cookie: people.cookies.owner, body: { revision: network.current_revision, document: draft } }),
+      { networkId: String(own.networkId) },
+    );
+    expect(saved.status).toBe(200);
+    expect(saved.body.problems).toHaveLength(1);
+    const page = await call(sharedNetworkLoader, getRequest(`/s/${own.tokens.viewLink}`), { token: own.tokens.viewLink });
+    expect(page.status).toBe(200);
+    expect(page.body.kind).toBe("view");
+    expect(page.body.document.loads[0].bus).toBe("");
+    expect(page.body.issues).toEqual([]);
+    expect(page.body.problems).toEqual(saved.body.problems);
+    // The link still reads only its own network, and only while it is live.
+    const revoked = await call(sharedNetworkLoader, getRequest(`/s/${own.tokens.revokedLink}`), { token: own.tokens.revokedLink });
+    expect(revoked.status).toBe(410);
+    expect(revoked.body.document).toBeUndefined();
   });
 
   it("shows nothing but a sentence for a revoked or expired link", async () => {
