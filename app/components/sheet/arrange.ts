@@ -17,6 +17,7 @@
 // cut keeps the elements' order, changes no heights and cannot make a new overlap, so one pass
 // leaves none.
 import {
+  BAR_HIT_WIDTH_PX,
   GRID_PX,
   anchorOf,
   busCenterMap,
@@ -28,7 +29,7 @@ import {
   type SheetLayout,
   type XY,
 } from "./flowModel.ts";
-import { footprintOf, overlappingBoxes, sheetBoxes, type ElementFootprint } from "./labelBoxes.ts";
+import { footprintOf, overlappingBoxes, sheetBoxes, type ShownReadings } from "./labelBoxes.ts";
 import { distanceFromSlack } from "#solver/topology.ts";
 import type { Network } from "#solver/schema.ts";
 import type { ElementEntry } from "#app/lib/networkElements.ts";
@@ -36,7 +37,9 @@ import type { ElementEntry } from "#app/lib/networkElements.ts";
 const snapUp = (v: number) => Math.ceil(v / GRID_PX) * GRID_PX;
 /** Space between footprints stacked in a column, and between columns. */
 const ROW_GAP_PX = GRID_PX;
-const COLUMN_GAP_PX = 2 * GRID_PX;
+/** Between words of neighbouring columns, and the shortest wire between two symbols. */
+const LABEL_CLEARANCE_PX = 6;
+const MIN_WIRE_PX = 2 * GRID_PX;
 /** A bar's least reach either side of its centre (flowModel's minimum). */
 const BAR_MIN_HALF_PX = 40;
 /** A wire lands on a bar this far from the bar's end, at least (flowModel's margin). */
@@ -74,7 +77,7 @@ function place(content: SheetContent, centres: Map<string, XY>): SheetContent {
 }
 
 /** Column and row of every element (rows in sheet pixels, columns as numbers). */
-function walk(content: SheetContent): { column: Map<string, number>; y: Map<string, number>; footprints: Map<string, ElementFootprint> } {
+function walk(content: SheetContent, shown: ShownReadings): { column: Map<string, number>; y: Map<string, number>; boxes: Map<number, ColumnBox[]> } {
   const { entries, busCenters } = sheetGeometry(content.document, {});
   const busIds = new Set(busCenters.keys());
   const distance = distanceFromSlack(content.document);
@@ -99,7 +102,7 @@ function walk(content: SheetContent): { column: Map<string, number>; y: Map<stri
     else column.set(id, 2 * (distance.get(buses[0]) ?? 0) + 1 + (entry.kind === "source" ? -1 : 1));
   }
 
-  const footprints = new Map([...entries].map(([id, entry]) => [id, footprintOf(entry)]));
+  const footprints = new Map([...entries].map(([id, entry]) => [id, footprintOf(entry, shown)]));
   // Reach above and below an element's centre, words included; a bar's below-reach is settled
   // when its busbar is finished.
   const up = (id: string) => {
@@ -113,6 +116,7 @@ function walk(content: SheetContent): { column: Map<string, number>; y: Map<stri
     return body + footprints.get(id)!.below;
   };
   const nextFree = new Map<number, number>();
+  const barBelow = new Map<string, number>();
   const y = new Map<string, number>();
   const lowest = () => Math.max(0, ...nextFree.values());
   const fit = (id: string, desired: number) => Math.max(desired, (nextFree.get(column.get(id)!) ?? -Infinity) + up(id));
@@ -130,6 +134,7 @@ function walk(content: SheetContent): { column: Map<string, number>; y: Map<stri
       if (landing !== undefined) reach = Math.max(reach, landing - at);
     }
     const barBottom = at + Math.max(BAR_MIN_HALF_PX, snapUp(reach + BAR_END_MARGIN_PX));
+    barBelow.set(busId, barBottom - at);
     const col = column.get(busId)!;
     nextFree.set(col, Math.max(nextFree.get(col)!, barBottom + footprints.get(busId)!.below + ROW_GAP_PX));
   };
@@ -170,29 +175,80 @@ function walk(content: SheetContent): { column: Map<string, number>; y: Map<stri
     }
   }
   for (const id of entries.keys()) if (!y.has(id)) put(id, snapUp(fit(id, 0)));
-  return { column, y, footprints };
+  // Each element's boxes (symbol or bar, name, Readings) as rows and half-widths about its column.
+  const boxes = new Map<number, ColumnBox[]>();
+  for (const [id, entry] of entries) {
+    const at = y.get(id)!;
+    const f = footprints.get(id)!;
+    const top = at - (entry.kind === "bus" ? BAR_MIN_HALF_PX : partSize(entry.kind).height / 2);
+    const bottom = at + (entry.kind === "bus" ? (barBelow.get(id) ?? BAR_MIN_HALF_PX) : partSize(entry.kind).height / 2);
+    const body = entry.kind === "bus" ? BAR_HIT_WIDTH_PX / 2 : partSize(entry.kind).width / 2;
+    const own: ColumnBox[] = [
+      { t: top - f.above, b: top - (f.above - f.nameHeight), half: f.nameWidth / 2, body: false },
+      { t: top, b: bottom, half: body, body: true },
+    ];
+    if (f.readingsHeight) own.push({ t: bottom + (f.below - f.readingsHeight), b: bottom + f.below, half: f.readingsWidth / 2, body: false });
+    const col = column.get(id)!;
+    const list = boxes.get(col);
+    if (list) list.push(...own);
+    else boxes.set(col, own);
+  }
+  return { column, y, boxes };
 }
 
-/** Column centres from the columns' widest footprints. */
-function columnCentres(column: Map<string, number>, footprints: Map<string, ElementFootprint>): Map<number, number> {
-  const halfWidth = new Map<number, number>();
-  for (const [id, col] of column) halfWidth.set(col, Math.max(halfWidth.get(col) ?? 0, footprints.get(id)!.halfWidth));
-  const centres = new Map<number, number>();
-  let x = 0;
-  let previousHalf: number | undefined;
-  for (const col of [...halfWidth.keys()].sort((a, b) => a - b)) {
-    const half = halfWidth.get(col)!;
-    if (previousHalf !== undefined) x = snapUp(x + previousHalf + COLUMN_GAP_PX + half);
-    centres.set(col, x);
-    previousHalf = half;
+interface ColumnBox {
+  t: number;
+  b: number;
+  half: number;
+  /** A symbol or bar, which a wire joins: kept a wire's length from the next column's. */
+  body: boolean;
+}
+
+/** The most `right` column's boxes must stand right of `left` column's, where their rows meet. */
+function separation(left: ColumnBox[], right: ColumnBox[]): number {
+  let need = -Infinity;
+  let start = 0;
+  for (const b of right) {
+    while (start < left.length && left[start].b + LABEL_CLEARANCE_PX <= b.t) start++;
+    for (let i = start; i < left.length && left[i].t < b.b + LABEL_CLEARANCE_PX; i++) {
+      const a = left[i];
+      if (a.b + LABEL_CLEARANCE_PX <= b.t) continue;
+      need = Math.max(need, a.half + b.half + (a.body && b.body ? MIN_WIRE_PX : LABEL_CLEARANCE_PX));
+    }
   }
+  return need;
+}
+
+/**
+ * Column centres, left to right: each column as close to the ones before as their boxes allow
+ * where their rows meet (a wide name beside a short bar takes no room from it), and a wire's
+ * length between symbols.
+ */
+function columnCentres(boxes: Map<number, ColumnBox[]>): Map<number, number> {
+  const columns = [...boxes.keys()].sort((a, b) => a - b);
+  const widest = new Map(columns.map((c) => [c, Math.max(...boxes.get(c)!.map((box) => box.half))]));
+  for (const c of columns) boxes.get(c)!.sort((a, b) => a.t - b.t);
+  const centres = new Map<number, number>();
+  columns.forEach((c, i) => {
+    let x = 0;
+    // Look back only as far as a column whose widest box could still reach this one.
+    for (let k = i - 1; k >= 0; k--) {
+      const earlier = columns[k];
+      const at = centres.get(earlier)!;
+      if (k < i - 1 && at + widest.get(earlier)! + widest.get(c)! + MIN_WIRE_PX <= x) break;
+      const need = separation(boxes.get(earlier)!, boxes.get(c)!);
+      if (need > -Infinity) x = Math.max(x, at + need);
+      if (k === i - 1) x = Math.max(x, at + MIN_WIRE_PX);
+    }
+    centres.set(c, snapUp(x));
+  });
   return centres;
 }
 
 /** Move everything right of each overlap far enough right to clear it (see the note at the top). */
-function pullApartSideways(content: SheetContent, centres: Map<string, XY>): Map<string, XY> {
+function pullApartSideways(content: SheetContent, centres: Map<string, XY>, shown: ShownReadings): Map<string, XY> {
   const placed = place(content, centres);
-  const pairs = overlappingBoxes(sheetBoxes(sheetGeometry(placed.document, placed.layout)));
+  const pairs = overlappingBoxes(sheetBoxes(sheetGeometry(placed.document, placed.layout), shown));
   if (pairs.length === 0) return centres;
   const order = new Map([...centres.keys()].map((id, i) => [id, i]));
   const compare = (a: string, b: string) => centres.get(a)!.x - centres.get(b)!.x || order.get(a)! - order.get(b)!;
@@ -214,10 +270,11 @@ function pullApartSideways(content: SheetContent, centres: Map<string, XY>): Map
   return moved;
 }
 
-export function arrangeLeftToRight(content: SheetContent): SheetContent {
-  const { column, y, footprints } = walk(content);
-  const x = columnCentres(column, footprints);
+/** Arranged for the Readings the sheet shows now (with or without fault levels). */
+export function arrangeLeftToRight(content: SheetContent, shown: ShownReadings = { faults: false }): SheetContent {
+  const { column, y, boxes } = walk(content, shown);
+  const x = columnCentres(boxes);
   const centres = new Map<string, XY>();
   for (const [id, col] of column) centres.set(id, { x: x.get(col)!, y: y.get(id)! });
-  return place(content, pullApartSideways(content, centres));
+  return place(content, pullApartSideways(content, centres, shown));
 }

@@ -65,21 +65,24 @@ export function nameSubLine(kind: ElementKind, element: AnyElement): string {
   }
 }
 
+/** What the sheet shows besides names: the fault levels are a toggle (Fault levels in the toolbar). */
+export interface ShownReadings {
+  faults: boolean;
+}
+
 /**
  * The longest Readings an element can show, with every figure at its widest (the sheet writes
  * at most five significant figures and a sign), so a layout made before a solve, or kept while
- * the numbers change, still has room for them. Fault lines count too: they are one toggle away.
+ * the numbers change, still has room for them.
  */
-function widestReadings(entry: ElementEntry): string[] {
+function widestReadings(entry: ElementEntry, shown: ShownReadings): string[] {
   switch (entry.kind) {
     case "bus": {
       const bus = entry.element as Bus;
-      return [
-        "−1234.5 kV ✕",
-        "1.0005 pu ∠ −123.45°",
-        "I″k3 123.45 kA · I″k1 123.45 kA ✕",
-        `S″k3 min 12345.6 MVA${bus.minFaultMVA !== undefined ? " (asked 12345.6)" : ""} ✕`,
-      ];
+      const lines = ["−1234.5 kV ✕", "1.0005 pu ∠ −123.45°"];
+      if (shown.faults)
+        lines.push("I″k3 123.45 kA · I″k1 123.45 kA ✕", `S″k3 min 12345.6 MVA${bus.minFaultMVA !== undefined ? " (asked 12345.6)" : ""} ✕`);
+      return lines;
     }
     case "transformer":
     case "line": {
@@ -89,7 +92,7 @@ function widestReadings(entry: ElementEntry): string[] {
     }
     case "source": {
       const lines = ["−1234.5 MW · −1234.5 Mvar"];
-      if ((entry.element as Source).kind === "converter") lines.push("SCR 123.45 ✕");
+      if (shown.faults && (entry.element as Source).kind === "converter") lines.push("SCR 123.45 ✕");
       return lines;
     }
     default:
@@ -122,13 +125,13 @@ export interface ElementFootprint {
   readingsHeight: number;
 }
 
-export function footprintOf(entry: ElementEntry): ElementFootprint {
+export function footprintOf(entry: ElementEntry, shown: ShownReadings): ElementFootprint {
   const nameWidth = Math.max(textWidthPx(entry.element.name, NAME_FONT_PX), textWidthPx(nameSubLine(entry.kind, entry.element), SUB_FONT_PX));
   const nameHeight = Math.ceil(NAME_LINE_PX + SUB_LINE_PX);
-  const lines = widestReadings(entry);
+  const lines = widestReadings(entry, shown);
   const readingsWidth = lines.length ? Math.max(...lines.map((l) => textWidthPx(l, READING_FONT_PX))) + READING_FRAME_X_PX : 0;
   // A fault line carries a dotted rule above it.
-  const rules = entry.kind === "bus" ? 2 : 0;
+  const rules = entry.kind === "bus" && shown.faults ? 2 : 0;
   const readingsHeight = lines.length ? Math.ceil(lines.length * READING_LINE_PX + READING_FRAME_Y_PX + rules) : 0;
   const symbolWidth = entry.kind === "bus" ? BAR_HIT_WIDTH_PX : partSize(entry.kind).width;
   return {
@@ -143,11 +146,11 @@ export function footprintOf(entry: ElementEntry): ElementFootprint {
 }
 
 /** Every box of the drawing: symbols, bars, names and Readings, in sheet coordinates. */
-export function sheetBoxes(geometry: SheetGeometry): LabelBox[] {
+export function sheetBoxes(geometry: SheetGeometry, shown: ShownReadings): LabelBox[] {
   const boxes: LabelBox[] = [];
   for (const [id, entry] of geometry.entries) {
     const c = geometry.centers.get(id)!;
-    const f = footprintOf(entry);
+    const f = footprintOf(entry, shown);
     let top: number;
     let bottom: number;
     if (entry.kind === "bus") {

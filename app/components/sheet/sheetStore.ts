@@ -230,7 +230,7 @@ export function createSheetStore(init: SheetInit): SheetStore {
           arrange: async () => {
             if (get().readOnly) return;
             const { arrangeLeftToRight } = await import("./arrange.ts");
-            apply(arrangeLeftToRight(content()));
+            apply(arrangeLeftToRight(content(), { faults: get().showFaults }));
           },
           undo: () => {
             if (!get().readOnly) history().undo();

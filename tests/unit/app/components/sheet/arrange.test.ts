@@ -3,7 +3,7 @@ import { describe, expect, it } from "vitest";
 import { validateNetwork, type Network } from "#solver/schema.ts";
 import { arrangeLeftToRight } from "#app/components/sheet/arrange.ts";
 import { documentToFlow, GRID_PX, sheetGeometry, type SheetContent } from "#app/components/sheet/flowModel.ts";
-import { overlappingBoxes, sheetBoxes, textWidthPx, type LabelBox } from "#app/components/sheet/labelBoxes.ts";
+import { overlappingBoxes, sheetBoxes, textWidthPx, type LabelBox, type ShownReadings } from "#app/components/sheet/labelBoxes.ts";
 import { previewLoadsCsv } from "#app/lib/imports/loadsCsv.ts";
 import { sheetFeeder } from "../../../../bench/sheetFeeder.ts";
 
@@ -16,8 +16,8 @@ function load(file: string): Network {
 }
 
 /** Overlapping pairs of boxes (symbols, bars, names, Readings), named for the failure message. */
-function overlaps(content: SheetContent): string[] {
-  return overlappingBoxes(sheetBoxes(sheetGeometry(content.document, content.layout))).map(([a, b]) => `${a.owner} ${a.part} × ${b.owner} ${b.part}`);
+function overlaps(content: SheetContent, shown: ShownReadings = { faults: false }): string[] {
+  return overlappingBoxes(sheetBoxes(sheetGeometry(content.document, content.layout), shown)).map(([a, b]) => `${a.owner} ${a.part} × ${b.owner} ${b.part}`);
 }
 
 /** A large loads import: 120 rows spread over every busbar, names short and long. */
@@ -51,6 +51,9 @@ describe("arrange left to right", () => {
         expect(Math.abs(n.position.y % GRID_PX)).toBe(0);
       }
       expect(overlaps(arranged)).toEqual([]);
+      // Arranged with fault levels shown, their longer Readings are kept clear too.
+      const withFaults = { faults: true };
+      expect(overlaps(arrangeLeftToRight({ document: doc, layout: {} }, withFaults), withFaults)).toEqual([]);
       // the document changed only in bus positions
       expect(arranged.document.buses.map((b) => b.id)).toEqual(doc.buses.map((b) => b.id));
       expect(arranged.document.lines).toBe(doc.lines);
@@ -62,6 +65,7 @@ describe("arrange left to right", () => {
       const imported = withImportedLoads(load(file));
       expect(imported.loads.length).toBeGreaterThanOrEqual(120);
       expect(overlaps(arrangeLeftToRight({ document: imported, layout: {} })), file).toEqual([]);
+      expect(overlaps(arrangeLeftToRight({ document: imported, layout: {} }, { faults: true }), { faults: true }), `${file} with fault levels`).toEqual([]);
     }
   });
 
@@ -70,7 +74,7 @@ describe("arrange left to right", () => {
       const doc = withParallelLines(load("tarn-head-calder-flats.json"), copies);
       expect(overlaps(arrangeLeftToRight({ document: doc, layout: {} })), `${copies + 1} circuits`).toEqual([]);
       // Before any arranging, the default places fan the circuits out instead of stacking them.
-      const drawn = overlappingBoxes(sheetBoxes(sheetGeometry(doc, {}))).filter(([a, b]) => a.part === "symbol" && b.part === "symbol");
+      const drawn = overlappingBoxes(sheetBoxes(sheetGeometry(doc, {}), { faults: false })).filter(([a, b]) => a.part === "symbol" && b.part === "symbol");
       expect(drawn.map(([a, b]) => `${a.owner} × ${b.owner}`)).toEqual([]);
     }
   });
