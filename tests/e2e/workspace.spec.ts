@@ -52,6 +52,21 @@ for (const size of sizes) {
       // Results sit beside the drawing's lower edge, on screen with it.
       const results = await page.locator(".ks-results").boundingBox();
       expect(results!.y).toBeLessThan(size.height);
+      // Results open tall enough for several whole rows, not one, before the splitter is touched.
+      const wholeRows = await page.evaluate(() => {
+        const panel = document.querySelector(".ks-results-panel")!.getBoundingClientRect();
+        return [...document.querySelectorAll(".ks-results-panel tbody tr")].filter((row) => row.getBoundingClientRect().bottom <= panel.bottom + 1).length;
+      });
+      expect(wholeRows).toBeGreaterThanOrEqual(3);
+    }
+    if (size.width < 768) {
+      // On a phone Results are a list of cards, those beyond or near a limit first, under Checks.
+      const cards = page.locator(".ks-result-card");
+      await expect(cards.first()).toBeVisible();
+      expect(await page.locator(".ks-results-panel table").count()).toBe(0);
+      await expect(cards.first()).toContainText(/near a limit|beyond a limit/);
+      const checksTop = (await page.locator(".ks-checks").boundingBox())!.y;
+      expect(checksTop).toBeLessThan((await page.locator(".ks-results").boundingBox())!.y);
     }
     // At Fit a reading's first line (the one kept when zoomed out) is drawn at least 9 px high.
     const readingPx = await page

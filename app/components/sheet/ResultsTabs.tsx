@@ -1,12 +1,13 @@
 // Results under the sheet: buses, branches, sources, totals and fault levels as sortable tables,
 // the voltage profile along the chain, CSV downloads, and the caution every results view carries.
-import { lazy, Suspense, useMemo, useRef, useState, type KeyboardEvent, type ReactNode } from "react";
+import { lazy, Suspense, useMemo, useRef, useState, useSyncExternalStore, type KeyboardEvent, type ReactNode } from "react";
 import {
   flexRender,
   getCoreRowModel,
   getSortedRowModel,
   useReactTable,
   type ColumnDef,
+  type Row,
   type SortingState,
 } from "@tanstack/react-table";
 import type { Network } from "#solver/schema.ts";
@@ -80,8 +81,70 @@ function cellClass(meta: ColumnMeta | undefined): string | undefined {
   return [meta?.numeric ? "num" : "", meta?.sticky ? "ks-sticky-name" : ""].filter(Boolean).join(" ") || undefined;
 }
 
+/** A phone's width (sheet.css stacks the workspace below it): results become a list of cards. */
+const NARROW_QUERY = "(max-width: 767px)";
+
+function subscribeNarrow(onChange: () => void) {
+  const query = window.matchMedia(NARROW_QUERY);
+  query.addEventListener("change", onChange);
+  return () => query.removeEventListener("change", onChange);
+}
+
+function useNarrow(): boolean {
+  return useSyncExternalStore(
+    subscribeNarrow,
+    () => window.matchMedia(NARROW_QUERY).matches,
+    () => false,
+  );
+}
+
+/** Figures a card shows under the element's name and status: the table's first columns. */
+const CARD_FIGURES = 6;
+
+/**
+ * The phone's results: one card per element with its status and key figures, the elements that
+ * break a limit first (then those near one), so the list starts with what Checks names.
+ */
+function ResultCards<T>({ caption, rows }: { caption: string; rows: Row<T>[] }) {
+  const severity = (row: Row<T>) => (row.getAllCells().some((c) => c.column.id === "status") ? (row.getValue("status") as number) : -1);
+  const ordered = rows.map((row, i) => ({ row, i })).sort((a, b) => severity(b.row) - severity(a.row) || a.i - b.i);
+  return (
+    <ul className="ks-result-cards" aria-label={caption}>
+      {ordered.map(({ row }) => {
+        const cells = row.getVisibleCells();
+        const name = cells.find((c) => (c.column.columnDef.meta as ColumnMeta | undefined)?.sticky);
+        const status = cells.find((c) => c.column.id === "status");
+        const figures = cells.filter((c) => c !== name && c !== status).slice(0, CARD_FIGURES);
+        return (
+          <li key={row.id} className="ks-result-card">
+            <div className="ks-result-card-head">
+              <span className="ks-result-card-name">{name ? flexRender(name.column.columnDef.cell, name.getContext()) : null}</span>
+              {status ? flexRender(status.column.columnDef.cell, status.getContext()) : null}
+            </div>
+            <dl>
+              {figures.map((cell) => {
+                const meta = cell.column.columnDef.meta as ColumnMeta | undefined;
+                return (
+                  <div key={cell.id}>
+                    <dt>
+                      {typeof cell.column.columnDef.header === "string" ? cell.column.columnDef.header : cell.column.id}
+                      {meta?.unit ? ` (${meta.unit})` : null}
+                    </dt>
+                    <dd className={meta?.numeric ? "num" : undefined}>{flexRender(cell.column.columnDef.cell, cell.getContext())}</dd>
+                  </div>
+                );
+              })}
+            </dl>
+          </li>
+        );
+      })}
+    </ul>
+  );
+}
+
 function ResultsTable<T>({ caption, data, columns }: { caption: string; data: T[]; columns: ColumnDef<T>[] }) {
   const [sorting, setSorting] = useState<SortingState>([]);
+  const narrow = useNarrow();
   const table = useReactTable({
     data,
     columns,
@@ -90,6 +153,7 @@ function ResultsTable<T>({ caption, data, columns }: { caption: string; data: T[
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
   });
+  if (narrow) return <ResultCards caption={caption} rows={table.getRowModel().rows} />;
   return (
     <div className="ks-table-wrap">
       <table className="data-table ks-results-table">

@@ -16,7 +16,7 @@ import type { EquipmentTypes } from "./EquipmentPicker.tsx";
 import { freeSpotNear, GRID_PX, partSize, sheetGeometry, type XY } from "./flowModel.ts";
 import { READINGS_MEASURE, useLiveSolve } from "./liveSolve.ts";
 import { PartsShelf } from "./PartsShelf.tsx";
-import { DEFAULT_RESULTS_SHARE, ResultsSplitter } from "./ResultsSplitter.tsx";
+import { DEFAULT_RESULTS_SHARE, firstResultsShare, ResultsSplitter } from "./ResultsSplitter.tsx";
 import { ResultsTabs } from "./ResultsTabs.tsx";
 import { ConflictBanner, DraftBanner, NoticeToast } from "./SheetBanners.tsx";
 import { SheetCanvas } from "./SheetCanvas.tsx";
@@ -93,8 +93,21 @@ function EditorLayout({
   const [shelfOpen, setShelfOpen] = useState(true);
   const [dockOpen, setDockOpen] = useState(true);
   const [resultsShare, setResultsShare] = useState(DEFAULT_RESULTS_SHARE);
+  const centreRef = useRef<HTMLDivElement>(null);
+  const resultsSharedByHand = useRef(false);
 
   useLiveSolve(store);
+
+  // Results start with what the drawing can spare of this window, until the planner drags them.
+  useEffect(() => {
+    const fitResults = () => {
+      if (resultsSharedByHand.current || !centreRef.current) return;
+      setResultsShare(firstResultsShare(centreRef.current.getBoundingClientRect().height, window.innerHeight));
+    };
+    fitResults();
+    window.addEventListener("resize", fitResults);
+    return () => window.removeEventListener("resize", fitResults);
+  }, []);
 
   useEffect(() => {
     if (window.innerWidth < ROOMY_WIDTH_PX) setShelfOpen(false);
@@ -213,12 +226,18 @@ function EditorLayout({
       ) : null}
       <div className="ks-workspace">
         {readOnly || !shelfOpen ? null : <PartsShelf onPlace={placeAtCentre} />}
-        <div className="ks-centre" style={{ "--ks-results-share": `${resultsShare}%` } as CSSProperties}>
+        <div className="ks-centre" ref={centreRef} style={{ "--ks-results-share": `${resultsShare}%` } as CSSProperties}>
           <div className="ks-canvas" ref={canvasRef} onPointerDownCapture={commitFieldBeingTyped}>
             <SheetCanvas />
             <NoticeToast />
           </div>
-          <ResultsSplitter share={resultsShare} onChange={setResultsShare} />
+          <ResultsSplitter
+            share={resultsShare}
+            onChange={(share) => {
+              resultsSharedByHand.current = true;
+              setResultsShare(share);
+            }}
+          />
           <div className="ks-results-dock">
             <ResultsTabs csvBase={resultsCsvBase} />
           </div>
