@@ -68,6 +68,8 @@ export function nameSubLine(kind: ElementKind, element: AnyElement): string {
 /** What the sheet shows besides names: the fault levels are a toggle (Fault levels in the toolbar). */
 export interface ShownReadings {
   faults: boolean;
+  /** When the case picker shows the envelope of all cases: the longest case name, which its Readings carry. */
+  envelopeCase?: string;
 }
 
 /**
@@ -79,13 +81,17 @@ function widestReadings(entry: ElementEntry, shown: ShownReadings): string[] {
   switch (entry.kind) {
     case "bus": {
       const bus = entry.element as Bus;
-      const lines = ["−1234.5 kV ✕", "1.0005 pu ∠ −123.45°"];
+      const lines =
+        shown.envelopeCase !== undefined
+          ? [`lowest 1.0005 pu · ${shown.envelopeCase} ✕`, `highest 1.0005 pu · ${shown.envelopeCase} ✕`]
+          : ["−1234.5 kV ✕", "1.0005 pu ∠ −123.45°"];
       if (shown.faults)
         lines.push("I″k3 123.45 kA · I″k1 123.45 kA ✕", `S″k3 min 12345.6 MVA${bus.minFaultMVA !== undefined ? " (asked 12345.6)" : ""} ✕`);
       return lines;
     }
     case "transformer":
     case "line": {
+      if (shown.envelopeCase !== undefined) return [`highest 123.45 % · ${shown.envelopeCase} ✕`];
       const lines = ["▶ 1234.5 MW ▶ 1234.5 Mvar", "loss 12345.6 kW · 123.45 % ✕"];
       if (entry.kind === "transformer" && (entry.element as Transformer).tapControl) lines.push("regulating: tap +12.34 % · range ran out ✕");
       return lines;

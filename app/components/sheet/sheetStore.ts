@@ -230,7 +230,10 @@ export function createSheetStore(init: SheetInit): SheetStore {
           arrange: async () => {
             if (get().readOnly) return;
             const { arrangeLeftToRight } = await import("./arrange.ts");
-            apply(arrangeLeftToRight(content(), { faults: get().showFaults }));
+            const { document, caseView, showFaults } = get();
+            const caseNames = (document.cases ?? []).map((c) => c.name);
+            const envelopeCase = caseView.kind === "envelope" ? caseNames.reduce((a, b) => (b.length > a.length ? b : a), "") : undefined;
+            apply(arrangeLeftToRight(content(), { faults: showFaults, envelopeCase }));
           },
           undo: () => {
             if (!get().readOnly) history().undo();

@@ -90,6 +90,16 @@ describe("arrange left to right", () => {
     expect(overlaps(arranged)).toEqual([]);
   });
 
+  it("keeps room for the envelope's Readings, which name the case that sets each figure", () => {
+    const doc = load("tarn-head-calder-flats.json");
+    const longest = (doc.cases ?? []).map((c) => c.name).reduce((a, b) => (b.length > a.length ? b : a), "");
+    expect(longest.length).toBeGreaterThan(0);
+    for (const faults of [false, true]) {
+      const shown = { faults, envelopeCase: longest };
+      expect(overlaps(arrangeLeftToRight({ document: withImportedLoads(doc), layout: {} }, shown), shown)).toEqual([]);
+    }
+  });
+
   it("runs the hydro chain from the generator towards the loads", () => {
     const arranged = arrangeLeftToRight({ document: load("tarn-head-calder-flats.json"), layout: {} });
     const x = (id: string) => documentToFlow(arranged.document, arranged.layout).nodes.find((n) => n.id === id)!.position.x;
