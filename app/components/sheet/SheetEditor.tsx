@@ -98,15 +98,18 @@ function EditorLayout({
 
   useLiveSolve(store);
 
-  // Results start with what the drawing can spare of this window, until the planner drags them.
+  // Results start with what the drawing can spare of this window, until the planner drags them;
+  // the centre's height follows the window and whatever sits above it (a toolbar that wraps).
   useEffect(() => {
+    const centre = centreRef.current;
+    if (!centre) return;
     const fitResults = () => {
-      if (resultsSharedByHand.current || !centreRef.current) return;
-      setResultsShare(firstResultsShare(centreRef.current.getBoundingClientRect().height, window.innerHeight));
+      if (!resultsSharedByHand.current) setResultsShare(firstResultsShare(centre.getBoundingClientRect().height, window.innerHeight));
     };
     fitResults();
-    window.addEventListener("resize", fitResults);
-    return () => window.removeEventListener("resize", fitResults);
+    const watcher = new ResizeObserver(fitResults);
+    watcher.observe(centre);
+    return () => watcher.disconnect();
   }, []);
 
   useEffect(() => {
