@@ -3,11 +3,12 @@
 // case applied, through solveNetwork); the envelope runs the study's cases (no outages, no years,
 // no fault levels) and keeps each bus's lowest and highest voltage and each branch's highest
 // loading with the case that sets it. So the sheet shows the numbers the study page shows.
-import { validateNetwork, type Network } from "#solver/schema.ts";
-import { indexElements } from "#solver/elements.ts";
+// The solving itself is in caseSolve.ts, loaded the first time a case is picked, so the editor's
+// JavaScript carries the study engine only for those who use it.
+import type { Network } from "#solver/schema.ts";
 import type { SolveResult } from "#solver/results.ts";
-import { runStudySync, solveCase } from "#solver/study/index.ts";
 import type { Study } from "#solver/study/results.ts";
+import type { BranchEnvelopeRow, BusEnvelopeRow } from "#solver/study/tables.ts";
 
 export type CaseView = { kind: "as-drawn" } | { kind: "case"; id: string } | { kind: "envelope" };
 
@@ -52,32 +53,5 @@ export interface ShownCase {
 
 export type CaseSolve =
   | { kind: "case"; result: SolveResult; network: Network; shownCase: ShownCase }
-  | { kind: "envelope"; network: Network; study: Study }
+  | { kind: "envelope"; network: Network; study: Study; buses: Map<string, BusEnvelopeRow>; branches: Map<string, BranchEnvelopeRow> }
   | { kind: "as-drawn" };
-
-/**
- * Solve `document` (a complete network, or a draft's solvable part) in the view asked for; "as
- * drawn", or a view the document no longer offers, is left to the sheet's ordinary solve.
- */
-export function solveInView(document: Network, view: CaseView): CaseSolve {
-  const shown = availableView(document, view);
-  if (shown.kind === "as-drawn") return { kind: "as-drawn" };
-  const validated = validateNetwork(document);
-  if (!validated.ok) return { kind: "as-drawn" };
-  const network = validated.network;
-  if (shown.kind === "envelope") {
-    const outcome = runStudySync(network, { faults: false });
-    return outcome.ok ? { kind: "envelope", network, study: outcome.study } : { kind: "as-drawn" };
-  }
-  const operatingCase = network.cases!.find((c) => c.id === shown.id)!;
-  const solved = solveCase(network, operatingCase);
-  const seen = solved.network ? indexElements(solved.network) : new Map();
-  const outOfService = new Set([...indexElements(network).keys()].filter((id) => !seen.has(id)));
-  return {
-    kind: "case",
-    result: solved.result,
-    // With nothing energised the solver saw no network: the tables then list the drawing's names, without numbers.
-    network: solved.network ?? network,
-    shownCase: { id: operatingCase.id, name: operatingCase.name, outOfService, lostLoadMW: solved.lostLoadMW },
-  };
-}

@@ -7,10 +7,10 @@ import type { Check, SolveResult } from "#solver/results.ts";
 import type { Network } from "#solver/schema.ts";
 import { documentIssues } from "./documentIssues.ts";
 import { solvablePart } from "./solvablePart.ts";
-import { AS_DRAWN_VIEW, solveInView, type CaseView } from "./caseView.ts";
+import { AS_DRAWN_VIEW, type CaseView } from "./caseView.ts";
+import type { SolveInView } from "./caseSolve.ts";
 import type { Readings, SheetStore, SolveState } from "./sheetStore.ts";
 import type { SheetIssue } from "./documentIssues.ts";
-import { branchEnvelopeRows, busEnvelopeRows } from "#solver/study/tables.ts";
 
 export const READINGS_MEASURE = "kilostep:edit-to-readings";
 
@@ -18,13 +18,13 @@ export const READINGS_MEASURE = "kilostep:edit-to-readings";
  * A draft solves its complete part (solvablePart.ts): readings there, the rest marked as left
  * out and its problems listed, never a sheet without numbers for one loose part.
  */
-export function solveForSheet(document: Network, view: CaseView = AS_DRAWN_VIEW): SolveState {
+export function solveForSheet(document: Network, view: CaseView = AS_DRAWN_VIEW, solveInView?: SolveInView): SolveState {
   const started = performance.now();
   const problems = documentIssues(document);
   const part = problems.length ? solvablePart(document) : { network: document, leftOut: new Set<string>() };
   if (!part) return { kind: "invalid", issues: problems };
-  if (view.kind !== "as-drawn") {
-    const shown = solveShownCase(part.network, view, started, part.leftOut, problems);
+  if (view.kind !== "as-drawn" && solveInView) {
+    const shown = solveShownCase(solveInView, part.network, view, started, part.leftOut, problems);
     if (shown) return shown;
   }
   let outcome: ReturnType<typeof solveNetwork>;
@@ -41,7 +41,14 @@ export function solveForSheet(document: Network, view: CaseView = AS_DRAWN_VIEW)
 }
 
 /** One operating case, or the envelope across them all; undefined leaves the drawing as drawn. */
-function solveShownCase(network: Network, view: CaseView, started: number, leftOut: Set<string>, problems: SheetIssue[]): SolveState | undefined {
+function solveShownCase(
+  solveInView: SolveInView,
+  network: Network,
+  view: CaseView,
+  started: number,
+  leftOut: Set<string>,
+  problems: SheetIssue[],
+): SolveState | undefined {
   let solved: ReturnType<typeof solveInView>;
   try {
     solved = solveInView(network, view);
@@ -54,19 +61,8 @@ function solveShownCase(network: Network, view: CaseView, started: number, leftO
     const readings = readingsOf(solved.result, solved.network, elapsedMs, leftOut, problems);
     return { kind: "solved", readings: { ...readings, shownCase: solved.shownCase } };
   }
-  const { study } = solved;
-  return {
-    kind: "envelope",
-    envelope: {
-      network: solved.network,
-      study,
-      elapsedMs,
-      buses: new Map(busEnvelopeRows(solved.network, study).map((row) => [row.id, row])),
-      branches: new Map(branchEnvelopeRows(solved.network, study).map((row) => [row.id, row])),
-      leftOut,
-      problems,
-    },
-  };
+  const { network: solvedNetwork, study, buses, branches } = solved;
+  return { kind: "envelope", envelope: { network: solvedNetwork, study, elapsedMs, buses, branches, leftOut, problems } };
 }
 
 function readingsOf(result: SolveResult, network: Network, elapsedMs: number, leftOut: Set<string>, problems: SheetIssue[]): Readings {
@@ -100,7 +96,22 @@ function readingsOf(result: SolveResult, network: Network, elapsedMs: number, le
  */
 export function useLiveSolve(store: SheetStore): void {
   useEffect(() => {
-    const run = () => store.getState().actions.setSolve(solveForSheet(store.getState().document, store.getState().caseView));
+    // The case picker's solving loads the first time a case is picked (caseSolve.ts).
+    let solveInView: SolveInView | undefined;
+    const run = () => {
+      const { document, caseView, actions } = store.getState();
+      if (caseView.kind !== "as-drawn" && !solveInView) {
+        import("./caseSolve.ts").then(
+          (loaded) => {
+            solveInView = loaded.solveInView;
+            run();
+          },
+          () => actions.setSolve({ kind: "failed", message: "The operating case could not be loaded; check the connection and pick the case again." }),
+        );
+        return;
+      }
+      actions.setSolve(solveForSheet(document, caseView, solveInView));
+    };
     run();
     return store.subscribe((state, previous) => {
       if (state.document !== previous.document || state.caseView !== previous.caseView) run();

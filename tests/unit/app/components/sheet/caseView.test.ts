@@ -6,7 +6,11 @@ import { describe, expect, it } from "vitest";
 import { solveNetwork } from "#solver/index.ts";
 import { validateNetwork, type Network } from "#solver/schema.ts";
 import { availableView, caseChoices } from "#app/components/sheet/caseView.ts";
-import { solveForSheet } from "#app/components/sheet/liveSolve.ts";
+import { solveInView } from "#app/components/sheet/caseSolve.ts";
+import { solveForSheet as solveForSheetAsDrawn } from "#app/components/sheet/liveSolve.ts";
+import type { CaseView } from "#app/components/sheet/caseView.ts";
+
+const solveForSheet = (document: Network, view: CaseView) => solveForSheetAsDrawn(document, view, solveInView);
 
 function demo(): Network {
   const parsed = validateNetwork(JSON.parse(readFileSync("tests/fixtures/tarn-head-calder-flats.json", "utf8")));
