@@ -37,13 +37,13 @@ describe("/networks", () => {
     expect(page.status).toBe(200);
     expect(page.body.name).toBe("Feeder study");
     expect(page.body.issues).toEqual([]);
-    expect(page.body.document.buses).toHaveLength(1);
-    expect(page.body.document.sources[0].control).toBe("slack");
+    expect(JSON.parse(page.body.documentText).buses).toHaveLength(1);
+    expect(JSON.parse(page.body.documentText).sources[0].control).toBe("slack");
 
     const demo = await createAs("owner", "tarn-head-calder-flats");
     const demoPage = await call(networkLoader, getRequest(`/networks/${demo}`, cookie.owner), { networkId: String(demo) });
     expect(demoPage.body.name).toBe("Tarn Head to Calder Flats (fictional)");
-    expect(demoPage.body.document.transformers).toHaveLength(2);
+    expect(JSON.parse(demoPage.body.documentText).transformers).toHaveLength(2);
     expect(await createAs("owner", "hollin-moor-solar", "Solar copy")).toBeGreaterThan(0);
   });
 
@@ -74,7 +74,7 @@ describe("/networks", () => {
     expect(outcome.status).toBe(200);
     const page = await call(networkLoader, getRequest(`/networks/${id}`, cookie.editor), { networkId: String(id) });
     expect(page.body.name).toBe("After");
-    expect(page.body.document.name).toBe("After");
+    expect(JSON.parse(page.body.documentText).name).toBe("After");
     expect(page.body.revision.number).toBe(2);
     expect(page.body.revision.message).toBe('Renamed to "After"');
     const empty = await post("editor", { intent: "rename", networkId: String(id), name: "  " });
