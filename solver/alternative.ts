@@ -138,7 +138,7 @@ export function deriveAlternative(
     if (hvFacing.has(t.id) !== lvFacing.has(t.id) && rerated.hvKV <= rerated.lvKV)
       issues.push({
         path: formatPath(["transformers", network.transformers.indexOf(t)]),
-        message: `Transformer "${t.name}" (${t.id}) would have its ${hvFacing.has(t.id) ? "HV" : "LV"} winding at ${voltageKV} kV, ${hvFacing.has(t.id) ? "not above" : "not below"} its other winding (${hvFacing.has(t.id) ? t.lvKV : t.hvKV} kV); choose a candidate on the right side of it`,
+        message: `Transformer "${t.name}" would have its ${hvFacing.has(t.id) ? "HV" : "LV"} winding at ${voltageKV} kV, ${hvFacing.has(t.id) ? "not above" : "not below"} its other winding (${hvFacing.has(t.id) ? t.lvKV : t.hvKV} kV); choose a candidate on the right side of it`,
       });
     return { ...rerated, ...o.transformers?.[t.id] };
   });

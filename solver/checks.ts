@@ -33,7 +33,7 @@ function voltageChecks(network: Network, loadFlow: LoadFlowResult): Check[] {
     const reading = readings[i];
     const low = reading.vPu < bus.vMinPu;
     if (!low && !(reading.vPu > bus.vMaxPu)) continue;
-    const who = `Bus "${bus.name}" (${bus.id})`;
+    const who = `Bus "${bus.name}"`;
     const band = `voltage band ${bus.vMinPu}–${bus.vMaxPu} pu`;
     const measured = `${pu(reading.vPu)} (${reading.vKV.toFixed(2)} kV)`;
     checks.push(
@@ -69,7 +69,7 @@ function lineChecks(network: Network, loadFlow: LoadFlowResult): Check[] {
       value: reading.currentA,
       limit: line.ampacityA,
       message:
-        `Line "${line.name}" (${line.id}): current ${reading.currentA.toFixed(0)} A is above its ampacity ` +
+        `Line "${line.name}": current ${reading.currentA.toFixed(0)} A is above its ampacity ` +
         `${line.ampacityA.toFixed(0)} A, ${reading.loadingPct?.toFixed(0)} % loaded (rule: line current within its thermal rating)`,
     });
   }
@@ -94,7 +94,7 @@ function transformerChecks(network: Network, loadFlow: LoadFlowResult): Check[] 
       value: apparentMVA,
       limit: t.ratedMVA,
       message:
-        `Transformer "${t.name}" (${t.id}): apparent power ${apparentMVA.toFixed(2)} MVA is above its rating ` +
+        `Transformer "${t.name}": apparent power ${apparentMVA.toFixed(2)} MVA is above its rating ` +
         `${t.ratedMVA} MVA, ${(reading.loadingPct ?? 0).toFixed(0)} % loaded (rule: apparent power within rated MVA)`,
     });
   }

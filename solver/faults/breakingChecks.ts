@@ -22,7 +22,7 @@ export function faultChecks(network: Network, faults: FaultResult): Check[] {
       value: worst,
       limit: bus.breakingKA,
       message:
-        `Bus "${bus.name}" (${bus.id}): initial symmetrical short-circuit current I"k3 = ${kA(reading.ik3kA)}, ` +
+        `Bus "${bus.name}": initial symmetrical short-circuit current I"k3 = ${kA(reading.ik3kA)}, ` +
         `I"k1 = ${kA(reading.ik1kA)}; ${reading.ik3kA >= reading.ik1kA ? 'I"k3' : 'I"k1'} exceeds the switchgear's ` +
         `rated breaking current ${kA(bus.breakingKA)} (IEC 60909-0 initial symmetrical current against rated breaking current)`,
     });
@@ -46,7 +46,7 @@ function minimumFaultChecks(network: Network, faults: FaultResult): Check[] {
       kind: "minimum-fault-level",
       value: minimumMVA,
       limit: bus.minFaultMVA,
-      message: `Bus "${bus.name}" (${bus.id}): minimum fault level S"k3min = ${minimumMVA.toFixed(0)} MVA is below the ${bus.minFaultMVA} MVA asked of it (IEC 60909-0 minimum case)`,
+      message: `Bus "${bus.name}": minimum fault level S"k3min = ${minimumMVA.toFixed(0)} MVA is below the ${bus.minFaultMVA} MVA asked of it (IEC 60909-0 minimum case)`,
     });
   }
   for (const converter of faults.converters) {
@@ -58,7 +58,7 @@ function minimumFaultChecks(network: Network, faults: FaultResult): Check[] {
       kind: "weak-grid",
       value: converter.scr,
       limit: asked,
-      message: `Converter plant "${source.name}" (${source.id}): short-circuit ratio ${converter.scr.toFixed(2)} at its bus is below ${asked}${source.minShortCircuitRatio === undefined ? "" : " asked of it"}, a weak connection (S"k3min / rated MVA${source.minShortCircuitRatio === undefined ? ", common practice" : ""})`,
+      message: `Converter plant "${source.name}": short-circuit ratio ${converter.scr.toFixed(2)} at its bus is below ${asked}${source.minShortCircuitRatio === undefined ? "" : " asked of it"}, a weak connection (S"k3min / rated MVA${source.minShortCircuitRatio === undefined ? ", common practice" : ""})`,
     });
   }
   return checks;

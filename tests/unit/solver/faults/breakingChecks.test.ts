@@ -34,7 +34,7 @@ describe("breaking-current checks", () => {
     expect(check.kind).toBe("breaking-current");
     expect(check.limit).toBe(8.5);
     expect(check.value).toBeCloseTo(9.035, 3);
-    expect(check.message).toContain('Bus "Bay 11 kV" (lv)');
+    expect(check.message).toContain('Bus "Bay 11 kV": ');
     expect(check.message).toContain('I"k3 = 8.11 kA');
     expect(check.message).toContain('I"k1 = 9.03 kA');
     expect(check.message).toContain("8.50 kA");
