@@ -43,11 +43,16 @@ export const PART_DRAG_TYPE = "application/x-kilostep-part";
 const CLOSE_ZOOM = 0.9;
 const FAR_ZOOM = 0.4;
 const MAX_TEXT_SCALE = 3.2;
+/** From this text scale on, each name is cut to its normal-size room (sheet.css), so it cannot reach a neighbour. */
+const CUT_TEXT_SCALE = 1.5;
 
 function zoomDetail(zoom: number): { className: string; textScale: number } {
   const textScale = Math.min(MAX_TEXT_SCALE, Math.max(1, 1 / zoom));
   if (zoom >= CLOSE_ZOOM) return { className: "ks-sheet", textScale: 1 };
-  return { className: zoom < FAR_ZOOM ? "ks-sheet ks-sheet-mid ks-sheet-far" : "ks-sheet ks-sheet-mid", textScale: Math.round(textScale * 20) / 20 };
+  const classes = ["ks-sheet", "ks-sheet-mid"];
+  if (textScale >= CUT_TEXT_SCALE) classes.push("ks-sheet-cut");
+  if (zoom < FAR_ZOOM) classes.push("ks-sheet-far");
+  return { className: classes.join(" "), textScale: Math.round(textScale * 20) / 20 };
 }
 
 function busColour(node: SheetNode): string {

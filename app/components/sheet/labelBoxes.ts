@@ -28,6 +28,11 @@ export function textWidthPx(text: string, fontPx: number): number {
 
 // The sizes sheet.css gives the words (font size × line height, padding and border).
 const NAME_FONT_PX = 11;
+
+/** The room an element's name takes at normal size: zoomed out, its larger words are cut to it. */
+export function nameRoomPx(name: string): number {
+  return textWidthPx(name, NAME_FONT_PX);
+}
 const NAME_LINE_PX = 11 * 1.2;
 const SUB_FONT_PX = 10;
 const SUB_LINE_PX = 10 * 1.2;

@@ -1,6 +1,6 @@
 // The sheet's node components, one per element kind. Each draws its symbol at a fixed size (the
 // size flowModel gives xyflow), its name above and its Readings below.
-import { memo, type ReactNode } from "react";
+import { memo, type CSSProperties, type ReactNode } from "react";
 import { Handle, Position, useConnection, type NodeProps } from "@xyflow/react";
 import type { Bus, Line, Load, Shunt, Source, Transformer } from "#solver/schema.ts";
 import type { SheetNode, Side, TerminalId } from "./flowModel.ts";
@@ -10,7 +10,7 @@ import { UNEARTHED_NOTE } from "#solver/faults/index.ts";
 import { type LimitStatus, lowerLimitStatus, statusCue, upperLimitStatus, voltageStatus } from "#app/lib/limitStatus.ts";
 import { minShortCircuitRatio } from "#solver/equipmentRules.ts";
 import { useSheet } from "./sheetStore.ts";
-import { nameSubLine } from "./labelBoxes.ts";
+import { nameRoomPx, nameSubLine } from "./labelBoxes.ts";
 import {
   CapacitorSymbol,
   ConverterSymbol,
@@ -52,8 +52,16 @@ function Terminal({ id, side, readOnly }: { id: TerminalId; side: Side; readOnly
   );
 }
 
-function Label({ children }: { children: ReactNode }) {
-  return <div className="ks-node-label">{children}</div>;
+/** A name's room (see nameRoomPx) as a style: zoomed out, sheet.css cuts the larger name to it. */
+const labelRoom = (name: string) => ({ "--ks-label-room": `${nameRoomPx(name)}px` }) as CSSProperties;
+
+function Label({ name, children }: { name: string; children: ReactNode }) {
+  return (
+    <div className="ks-node-label" style={labelRoom(name)}>
+      {name}
+      {children}
+    </div>
+  );
 }
 
 function ReadingBlock({ children }: { children: ReactNode }) {
@@ -115,7 +123,7 @@ function BusNodeView({ id, data }: NodeProps<SheetNode>) {
     <div className={`ks-node ks-bus${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
       {leftOut ? <LeftOutMark id={id} /> : null}
       <div className="ks-bus-span" style={{ top: barTopPx, height: barLengthPx }}>
-        <div className="ks-node-label ks-bus-label">
+        <div className="ks-node-label ks-bus-label" style={labelRoom(bus.name)}>
           <span className="ks-bus-name">{bus.name}</span>
           <span className="ks-bus-kv">{nameSubLine("bus", bus)}</span>
         </div>
@@ -220,8 +228,7 @@ function TransformerNodeView({ id, data }: NodeProps<SheetNode>) {
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
       {leftOut ? <LeftOutMark id={id} /> : null}
-      <Label>
-        {t.name}
+      <Label name={t.name}>
         <span className="ks-node-sub">{nameSubLine("transformer", t)}</span>
       </Label>
       <TransformerSymbol
@@ -256,8 +263,7 @@ function LineNodeView({ id, data }: NodeProps<SheetNode>) {
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
       {leftOut ? <LeftOutMark id={id} /> : null}
-      <Label>
-        {line.name}
+      <Label name={line.name}>
         <span className="ks-node-sub">{nameSubLine("line", line)}</span>
       </Label>
       <LineSymbol width={data.width} height={data.height} stroke={strokeOf(kv)} cable={line.kind === "cable"} />
@@ -284,8 +290,7 @@ function SourceNodeView({ id, data }: NodeProps<SheetNode>) {
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
       {leftOut ? <LeftOutMark id={id} /> : null}
-      <Label>
-        {source.name}
+      <Label name={source.name}>
         <span className="ks-node-sub">{nameSubLine("source", source)}</span>
       </Label>
       <Symbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
@@ -314,8 +319,7 @@ function LoadNodeView({ id, data }: NodeProps<SheetNode>) {
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
       {leftOut ? <LeftOutMark id={id} /> : null}
-      <Label>
-        {load.name}
+      <Label name={load.name}>
         <span className="ks-node-sub">{nameSubLine("load", load)}</span>
       </Label>
       <LoadSymbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
@@ -332,8 +336,7 @@ function ShuntNodeView({ id, data }: NodeProps<SheetNode>) {
   return (
     <div className={`ks-node ks-part${leftOut ? " ks-left-out" : ""}`} style={{ width: data.width, height: data.height }}>
       {leftOut ? <LeftOutMark id={id} /> : null}
-      <Label>
-        {shunt.name}
+      <Label name={shunt.name}>
         <span className="ks-node-sub">{nameSubLine("shunt", shunt)}</span>
       </Label>
       <CapacitorSymbol width={data.width} height={data.height} side={side} stroke={strokeOf(data.terminalKV.t)} />
