@@ -6,18 +6,10 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { readingNumber } from "../../app/lib/format.ts";
 import { signIn } from "./accounts.ts";
+import { failOnConsoleErrors } from "./consoleErrors.ts";
 import { countReactCommits, hydrated } from "./hydration.ts";
 
 const TARN_HEAD = "Tarn Head to Calder Flats (fictional)";
-
-function failOnConsoleErrors(page: Page) {
-  const errors: string[] = [];
-  page.on("console", (message) => {
-    if (message.type() === "error") errors.push(message.text());
-  });
-  page.on("pageerror", (error) => errors.push(error.message));
-  return () => expect(errors, "console errors on the page").toEqual([]);
-}
 
 const busReadings = (page: Page, busId: string) => page.locator(`.react-flow__node[data-id="${busId}"] .ks-readings`);
 

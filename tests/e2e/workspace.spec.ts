@@ -4,6 +4,7 @@
 import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { signIn } from "./accounts.ts";
+import { failOnConsoleErrors } from "./consoleErrors.ts";
 
 const DEMO = "Tarn Head to Calder Flats (fictional)";
 const sizes = [
@@ -11,15 +12,6 @@ const sizes = [
   { width: 1280, height: 720 },
   { width: 1440, height: 900 },
 ];
-
-function failOnConsoleErrors(page: Page) {
-  const errors: string[] = [];
-  page.on("console", (message) => {
-    if (message.type() === "error") errors.push(message.text());
-  });
-  page.on("pageerror", (error) => errors.push(error.message));
-  return () => expect(errors, "console errors on the page").toEqual([]);
-}
 
 const sidewaysScroll = (page: Page) => page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
 

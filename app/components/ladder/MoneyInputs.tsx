@@ -1,6 +1,7 @@
 // The money inputs with the defaults a planner recognises, and what they come to (loss load
 // factor, present-worth factor) worked out as they are typed. Also the read-only summary of the
 // same inputs that the study report prints.
+import type { ReactNode } from "react";
 import { FormField } from "#app/components/FormField.tsx";
 import { lossLoadFactor, presentWorthFactor, type CostPoint, type MoneyInput } from "#solver/economics.ts";
 import { fixed, kvText } from "#app/lib/format.ts";
@@ -74,53 +75,36 @@ export function UnitCostNote({ money }: { money: MoneyInput }) {
 const costList = (table: readonly CostPoint[], currency: string) =>
   `${table.map((p) => `${kvText(p.voltageKV)} ${Math.round(p.cost).toLocaleString("en-GB")}`).join(", ")} ${currency}`;
 
+/** A quantity's name with its unit, as the summary's row headings write it. */
+const withUnit = (name: string, unit: string) => (
+  <>
+    {name} <span className="unit">{unit}</span>
+  </>
+);
+
 /** The money inputs as the report prints them, with what they come to. */
 export function MoneySummary({ money }: { money: MoneyInput }) {
   const llf = lossLoadFactor(money.loadFactor, money.lossLoadFactorK);
+  const rows: [heading: ReactNode, value: ReactNode][] = [
+    ["Load factor", fixed(money.loadFactor, 3)],
+    ["k of the loss load factor", fixed(money.lossLoadFactorK, 3)],
+    ["Loss load factor, k·LF + (1 − k)·LF²", fixed(llf, 4)],
+    [withUnit("Energy price", `${money.currency}/MWh`), fixed(money.energyPricePerMWh, 2)],
+    [withUnit("Discount rate", "% a year"), fixed(money.discountRatePct, 2)],
+    [withUnit("Study period", "years"), money.studyYears],
+    ["Present-worth factor, (1 − (1 + i)^−n) / i", fixed(presentWorthFactor(money.discountRatePct / 100, money.studyYears), 4)],
+    [withUnit("Load growth", "% a year"), fixed(money.loadGrowthPct, 2)],
+  ];
   return (
     <div className="ks-table-scroll" tabIndex={0} role="region" aria-label="Money inputs">
       <table className="data-table ks-money-summary">
         <tbody>
-          <tr>
-            <th scope="row">Load factor</th>
-            <td className="num">{fixed(money.loadFactor, 3)}</td>
-          </tr>
-          <tr>
-            <th scope="row">k of the loss load factor</th>
-            <td className="num">{fixed(money.lossLoadFactorK, 3)}</td>
-          </tr>
-          <tr>
-            <th scope="row">Loss load factor, k·LF + (1 − k)·LF²</th>
-            <td className="num">{fixed(llf, 4)}</td>
-          </tr>
-          <tr>
-            <th scope="row">
-              Energy price <span className="unit">{money.currency}/MWh</span>
-            </th>
-            <td className="num">{fixed(money.energyPricePerMWh, 2)}</td>
-          </tr>
-          <tr>
-            <th scope="row">
-              Discount rate <span className="unit">% a year</span>
-            </th>
-            <td className="num">{fixed(money.discountRatePct, 2)}</td>
-          </tr>
-          <tr>
-            <th scope="row">
-              Study period <span className="unit">years</span>
-            </th>
-            <td className="num">{money.studyYears}</td>
-          </tr>
-          <tr>
-            <th scope="row">Present-worth factor, (1 − (1 + i)^−n) / i</th>
-            <td className="num">{fixed(presentWorthFactor(money.discountRatePct / 100, money.studyYears), 4)}</td>
-          </tr>
-          <tr>
-            <th scope="row">
-              Load growth <span className="unit">% a year</span>
-            </th>
-            <td className="num">{fixed(money.loadGrowthPct, 2)}</td>
-          </tr>
+          {rows.map(([heading, value], i) => (
+            <tr key={i}>
+              <th scope="row">{heading}</th>
+              <td className="num">{value}</td>
+            </tr>
+          ))}
         </tbody>
       </table>
     </div>
